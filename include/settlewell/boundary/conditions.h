@@ -1,0 +1,62 @@
+#pragma once
+
+#include "settlewell/boundary/time_function.h"
+
+#include <array>
+#include <string>
+#include <vector>
+
+namespace settlewell {
+
+/// Hydraulic conditions, addressed by boundary name. A boundary without one is
+/// no-flow. Values are absolute (not changes): the core subtracts the initial state.
+struct HydraulicCondition {
+  enum class Kind {
+    head,          ///< hydraulic head h, m
+    pore_pressure, ///< pore pressure p, kPa (compression positive)
+    normal_flux    ///< Darcy flux q.n leaving the body, m/s
+  };
+  std::string boundary;
+  Kind kind = Kind::head;
+  FieldFunction value;
+};
+
+/// Mechanical conditions, addressed by boundary name. A boundary without one is
+/// traction-free (no change of total stress).
+struct MechanicalCondition {
+  enum class Kind {
+    fixed,           ///< the displacement components in `fixed_components` are zero
+    normal_traction, ///< change of total normal stress on the face, kPa, tension positive
+    rigid_plate      ///< rigid frictionless plate: one common normal displacement that
+                     ///< carries a compressive total force `value` (kN per metre run in
+                     ///< plane strain, kN in axisymmetric); the face must be straight
+                     ///< and parallel to an axis. Its hydraulic condition is separate.
+  };
+  std::string boundary;
+  Kind kind = Kind::fixed;
+  std::array<bool, 2> fixed_components{{false, false}};
+  FieldFunction value;
+};
+
+/// A change of body force per unit volume in one region (kN/m^3), e.g. a change
+/// of unit weight; components in x and y.
+struct BodyForceChange {
+  std::string region;
+  std::array<TimeFunction, 2> components;
+};
+
+struct BoundaryConditions {
+  std::vector<HydraulicCondition> hydraulic;
+  std::vector<MechanicalCondition> mechanical;
+  std::vector<BodyForceChange> body_forces;
+
+  // Shorthands for building a set in code (tests, verification cases).
+  BoundaryConditions& head(const std::string& boundary, FieldFunction h);
+  BoundaryConditions& pore_pressure(const std::string& boundary, FieldFunction p);
+  BoundaryConditions& outflow(const std::string& boundary, FieldFunction q);
+  BoundaryConditions& fix(const std::string& boundary, bool x, bool y);
+  BoundaryConditions& normal_traction(const std::string& boundary, FieldFunction t);
+  BoundaryConditions& rigid_plate(const std::string& boundary, TimeFunction force);
+};
+
+} // namespace settlewell

@@ -1,0 +1,23 @@
+#pragma once
+
+#include <stdexcept>
+#include <string>
+
+namespace settlewell {
+
+/// An error in what the user gave the program (a file, a key, a boundary name).
+/// The message is one line that names where the problem is; the command line
+/// prints it and exits with status 2.
+class InputError : public std::runtime_error {
+public:
+  explicit InputError(const std::string& message) : std::runtime_error(message) {}
+};
+
+/// A failure inside a numerical step that the input did not cause directly
+/// (a singular matrix, a solver that did not converge).
+class SolverError : public std::runtime_error {
+public:
+  explicit SolverError(const std::string& message) : std::runtime_error(message) {}
+};
+
+} // namespace settlewell

@@ -1,0 +1,38 @@
+#pragma once
+
+#include "settlewell/mesh/mesh.h"
+
+#include <string>
+#include <vector>
+
+namespace settlewell {
+
+/// A horizontal band of the box that belongs to one region.
+struct RegionBand {
+  std::string region;
+  double bottom = 0.0; ///< elevation of the band's underside, m
+  double top = 0.0;    ///< elevation of the band's top, m
+};
+
+/// A rectangle meshed by the given cell edges (graded as the caller likes), with
+/// boundaries named "left", "right", "bottom", "top" and regions in horizontal bands.
+struct BoxSpec {
+  std::vector<double> x_edges;   ///< increasing x (or r) coordinates of cell edges, m
+  std::vector<double> y_edges;   ///< increasing y (or z) coordinates of cell edges, m
+  std::vector<RegionBand> bands; ///< empty: one region named "soil"
+};
+
+/// Builds the box on `comm`. Throws InputError for edges that do not increase or
+/// bands that do not cover every cell.
+Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm);
+
+/// n cell edges+1 from `start` to `end`; each cell is `growth` times the size of
+/// the previous one (growth 1: uniform). Cells are smallest at `start`.
+std::vector<double> graded_edges(double start, double end, unsigned int n_cells,
+                                 double growth);
+
+/// Edges from `start` to `end`, finest at both ends, symmetric about the middle.
+std::vector<double> double_graded_edges(double start, double end, unsigned int n_cells,
+                                        double growth);
+
+} // namespace settlewell

@@ -1,0 +1,58 @@
+#pragma once
+
+#include "settlewell/core/linear_algebra.h"
+#include "settlewell/mesh/mesh.h"
+#include "settlewell/physics/biot_setup.h"
+#include "settlewell/physics/field_layout.h"
+
+#include <deal.II/dofs/dof_handler.h>
+#include <deal.II/fe/mapping.h>
+
+#include <memory>
+
+namespace settlewell {
+
+/// What one time step did.
+struct StepReport {
+  double time = 0.0;         ///< s, at the end of the step
+  double dt = 0.0;           ///< s
+  bool new_matrix = false;   ///< the matrix was assembled and factorised in this step
+  unsigned int iterations = 0;
+  double assembly_seconds = 0.0;      ///< matrix (if new) and right-hand side
+  double factorisation_seconds = 0.0; ///< solver set-up for a new matrix
+  double solve_seconds = 0.0;
+};
+
+/// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, implicit
+/// Euler in time. Unknowns are the displacement and the excess pore pressure
+/// (change from the initial state) at the current time. The matrix depends only on
+/// dt; it is assembled and factorised once per distinct dt and reused.
+class BiotProblem {
+public:
+  /// Checks the setup against the mesh (names, materials) and distributes dofs.
+  /// The mesh must outlive the problem. Collective.
+  BiotProblem(const Mesh& mesh, BiotSetup setup);
+  ~BiotProblem();
+  BiotProblem(const BiotProblem&) = delete;
+  BiotProblem& operator=(const BiotProblem&) = delete;
+
+  /// One implicit-Euler step from time() to t_new (s). Collective.
+  StepReport advance_to(double t_new);
+
+  double time() const;
+  MPI_Comm communicator() const;
+  const Mesh& mesh() const;
+  const BiotSetup& setup() const;
+  const FieldLayout& layout() const;
+  const dealii::Mapping<2>& mapping() const;
+  const dealii::DoFHandler<2>& dof_handler() const;
+  /// Displacement (m) and excess pore pressure (kPa) at time(), with ghost values.
+  const LA::MPI::Vector& solution() const;
+  std::string solver_name() const;
+
+private:
+  struct Impl;
+  std::unique_ptr<Impl> impl_;
+};
+
+} // namespace settlewell

@@ -1,0 +1,36 @@
+#pragma once
+
+#include "settlewell/boundary/conditions.h"
+#include "settlewell/core/units.h"
+#include "settlewell/materials/poroelastic.h"
+
+#include <deal.II/base/point.h>
+
+#include <functional>
+#include <map>
+#include <string>
+
+namespace settlewell {
+
+enum class AnalysisType {
+  plane_strain, ///< x horizontal, y up, per metre run
+  axisymmetric  ///< x is the radius r >= 0, y is z up; integrals over the full circle
+};
+
+/// Everything the Biot core needs besides the mesh. Plain data, no parsing.
+struct BiotSetup {
+  AnalysisType analysis = AnalysisType::plane_strain;
+  double gamma_w = units::default_gamma_w; ///< kN/m^3
+  /// Material of every region of the mesh, by region name.
+  std::map<std::string, PoroelasticMaterial> materials;
+  BoundaryConditions conditions;
+  /// Initial hydraulic head h0(x), m; the initial pore pressure is gamma_w (h0 - y).
+  /// Prescribed heads and pore pressures are turned into changes from this state.
+  std::function<double(const dealii::Point<2>&)> initial_head =
+      [](const dealii::Point<2>&) { return 0.0; };
+  /// Hold every displacement at zero: transient seepage with storage S alone
+  /// (the uncoupled diffusion that Theis's solution assumes).
+  bool rigid_skeleton = false;
+};
+
+} // namespace settlewell

@@ -1,0 +1,75 @@
+#pragma once
+
+#include "settlewell/core/linear_algebra.h"
+#include "settlewell/physics/biot_setup.h"
+#include "settlewell/physics/field_layout.h"
+
+#include <deal.II/base/quadrature.h>
+#include <deal.II/dofs/dof_handler.h>
+#include <deal.II/fe/fe_values.h>
+#include <deal.II/fe/mapping.h>
+#include <deal.II/lac/full_matrix.h>
+#include <deal.II/lac/vector.h>
+
+#include <vector>
+
+namespace settlewell {
+
+/// Material data in the form the kernel uses at a quadrature point.
+struct CellCoefficients {
+  double lambda = 0.0;             ///< kPa
+  double mu = 0.0;                 ///< kPa
+  double alpha = 1.0;              ///< Biot coefficient
+  double storage = 0.0;            ///< 1/kPa
+  dealii::Tensor<2, 2> mobility;   ///< k / gamma_w, m^4/(kN s)
+
+  static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
+};
+
+/// Per-cell integrals of the implicit-Euler Biot system, written as the symmetric
+/// saddle-point form
+///   [ A       -alpha B^T       ] [u]   [ f                                  ]
+///   [ -alpha B  -(S M + dt H)  ] [p] = [ -alpha B u_n - S M p_n + dt q_out ]
+/// Axisymmetric integrals carry the weight 2 pi r and the hoop strain u_r / r.
+class CellKernel {
+public:
+  CellKernel(const FieldLayout& layout, AnalysisType analysis,
+             const dealii::Mapping<2>& mapping);
+
+  void reinit(const dealii::DoFHandler<2>::active_cell_iterator& cell);
+  unsigned int dofs_per_cell() const { return fe_values_.dofs_per_cell; }
+
+  void add_matrix(const CellCoefficients& c, double dt, dealii::FullMatrix<double>& out);
+  /// Old-state part of the storage equation: -(alpha div u_n + S p_n) in the p rows.
+  void add_old_state(const CellCoefficients& c, const LA::MPI::Vector& old_solution,
+                     dealii::Vector<double>& out);
+  void add_body_force(const dealii::Tensor<1, 2>& b, dealii::Vector<double>& out);
+
+  /// A traction vector `t` (kPa) given per face point, on face `face`.
+  void add_face_traction(unsigned int face,
+                         const std::function<dealii::Tensor<1, 2>(
+                             const dealii::Point<2>&, const dealii::Tensor<1, 2>&)>& t,
+                         dealii::Vector<double>& out);
+  /// dt times an outflow q.n (m/s) in the p rows, on face `face`.
+  void add_face_outflow(unsigned int face, double dt, const FieldFunction& q, double t,
+                        dealii::Vector<double>& out);
+
+  /// Integration weight at a point: JxW, times 2 pi r if axisymmetric.
+  double weight(const dealii::FEValuesBase<2>& fv, unsigned int q) const;
+
+private:
+  void evaluate_shapes(unsigned int q);
+
+  const FieldLayout& layout_;
+  AnalysisType analysis_;
+  dealii::DoFHandler<2>::active_cell_iterator cell_;
+  dealii::FEValues<2> fe_values_;
+  dealii::FEFaceValues<2> face_values_;
+  std::vector<unsigned int> component_;
+  // Shape data at one quadrature point.
+  std::vector<dealii::SymmetricTensor<2, 2>> strain_;
+  std::vector<double> hoop_, divergence_, phi_p_;
+  std::vector<dealii::Tensor<1, 2>> grad_p_;
+};
+
+} // namespace settlewell

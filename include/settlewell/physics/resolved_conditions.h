@@ -1,0 +1,57 @@
+#pragma once
+
+#include "settlewell/mesh/name_table.h"
+#include "settlewell/physics/biot_setup.h"
+
+#include <deal.II/base/tensor.h>
+
+#include <optional>
+#include <vector>
+
+namespace settlewell {
+
+/// A prescribed excess pore pressure on a boundary, already turned from the head
+/// or pore pressure the user gave into a change from the initial state, kPa.
+struct ExcessPressureBoundary {
+  dealii::types::boundary_id id;
+  FieldFunction excess_pressure;
+};
+
+struct FluxBoundary {
+  dealii::types::boundary_id id;
+  FieldFunction outflow; ///< q.n, m/s
+};
+
+struct FixedBoundary {
+  dealii::types::boundary_id id;
+  std::array<bool, 2> components;
+};
+
+struct TractionBoundary {
+  dealii::types::boundary_id id;
+  FieldFunction normal_traction; ///< kPa, tension positive
+};
+
+struct PlateBoundary {
+  dealii::types::boundary_id id;
+  TimeFunction compressive_force; ///< kN/m (plane strain) or kN (axisymmetric)
+};
+
+/// Boundary conditions with names replaced by ids, checked against the mesh and
+/// against each other. Body forces are per material id.
+struct ResolvedConditions {
+  std::vector<ExcessPressureBoundary> pressures;
+  std::vector<FluxBoundary> fluxes;
+  std::vector<FixedBoundary> fixed;
+  std::vector<TractionBoundary> tractions;
+  std::optional<PlateBoundary> plate;
+  std::vector<std::pair<dealii::types::material_id, std::array<TimeFunction, 2>>> body_forces;
+
+  dealii::Tensor<1, 2> body_force(dealii::types::material_id region, double t) const;
+};
+
+/// Throws InputError for unknown names, two hydraulic conditions on one boundary,
+/// a plate that is also fixed, or more than one plate.
+ResolvedConditions resolve_conditions(const BiotSetup& setup, const NameTable& names);
+
+} // namespace settlewell

@@ -1,0 +1,40 @@
+#pragma once
+
+#include "settlewell/verification/check_row.h"
+
+#include <mpi.h>
+
+#include <string>
+#include <vector>
+
+namespace settlewell::verification {
+
+struct CaseSettings {
+  /// When not empty, each case writes its fields (VTU per report time + PVD) into
+  /// <vtk_directory>/<case name>/.
+  std::string vtk_directory;
+};
+
+/// A verification case: a model of a published problem, run at a quick setting,
+/// and its comparisons with the published solution.
+struct VerificationCase {
+  std::string name;
+  std::string summary;
+  std::vector<CheckRow> (*run)(const CaseSettings& settings, MPI_Comm comm);
+};
+
+const std::vector<VerificationCase>& all_cases();
+/// Throws InputError listing the case names if `name` is unknown.
+const VerificationCase& find_case(const std::string& name);
+
+// The cases, one file each under src/verification/.
+std::vector<CheckRow> run_terzaghi_head_drop_double(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_terzaghi_head_drop_single(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_terzaghi_surface_load(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_terzaghi_axisymmetric(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_mandel(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_thiem(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_theis(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_convergence(const CaseSettings&, MPI_Comm);
+
+} // namespace settlewell::verification

@@ -1,0 +1,138 @@
+// The command line: parses arguments, starts MPI, runs one command, turns errors
+// into one line and an exit status. All the work is in the library.
+#include "settlewell/core/errors.h"
+#include "settlewell/core/version.h"
+#include "settlewell/verification/cases.h"
+
+#include <CLI/CLI.hpp>
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/revision.h>
+#include <petscversion.h>
+
+#include <chrono>
+#include <iostream>
+
+namespace {
+
+constexpr int exit_ok = 0;
+constexpr int exit_checks_failed = 1;
+constexpr int exit_usage = 2;
+constexpr int exit_solver = 3;
+
+bool is_root() { return dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0; }
+
+std::string version_text() {
+  return std::string("settlewell ") + settlewell::version_string + " (deal.II " +
+         DEAL_II_PACKAGE_VERSION + ", PETSc " + std::to_string(PETSC_VERSION_MAJOR) + "." +
+         std::to_string(PETSC_VERSION_MINOR) + "." + std::to_string(PETSC_VERSION_SUBMINOR) +
+         ")";
+}
+
+struct VerifyOptions {
+  std::vector<std::string> cases;
+  std::string vtk_directory;
+  bool list = false;
+};
+
+int run_verify(const VerifyOptions& options) {
+  namespace v = settlewell::verification;
+  if (options.list) {
+    if (is_root())
+      for (const auto& c : v::all_cases())
+        std::cout << c.name << "  " << c.summary << '\n';
+    return exit_ok;
+  }
+  std::vector<const v::VerificationCase*> selected;
+  if (options.cases.empty())
+    for (const auto& c : v::all_cases())
+      selected.push_back(&c);
+  for (const auto& name : options.cases)
+    selected.push_back(&v::find_case(name));
+
+  const v::CaseSettings settings{options.vtk_directory};
+  std::vector<v::CheckRow> rows;
+  for (const auto* c : selected) {
+    const auto start = std::chrono::steady_clock::now();
+    if (is_root())
+      std::cerr << "running " << c->name << " (" << c->summary << ") ..." << std::flush;
+    const auto case_rows = c->run(settings, MPI_COMM_WORLD);
+    rows.insert(rows.end(), case_rows.begin(), case_rows.end());
+    if (is_root())
+      std::cerr << " "
+                << std::chrono::duration<double>(std::chrono::steady_clock::now() - start)
+                       .count()
+                << " s\n";
+  }
+  if (is_root()) {
+    v::print_table(std::cout, rows);
+    if (!options.vtk_directory.empty())
+      std::cout << "Fields of each case: " << options.vtk_directory
+                << "/<case>/<case>.pvd (times in days)\n";
+  }
+  return v::all_passed(rows) ? exit_ok : exit_checks_failed;
+}
+
+int dispatch(int argc, char** argv) {
+  CLI::App app{"Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
+               "excavations."};
+  app.set_version_flag("--version", version_text());
+  app.require_subcommand(1);
+
+  VerifyOptions verify;
+  auto* verify_cmd = app.add_subcommand(
+      "verify", "Run the verification cases against published solutions and print a "
+                "table; exit status 0 only if every check passes.");
+  verify_cmd->add_option("--case", verify.cases, "Run only this case (repeatable)");
+  verify_cmd->add_option("--vtk", verify.vtk_directory,
+                         "Also write each case's fields (VTU + PVD) into this folder");
+  verify_cmd->add_flag("--list", verify.list, "List the cases and exit");
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::CallForHelp&) {
+    if (is_root())
+      std::cout << app.help();
+    return exit_ok;
+  } catch (const CLI::CallForAllHelp&) {
+    if (is_root())
+      std::cout << app.help("", CLI::AppFormatMode::All);
+    return exit_ok;
+  } catch (const CLI::CallForVersion&) {
+    if (is_root())
+      std::cout << version_text() << '\n';
+    return exit_ok;
+  } catch (const CLI::ParseError& e) {
+    if (is_root())
+      std::cerr << "settlewell: " << e.what() << " (see settlewell --help)\n";
+    return exit_usage;
+  }
+  if (verify_cmd->parsed())
+    return run_verify(verify);
+  return exit_usage;
+}
+
+} // namespace
+
+int main(int argc, char** argv) {
+  // PETSc reads its own options from argv; give it only the program name so that
+  // our options (--help among them) reach CLI11 alone. Experts can still pass
+  // PETSc options through the PETSC_OPTIONS environment variable.
+  int petsc_argc = 1;
+  char** petsc_argv = argv;
+  dealii::Utilities::MPI::MPI_InitFinalize mpi(petsc_argc, petsc_argv, 1);
+  try {
+    return dispatch(argc, argv);
+  } catch (const settlewell::InputError& e) {
+    if (is_root())
+      std::cerr << "settlewell: error: " << e.what() << '\n';
+    return exit_usage;
+  } catch (const settlewell::SolverError& e) {
+    if (is_root())
+      std::cerr << "settlewell: solver error: " << e.what() << '\n';
+    return exit_solver;
+  } catch (const std::exception& e) {
+    if (is_root())
+      std::cerr << "settlewell: internal error: " << e.what() << '\n';
+    return exit_solver;
+  }
+}

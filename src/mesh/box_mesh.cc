@@ -1,0 +1,92 @@
+#include "settlewell/mesh/box_mesh.h"
+
+#include "settlewell/core/errors.h"
+
+#include <deal.II/grid/grid_generator.h>
+#include <deal.II/grid/tria.h>
+
+#include <algorithm>
+#include <cmath>
+
+namespace settlewell {
+
+namespace {
+
+std::vector<double> steps_of(const std::vector<double>& edges, const char* axis) {
+  if (edges.size() < 2)
+    throw InputError(std::string("a box needs at least one cell along ") + axis);
+  std::vector<double> steps;
+  for (std::size_t i = 1; i < edges.size(); ++i) {
+    const double h = edges[i] - edges[i - 1];
+    if (!(h > 0.0))
+      throw InputError(std::string("box cell edges along ") + axis + " must increase");
+    steps.push_back(h);
+  }
+  return steps;
+}
+
+const RegionBand* band_of(const std::vector<RegionBand>& bands, double y) {
+  for (const auto& band : bands)
+    if (y >= band.bottom && y <= band.top)
+      return &band;
+  return nullptr;
+}
+
+} // namespace
+
+Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm) {
+  dealii::Triangulation<2> serial;
+  const dealii::Point<2> lower(spec.x_edges.front(), spec.y_edges.front());
+  const dealii::Point<2> upper(spec.x_edges.back(), spec.y_edges.back());
+  dealii::GridGenerator::subdivided_hyper_rectangle(
+      serial, {steps_of(spec.x_edges, "x"), steps_of(spec.y_edges, "y")}, lower, upper,
+      /*colorize=*/true);
+
+  Mesh mesh(comm);
+  // colorize numbers the faces 0..3 as left, right, bottom, top.
+  for (const char* name : {"left", "right", "bottom", "top"})
+    mesh.names.add_boundary(name);
+
+  std::vector<RegionBand> bands = spec.bands;
+  if (bands.empty())
+    bands.push_back({"soil", lower[1], upper[1]});
+  for (const auto& band : bands)
+    mesh.names.add_region(band.region);
+  for (auto& cell : serial.active_cell_iterators()) {
+    const RegionBand* band = band_of(bands, cell->center()[1]);
+    if (band == nullptr)
+      throw InputError("box region bands leave the cells at y = " +
+                       std::to_string(cell->center()[1]) + " m without a region");
+    cell->set_material_id(mesh.names.region_id(band->region));
+  }
+  mesh.triangulation->copy_triangulation(serial);
+  return mesh;
+}
+
+std::vector<double> graded_edges(double start, double end, unsigned int n_cells,
+                                 double growth) {
+  if (n_cells == 0 || !(growth > 0.0))
+    throw InputError("graded edges need at least one cell and a positive growth factor");
+  double total = 0.0, size = 1.0;
+  for (unsigned int i = 0; i < n_cells; ++i, size *= growth)
+    total += size;
+  std::vector<double> edges{start};
+  size = (end - start) / total;
+  for (unsigned int i = 0; i < n_cells; ++i, size *= growth)
+    edges.push_back(edges.back() + size);
+  edges.back() = end;
+  return edges;
+}
+
+std::vector<double> double_graded_edges(double start, double end, unsigned int n_cells,
+                                        double growth) {
+  const double middle = 0.5 * (start + end);
+  const unsigned int half = std::max(1u, n_cells / 2);
+  std::vector<double> edges = graded_edges(start, middle, half, growth);
+  const std::vector<double> lower_half = edges;
+  for (auto it = lower_half.rbegin() + 1; it != lower_half.rend(); ++it)
+    edges.push_back(start + end - *it);
+  return edges;
+}
+
+} // namespace settlewell

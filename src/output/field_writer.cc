@@ -1,0 +1,112 @@
+#include "settlewell/output/field_writer.h"
+
+#include "settlewell/core/units.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/numerics/data_out.h>
+#include <deal.II/numerics/data_postprocessor.h>
+
+#include <filesystem>
+#include <fstream>
+#include <iomanip>
+#include <sstream>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+/// Fields derived point by point from the primary unknowns.
+class DerivedFields : public DataPostprocessor<2> {
+public:
+  explicit DerivedFields(const BiotSetup& setup) : setup_(setup) {}
+
+  void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
+                             std::vector<Vector<double>>& out) const override {
+    for (unsigned int q = 0; q < in.solution_values.size(); ++q) {
+      const Vector<double>& v = in.solution_values[q];
+      const double head_change = v[FieldLayout::pressure] / setup_.gamma_w;
+      out[q][0] = -v[FieldLayout::uy];                                  // settlement, m
+      out[q][1] = setup_.initial_head(in.evaluation_points[q]) + head_change; // head, m
+      out[q][2] = -head_change;                                          // drawdown, m
+    }
+  }
+  std::vector<std::string> get_names() const override {
+    return {"settlement", "hydraulic_head", "drawdown"};
+  }
+  std::vector<DataComponentInterpretation::DataComponentInterpretation>
+  get_data_component_interpretation() const override {
+    return std::vector<DataComponentInterpretation::DataComponentInterpretation>(
+        3, DataComponentInterpretation::component_is_scalar);
+  }
+  UpdateFlags get_needed_update_flags() const override {
+    return update_values | update_quadrature_points;
+  }
+
+private:
+  const BiotSetup& setup_;
+};
+
+} // namespace
+
+FieldWriter::FieldWriter(std::string directory, std::string basename, MPI_Comm comm)
+    : directory_(std::move(directory)), basename_(std::move(basename)), comm_(comm) {
+  if (Utilities::MPI::this_mpi_process(comm_) == 0)
+    std::filesystem::create_directories(directory_);
+  MPI_Barrier(comm_);
+}
+
+std::string FieldWriter::series_path() const {
+  return directory_ + "/" + basename_ + ".pvd";
+}
+
+std::string FieldWriter::write(const BiotProblem& problem) {
+  DataOut<2> data_out;
+  data_out.attach_dof_handler(problem.dof_handler());
+  std::vector<std::string> names{"displacement", "displacement", "excess_pore_pressure"};
+  std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds{
+      DataComponentInterpretation::component_is_part_of_vector,
+      DataComponentInterpretation::component_is_part_of_vector,
+      DataComponentInterpretation::component_is_scalar};
+  data_out.add_data_vector(problem.solution(), names, DataOut<2>::type_dof_data, kinds);
+  const DerivedFields derived(problem.setup());
+  data_out.add_data_vector(problem.solution(), derived);
+
+  const auto& tria = problem.dof_handler().get_triangulation();
+  Vector<float> region(tria.n_active_cells());
+  for (const auto& cell : tria.active_cell_iterators())
+    if (cell->is_locally_owned())
+      region[cell->active_cell_index()] = cell->material_id();
+  data_out.add_data_vector(region, "region");
+  Vector<float> subdomain(tria.n_active_cells());
+  subdomain = static_cast<float>(Utilities::MPI::this_mpi_process(comm_));
+  data_out.add_data_vector(subdomain, "process");
+  data_out.build_patches(problem.mapping(), FieldLayout::displacement_degree);
+
+  DataOutBase::VtkFlags flags;
+  flags.time = units::to_days(problem.time());
+  flags.write_higher_order_cells = true;
+  data_out.set_flags(flags);
+
+  const unsigned int counter = series_.size();
+  std::string file;
+  if (Utilities::MPI::n_mpi_processes(comm_) == 1) {
+    std::ostringstream name;
+    name << basename_ << '_' << std::setw(4) << std::setfill('0') << counter << ".vtu";
+    file = name.str();
+    std::ofstream out(directory_ + "/" + file);
+    data_out.write_vtu(out);
+  } else {
+    file = data_out.write_vtu_with_pvtu_record(directory_ + "/", basename_, counter, comm_, 4,
+                                               0);
+  }
+  series_.emplace_back(units::to_days(problem.time()), file);
+  if (Utilities::MPI::this_mpi_process(comm_) == 0) {
+    std::ofstream pvd(series_path());
+    DataOutBase::write_pvd_record(pvd, series_);
+  }
+  return directory_ + "/" + file;
+}
+
+} // namespace settlewell

@@ -1,0 +1,153 @@
+#include "settlewell/physics/cell_kernel.h"
+
+#include "settlewell/core/units.h"
+
+#include <deal.II/base/quadrature_lib.h>
+
+namespace settlewell {
+
+using namespace dealii;
+
+CellCoefficients CellCoefficients::from(const PoroelasticMaterial& m, double gamma_w) {
+  CellCoefficients c;
+  c.lambda = m.lame_lambda();
+  c.mu = m.shear_modulus();
+  c.alpha = m.biot_alpha;
+  c.storage = m.storage;
+  c.mobility[0][0] = m.conductivity_x / gamma_w;
+  c.mobility[1][1] = m.conductivity_y / gamma_w;
+  return c;
+}
+
+namespace {
+constexpr unsigned int n_gauss = FieldLayout::displacement_degree + 1;
+}
+
+CellKernel::CellKernel(const FieldLayout& layout, AnalysisType analysis,
+                       const Mapping<2>& mapping)
+    : layout_(layout)
+    , analysis_(analysis)
+    , fe_values_(mapping, layout.fe, QGauss<2>(n_gauss),
+                 update_values | update_gradients | update_quadrature_points |
+                     update_JxW_values)
+    , face_values_(mapping, layout.fe, QGauss<1>(n_gauss),
+                   update_values | update_quadrature_points | update_normal_vectors |
+                       update_JxW_values)
+    , component_(layout.fe.n_dofs_per_cell())
+    , strain_(layout.fe.n_dofs_per_cell())
+    , hoop_(layout.fe.n_dofs_per_cell())
+    , divergence_(layout.fe.n_dofs_per_cell())
+    , phi_p_(layout.fe.n_dofs_per_cell())
+    , grad_p_(layout.fe.n_dofs_per_cell()) {
+  for (unsigned int i = 0; i < component_.size(); ++i)
+    component_[i] = layout.fe.system_to_component_index(i).first;
+}
+
+void CellKernel::reinit(const DoFHandler<2>::active_cell_iterator& cell) {
+  cell_ = cell;
+  fe_values_.reinit(cell);
+}
+
+double CellKernel::weight(const FEValuesBase<2>& fv, unsigned int q) const {
+  if (analysis_ == AnalysisType::axisymmetric)
+    return fv.JxW(q) * 2.0 * units::pi * fv.quadrature_point(q)[0];
+  return fv.JxW(q);
+}
+
+void CellKernel::evaluate_shapes(unsigned int q) {
+  const bool axisymmetric = analysis_ == AnalysisType::axisymmetric;
+  const double r = fe_values_.quadrature_point(q)[0];
+  for (unsigned int i = 0; i < component_.size(); ++i) {
+    if (layout_.is_displacement(component_[i])) {
+      strain_[i] = fe_values_[layout_.displacement].symmetric_gradient(i, q);
+      hoop_[i] = axisymmetric ? fe_values_[layout_.displacement].value(i, q)[0] / r : 0.0;
+      divergence_[i] = trace(strain_[i]) + hoop_[i];
+    } else {
+      phi_p_[i] = fe_values_[layout_.excess_pressure].value(i, q);
+      grad_p_[i] = fe_values_[layout_.excess_pressure].gradient(i, q);
+    }
+  }
+}
+
+void CellKernel::add_matrix(const CellCoefficients& c, double dt, FullMatrix<double>& out) {
+  const unsigned int n = component_.size();
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    const double w = weight(fe_values_, q);
+    for (unsigned int i = 0; i < n; ++i) {
+      const bool ui = layout_.is_displacement(component_[i]);
+      for (unsigned int j = 0; j < n; ++j) {
+        const bool uj = layout_.is_displacement(component_[j]);
+        double a;
+        if (ui && uj)
+          a = c.lambda * divergence_[i] * divergence_[j] +
+              2.0 * c.mu * (strain_[i] * strain_[j] + hoop_[i] * hoop_[j]);
+        else if (ui)
+          a = -c.alpha * divergence_[i] * phi_p_[j];
+        else if (uj)
+          a = -c.alpha * phi_p_[i] * divergence_[j];
+        else
+          a = -(c.storage * phi_p_[i] * phi_p_[j] +
+                dt * (grad_p_[i] * (c.mobility * grad_p_[j])));
+        out(i, j) += a * w;
+      }
+    }
+  }
+}
+
+void CellKernel::add_old_state(const CellCoefficients& c, const LA::MPI::Vector& old,
+                               Vector<double>& out) {
+  const unsigned int nq = fe_values_.n_quadrature_points;
+  std::vector<double> div_u(nq), p_old(nq);
+  std::vector<Tensor<1, 2>> u_old(nq);
+  fe_values_[layout_.displacement].get_function_divergences(old, div_u);
+  fe_values_[layout_.displacement].get_function_values(old, u_old);
+  fe_values_[layout_.excess_pressure].get_function_values(old, p_old);
+  const bool axisymmetric = analysis_ == AnalysisType::axisymmetric;
+  for (unsigned int q = 0; q < nq; ++q) {
+    const double r = fe_values_.quadrature_point(q)[0];
+    const double volumetric = div_u[q] + (axisymmetric ? u_old[q][0] / r : 0.0);
+    const double source = -(c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
+    for (unsigned int i = 0; i < component_.size(); ++i)
+      if (!layout_.is_displacement(component_[i]))
+        out(i) += source * fe_values_[layout_.excess_pressure].value(i, q);
+  }
+}
+
+void CellKernel::add_body_force(const Tensor<1, 2>& b, Vector<double>& out) {
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    const double w = weight(fe_values_, q);
+    for (unsigned int i = 0; i < component_.size(); ++i)
+      if (layout_.is_displacement(component_[i]))
+        out(i) += (fe_values_[layout_.displacement].value(i, q) * b) * w;
+  }
+}
+
+void CellKernel::add_face_traction(
+    unsigned int face,
+    const std::function<Tensor<1, 2>(const Point<2>&, const Tensor<1, 2>&)>& traction,
+    Vector<double>& out) {
+  face_values_.reinit(cell_, face);
+  for (unsigned int q = 0; q < face_values_.n_quadrature_points; ++q) {
+    const Tensor<1, 2> t =
+        traction(face_values_.quadrature_point(q), face_values_.normal_vector(q));
+    const double w = weight(face_values_, q);
+    for (unsigned int i = 0; i < component_.size(); ++i)
+      if (layout_.is_displacement(component_[i]))
+        out(i) += (face_values_[layout_.displacement].value(i, q) * t) * w;
+  }
+}
+
+void CellKernel::add_face_outflow(unsigned int face, double dt, const FieldFunction& q_out,
+                                  double t, Vector<double>& out) {
+  face_values_.reinit(cell_, face);
+  for (unsigned int q = 0; q < face_values_.n_quadrature_points; ++q) {
+    const double flux = dt * q_out(face_values_.quadrature_point(q), t) *
+                        weight(face_values_, q);
+    for (unsigned int i = 0; i < component_.size(); ++i)
+      if (!layout_.is_displacement(component_[i]))
+        out(i) += flux * face_values_[layout_.excess_pressure].value(i, q);
+  }
+}
+
+} // namespace settlewell

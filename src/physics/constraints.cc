@@ -1,0 +1,175 @@
+#include "settlewell/physics/constraints.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
+
+#include <deal.II/base/function.h>
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/dofs/dof_tools.h>
+#include <deal.II/fe/fe_values.h>
+#include <deal.II/fe/mapping_q1.h>
+#include <deal.II/numerics/vector_tools_boundary.h>
+
+#include <limits>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+/// Throws the same InputError on every process if any process saw the problem,
+/// so that no process is left waiting in a collective call.
+void throw_if_any(bool local_problem, const std::string& message, MPI_Comm comm) {
+  if (Utilities::MPI::logical_or(local_problem, comm))
+    throw InputError(message);
+}
+
+/// Outward normal and area of a boundary; the normal must be the same everywhere.
+std::pair<Tensor<1, 2>, double> face_geometry(const DoFHandler<2>& dof_handler,
+                                              types::boundary_id id,
+                                              AnalysisType analysis, bool& curved) {
+  FEFaceValues<2> fv(StaticMappingQ1<2>::mapping, dof_handler.get_fe(), QGauss<1>(2),
+                     update_normal_vectors | update_JxW_values | update_quadrature_points);
+  Tensor<1, 2> normal;
+  double area = 0.0;
+  bool have_normal = false;
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    for (const unsigned int f : cell->face_indices()) {
+      if (!cell->face(f)->at_boundary() || cell->face(f)->boundary_id() != id)
+        continue;
+      fv.reinit(cell, f);
+      for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
+        const double r = fv.quadrature_point(q)[0];
+        area += fv.JxW(q) * (analysis == AnalysisType::axisymmetric ? 2 * units::pi * r : 1.0);
+        if (!have_normal)
+          normal = fv.normal_vector(q), have_normal = true;
+        else if ((normal - fv.normal_vector(q)).norm() > 1e-8)
+          curved = true;
+      }
+    }
+  }
+  return {normal, area};
+}
+
+} // namespace
+
+PlateLink link_plate(const DoFHandler<2>& dof_handler, const FieldLayout& layout,
+                     const PlateBoundary& plate, AnalysisType analysis,
+                     const std::string& name) {
+  const MPI_Comm comm = dof_handler.get_communicator();
+  bool curved = false;
+  auto [normal, area] = face_geometry(dof_handler, plate.id, analysis, curved);
+  // Share one normal: take it from any process that has plate faces.
+  Tensor<1, 2> summed = Utilities::MPI::sum(area > 0 ? normal : Tensor<1, 2>(), comm);
+  area = Utilities::MPI::sum(area, comm);
+  throw_if_any(curved, "rigid plate '" + name + "' must be one straight face", comm);
+  throw_if_any(!(area > 0.0), "rigid plate '" + name + "' has no faces in the mesh", comm);
+  const double length = summed.norm();
+  summed /= length;
+  const bool along_x = std::abs(std::abs(summed[0]) - 1.0) < 1e-8;
+  const bool along_y = std::abs(std::abs(summed[1]) - 1.0) < 1e-8;
+  throw_if_any(!along_x && !along_y,
+               "rigid plate '" + name + "' must be parallel to the x or y axis", comm);
+
+  PlateLink link;
+  link.normal_component = along_x ? FieldLayout::ux : FieldLayout::uy;
+  link.outward_normal = summed;
+  link.area = area;
+  link.locally_relevant_dofs =
+      DoFTools::extract_boundary_dofs(dof_handler, layout.mask_of(link.normal_component),
+                                      {plate.id});
+  const types::global_dof_index none = std::numeric_limits<types::global_dof_index>::max();
+  const types::global_dof_index local_first =
+      link.locally_relevant_dofs.n_elements() > 0 ? *link.locally_relevant_dofs.begin() : none;
+  link.master = Utilities::MPI::min(local_first, comm);
+  return link;
+}
+
+namespace {
+
+class ExcessPressureValues : public Function<2> {
+public:
+  ExcessPressureValues(const FieldFunction& f, double t)
+      : Function<2>(FieldLayout::n_components), f_(f), t_(t) {}
+  double value(const Point<2>& x, unsigned int component) const override {
+    return component == FieldLayout::pressure ? f_(x, t_) : 0.0;
+  }
+
+private:
+  const FieldFunction& f_;
+  double t_;
+};
+
+void add_fixed(const ConstraintInputs& in, AffineConstraints<double>& constraints) {
+  const Functions::ZeroFunction<2> zero(FieldLayout::n_components);
+  for (const auto& fixed : in.conditions.fixed)
+    for (unsigned int c = 0; c < 2; ++c)
+      if (fixed.components[c])
+        VectorTools::interpolate_boundary_values(in.dof_handler, fixed.id, zero,
+                                                 constraints, in.layout.mask_of(c));
+}
+
+void add_rigid_skeleton(const ConstraintInputs& in, AffineConstraints<double>& constraints) {
+  // Every locally relevant displacement dof, ghosts included, so that each process
+  // holds the lines it needs.
+  std::vector<types::global_dof_index> dof_indices(in.layout.fe.n_dofs_per_cell());
+  for (const auto& cell : in.dof_handler.active_cell_iterators()) {
+    if (cell->is_artificial())
+      continue;
+    cell->get_dof_indices(dof_indices);
+    for (unsigned int i = 0; i < dof_indices.size(); ++i)
+      if (in.layout.is_displacement(in.layout.fe.system_to_component_index(i).first) &&
+          !constraints.is_constrained(dof_indices[i]))
+        constraints.add_line(dof_indices[i]);
+  }
+}
+
+void add_plate(const ConstraintInputs& in, AffineConstraints<double>& constraints) {
+  const PlateLink& link = *in.plate;
+  bool clash = false;
+  for (const auto dof : link.locally_relevant_dofs) {
+    if (constraints.is_constrained(dof)) {
+      clash = true;
+      continue;
+    }
+    if (dof == link.master)
+      continue;
+    constraints.add_line(dof);
+    constraints.add_entry(dof, link.master, 1.0);
+  }
+  throw_if_any(clash,
+               "the rigid plate shares nodes with a fixed displacement in its own "
+               "direction; fix the neighbouring boundary in the other direction only",
+               in.dof_handler.get_communicator());
+}
+
+void add_pressures(const ConstraintInputs& in, double t,
+                   AffineConstraints<double>& constraints) {
+  for (const auto& bc : in.conditions.pressures) {
+    const ExcessPressureValues values(bc.excess_pressure, t);
+    VectorTools::interpolate_boundary_values(in.dof_handler, bc.id, values, constraints,
+                                             in.layout.mask_of(FieldLayout::pressure));
+  }
+}
+
+} // namespace
+
+void make_constraints(const ConstraintInputs& in, double t,
+                      AffineConstraints<double>& constraints) {
+  constraints.clear();
+  constraints.reinit(in.locally_relevant);
+  DoFTools::make_hanging_node_constraints(in.dof_handler, constraints);
+  add_fixed(in, constraints);
+  if (in.rigid_skeleton)
+    add_rigid_skeleton(in, constraints);
+  if (in.plate)
+    add_plate(in, constraints);
+  add_pressures(in, t, constraints);
+  constraints.close();
+}
+
+} // namespace settlewell

@@ -1,0 +1,20 @@
+#include "settlewell/physics/field_layout.h"
+
+#include <deal.II/fe/fe_q.h>
+
+namespace settlewell {
+
+FieldLayout::FieldLayout()
+    : fe(dealii::FE_Q<2>(displacement_degree), 2, dealii::FE_Q<2>(pressure_degree), 1) {}
+
+dealii::ComponentMask FieldLayout::mask_of(unsigned int component) const {
+  std::vector<bool> mask(n_components, false);
+  mask[component] = true;
+  return dealii::ComponentMask(mask);
+}
+
+dealii::ComponentMask FieldLayout::displacement_mask() const {
+  return dealii::ComponentMask(std::vector<bool>{true, true, false});
+}
+
+} // namespace settlewell

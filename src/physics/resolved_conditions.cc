@@ -1,0 +1,102 @@
+#include "settlewell/physics/resolved_conditions.h"
+
+#include "settlewell/core/errors.h"
+
+#include <set>
+
+namespace settlewell {
+
+namespace {
+
+FieldFunction excess_from(const HydraulicCondition& c, const BiotSetup& setup) {
+  const double gw = setup.gamma_w;
+  const auto h0 = setup.initial_head;
+  const FieldFunction value = c.value;
+  if (c.kind == HydraulicCondition::Kind::head)
+    return [=](const dealii::Point<2>& x, double t) { return gw * (value(x, t) - h0(x)); };
+  // pore pressure: p0 = gamma_w (h0 - y)
+  return [=](const dealii::Point<2>& x, double t) {
+    return value(x, t) - gw * (h0(x) - x[1]);
+  };
+}
+
+void resolve_hydraulic(const BiotSetup& setup, const NameTable& names,
+                       ResolvedConditions& out) {
+  std::set<std::string> seen;
+  for (const auto& c : setup.conditions.hydraulic) {
+    const auto id = names.boundary_id(c.boundary);
+    if (!c.value)
+      throw InputError("hydraulic condition on boundary '" + c.boundary + "' has no value");
+    if (!seen.insert(c.boundary).second)
+      throw InputError("boundary '" + c.boundary + "' has more than one hydraulic condition");
+    if (c.kind == HydraulicCondition::Kind::normal_flux)
+      out.fluxes.push_back({id, c.value});
+    else
+      out.pressures.push_back({id, excess_from(c, setup)});
+  }
+}
+
+void resolve_mechanical(const BiotSetup& setup, const NameTable& names,
+                        ResolvedConditions& out) {
+  std::set<std::string> fixed_names, loaded_names;
+  for (const auto& c : setup.conditions.mechanical) {
+    const auto id = names.boundary_id(c.boundary);
+    if (c.kind == MechanicalCondition::Kind::fixed) {
+      if (!fixed_names.insert(c.boundary).second)
+        throw InputError("boundary '" + c.boundary + "' is fixed twice; give the "
+                         "components in one condition");
+      out.fixed.push_back({id, c.fixed_components});
+      continue;
+    }
+    if (!c.value)
+      throw InputError("load on boundary '" + c.boundary + "' has no value");
+    if (!loaded_names.insert(c.boundary).second)
+      throw InputError("boundary '" + c.boundary + "' carries more than one load");
+    if (c.kind == MechanicalCondition::Kind::normal_traction) {
+      out.tractions.push_back({id, c.value});
+    } else {
+      if (out.plate)
+        throw InputError("only one rigid plate is supported; '" + c.boundary +
+                         "' is a second one");
+      const FieldFunction f = c.value;
+      out.plate = PlateBoundary{id, [f](double t) { return f(dealii::Point<2>(), t); }};
+    }
+  }
+  if (out.plate && fixed_names.count(names.boundary_name(out.plate->id)))
+    throw InputError("boundary '" + names.boundary_name(out.plate->id) +
+                     "' is both a rigid plate and fixed");
+}
+
+void resolve_body_forces(const BiotSetup& setup, const NameTable& names,
+                         ResolvedConditions& out) {
+  for (const auto& b : setup.conditions.body_forces) {
+    const auto id = names.region_id(b.region);
+    for (const auto& f : b.components)
+      if (!f)
+        throw InputError("body force change in region '" + b.region +
+                         "' needs both components");
+    out.body_forces.emplace_back(id, b.components);
+  }
+}
+
+} // namespace
+
+dealii::Tensor<1, 2> ResolvedConditions::body_force(dealii::types::material_id region,
+                                                    double t) const {
+  dealii::Tensor<1, 2> b;
+  for (const auto& [id, f] : body_forces)
+    if (id == region)
+      for (unsigned int d = 0; d < 2; ++d)
+        b[d] += f[d](t);
+  return b;
+}
+
+ResolvedConditions resolve_conditions(const BiotSetup& setup, const NameTable& names) {
+  ResolvedConditions out;
+  resolve_hydraulic(setup, names, out);
+  resolve_mechanical(setup, names, out);
+  resolve_body_forces(setup, names, out);
+  return out;
+}
+
+} // namespace settlewell

@@ -1,0 +1,61 @@
+#include "settlewell/verification/case_support.h"
+
+#include "settlewell/mesh/box_mesh.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+namespace settlewell::verification {
+
+void march(BiotProblem& problem, const std::vector<double>& times,
+           const std::function<void(const BiotProblem&)>& after_step, FieldWriter* writer,
+           const std::vector<double>& write_times) {
+  if (writer != nullptr)
+    writer->write(problem);
+  for (const double t : times) {
+    problem.advance_to(t);
+    if (after_step)
+      after_step(problem);
+    const bool write_now =
+        std::any_of(write_times.begin(), write_times.end(),
+                    [t](double w) { return std::abs(w - t) <= 1e-9 * std::abs(w); });
+    if (writer != nullptr && write_now)
+      writer->write(problem);
+  }
+}
+
+std::unique_ptr<FieldWriter> writer_for(const CaseSettings& settings,
+                                        const std::string& case_name, MPI_Comm comm) {
+  if (settings.vtk_directory.empty())
+    return nullptr;
+  return std::make_unique<FieldWriter>(settings.vtk_directory + "/" + case_name, case_name,
+                                       comm);
+}
+
+std::vector<double> graded_toward_end(double start, double end, unsigned int n_cells,
+                                      double growth) {
+  std::vector<double> edges = graded_edges(end, start, n_cells, growth);
+  std::reverse(edges.begin(), edges.end());
+  return edges;
+}
+
+double crossing_time(const std::vector<double>& t, const std::vector<double>& value,
+                     double level) {
+  for (std::size_t i = 1; i < t.size(); ++i) {
+    if (value[i - 1] < level && value[i] >= level) {
+      const double w = (level - value[i - 1]) / (value[i] - value[i - 1]);
+      return std::exp((1.0 - w) * std::log(t[i - 1]) + w * std::log(t[i]));
+    }
+  }
+  return std::numeric_limits<double>::quiet_NaN();
+}
+
+std::string label(const std::string& name, double value) {
+  std::ostringstream os;
+  os << name << '=' << value;
+  return os.str();
+}
+
+} // namespace settlewell::verification

@@ -1,0 +1,10 @@
+// GoogleTest main for Settlewell: MPI and PETSc must be running for the library.
+#include <deal.II/base/mpi.h>
+#include <gtest/gtest.h>
+
+int main(int argc, char** argv) {
+  ::testing::InitGoogleTest(&argc, argv);
+  int petsc_argc = 1;
+  dealii::Utilities::MPI::MPI_InitFinalize mpi(petsc_argc, argv, 1);
+  return RUN_ALL_TESTS();
+}

@@ -1,0 +1,103 @@
+// The analytical solutions against the check values tabulated in the project's
+// verification references (computed there two independent ways). Each block names
+// the published source of the solution.
+#include "settlewell/verification/analytical.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+namespace a = settlewell::analytical;
+
+// Terzaghi (1925) series: U(Tv) check values (6 significant digits given).
+TEST(Terzaghi, AverageDegreeMatchesTabulatedValues) {
+  const std::vector<std::pair<double, double>> table{
+      {0.005, 0.0797885}, {0.01, 0.112838}, {0.05, 0.252313}, {0.1, 0.356823},
+      {0.197, 0.500338},  {0.2, 0.504088},  {0.3, 0.613236},  {0.5, 0.763950},
+      {0.848, 0.899979},  {1.0, 0.931260},  {2.0, 0.994170}};
+  for (const auto& [Tv, U] : table)
+    EXPECT_NEAR(a::terzaghi_average_degree(Tv), U, 1e-6) << "Tv = " << Tv;
+}
+
+// Terzaghi (1925): Tv for given U, exact roots.
+TEST(Terzaghi, TimeFactorIsTheRootOfTheSeries) {
+  EXPECT_NEAR(a::terzaghi_time_factor(0.5), 0.196731, 1e-6);
+  EXPECT_NEAR(a::terzaghi_time_factor(0.9), 0.848085, 1e-6);
+  EXPECT_NEAR(a::terzaghi_time_factor(0.6), 0.286399, 1e-6);
+}
+
+// Terzaghi (1925): isochrone check values u/u0.
+TEST(Terzaghi, ExcessRatioMatchesTabulatedValues) {
+  EXPECT_NEAR(a::terzaghi_excess_ratio(1.0, 0.05), 0.996869, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(1.0, 0.1), 0.949305, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(1.0, 0.2), 0.772312, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(1.0, 0.5), 0.370777, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(1.0, 1.0), 0.107977, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(0.5, 0.1), 0.735651, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(0.5, 0.5), 0.262188, 1e-6);
+  EXPECT_NEAR(a::terzaghi_excess_ratio(0.25, 0.2), 0.302084, 1e-6);
+}
+
+// The implicit-Euler form of the series tends to the exact one as dT -> 0.
+TEST(Terzaghi, BackwardEulerSeriesTendsToTheExactOne) {
+  const double exact = a::terzaghi_excess_ratio(0.5, 0.2);
+  const double coarse = a::terzaghi_excess_ratio_backward_euler(0.5, 0.02, 10);
+  const double fine = a::terzaghi_excess_ratio_backward_euler(0.5, 0.002, 100);
+  EXPECT_GT(std::abs(coarse - exact), 5.0 * std::abs(fine - exact));
+  EXPECT_NEAR(fine, exact, 2e-3);
+}
+
+// Olson (1977) ramped load: check values of U and u/q0 at Z = 1.
+TEST(Olson, AverageDegreeMatchesTabulatedValues) {
+  const std::vector<std::tuple<double, double, double>> table{
+      {0.05, 0.2, 0.0420522}, {0.1, 0.2, 0.118942}, {0.2, 0.2, 0.336350},
+      {0.5, 0.2, 0.694794},   {1.0, 0.2, 0.911128}, {0.25, 0.5, 0.187922},
+      {0.5, 0.5, 0.524667},   {1.0, 0.5, 0.864385}, {0.5, 1.0, 0.262334},
+      {1.0, 1.0, 0.694526},   {1.5, 1.0, 0.912446}};
+  for (const auto& [T, Tc, U] : table)
+    EXPECT_NEAR(a::olson_average_degree(T, Tc), U, 1e-6) << "T = " << T << " Tc = " << Tc;
+  EXPECT_NEAR(a::olson_excess_ratio(1.0, 0.2, 0.2), 0.925966, 1e-6);
+  EXPECT_NEAR(a::olson_excess_ratio(1.0, 0.5, 0.2), 0.479255, 1e-6);
+  EXPECT_NEAR(a::olson_excess_ratio(1.0, 0.5, 0.5), 0.699455, 1e-6);
+  EXPECT_NEAR(a::olson_excess_ratio(1.0, 1.0, 0.5), 0.213023, 1e-6);
+}
+
+// Mandel (1953), Abousleiman et al. (1996): nu = 0.2, nu_u = 0.5 check values.
+TEST(Mandel, RootsAndSeriesMatchTabulatedValues) {
+  const a::MandelSolution m(0.2, 0.5);
+  const std::vector<double> roots{1.28734, 4.63160, 7.80598, 10.9614, 14.1106};
+  for (std::size_t i = 0; i < roots.size(); ++i)
+    EXPECT_NEAR(m.roots()[i], roots[i], 1e-4);
+  const std::vector<std::tuple<double, double, double>> pressure{
+      {0.001, 1.01352, 1.01352}, {0.01, 1.04376, 1.04335}, {0.02, 1.06277, 1.05004},
+      {0.05, 1.09888, 0.982236}, {0.1, 1.09541, 0.860903}, {0.2, 0.968114, 0.707444},
+      {0.5, 0.592785, 0.428127}, {1.0, 0.258844, 0.186939}, {2.0, 0.0493518, 0.0356422}};
+  for (const auto& [t, centre, half] : pressure) {
+    EXPECT_NEAR(m.pressure_ratio(0.0, t), centre, 2e-5) << "t* = " << t;
+    EXPECT_NEAR(m.pressure_ratio(0.5, t), half, 2e-5) << "t* = " << t;
+  }
+  EXPECT_NEAR(m.pressure_ratio(0.0, 0.0716445), 1.10690, 1e-5);
+  EXPECT_NEAR(m.plate_displacement_ratio(0.01), -0.521881, 1e-6);
+  EXPECT_NEAR(m.plate_displacement_ratio(0.1), -0.574616, 1e-6);
+  EXPECT_NEAR(m.plate_displacement_ratio(0.5), -0.684920, 1e-6);
+  EXPECT_NEAR(m.plate_displacement_ratio(1.0), -0.749751, 1e-6);
+  EXPECT_NEAR(m.side_displacement_ratio(0.01), 0.478119, 1e-6);
+  EXPECT_NEAR(m.side_displacement_ratio(1.0), 0.250249, 1e-6);
+}
+
+// Theis (1935) W(u) check values; Thiem (1906) check value Q = 3.55765e-3 m^3/s.
+TEST(Wells, TheisWellFunctionAndThiem) {
+  const std::vector<std::pair<double, double>> table{
+      {1e-4, 8.63322}, {1e-3, 6.33154}, {0.01, 4.03793}, {0.1, 1.82292},
+      {0.5, 0.559774}, {1.0, 0.219384}};
+  for (const auto& [u, W] : table)
+    EXPECT_NEAR(a::theis_well_function(u), W, 1e-5 * W) << "u = " << u;
+  // Thiem: k = 1e-4, b = 10, r1 = 0.5, r2 = 100, h2 - h1 = 3 m gives Q; invert it.
+  const double T = 1e-4 * 10.0;
+  EXPECT_NEAR(a::thiem_drawdown_difference(3.55765e-3, T, 0.5, 100.0), 3.0, 1e-5);
+  // Consistency check: T = 1e-3, S = 1e-4, Q = 5e-3: s(10) - s(100) at 1 d is 1.83120 m.
+  const double day = 86400.0;
+  EXPECT_NEAR(a::theis_drawdown(5e-3, 1e-3, 1e-4, 10.0, day) -
+                  a::theis_drawdown(5e-3, 1e-3, 1e-4, 100.0, day),
+              1.83120, 1e-5);
+}
