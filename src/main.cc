@@ -19,13 +19,15 @@ constexpr int exit_checks_failed = 1;
 constexpr int exit_usage = 2;
 constexpr int exit_solver = 3;
 
-bool is_root() { return dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0; }
+bool is_root() {
+  return dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
+}
 
 std::string version_text() {
   return std::string("settlewell ") + settlewell::version_string + " (deal.II " +
-         DEAL_II_PACKAGE_VERSION + ", PETSc " + std::to_string(PETSC_VERSION_MAJOR) + "." +
-         std::to_string(PETSC_VERSION_MINOR) + "." + std::to_string(PETSC_VERSION_SUBMINOR) +
-         ")";
+         DEAL_II_PACKAGE_VERSION + ", PETSc " + std::to_string(PETSC_VERSION_MAJOR) +
+         "." + std::to_string(PETSC_VERSION_MINOR) + "." +
+         std::to_string(PETSC_VERSION_SUBMINOR) + ")";
 }
 
 struct VerifyOptions {
@@ -73,8 +75,9 @@ int run_verify(const VerifyOptions& options) {
 }
 
 int dispatch(int argc, char** argv) {
-  CLI::App app{"Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
-               "excavations."};
+  CLI::App app{
+      "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
+      "excavations."};
   app.set_version_flag("--version", version_text());
   app.require_subcommand(1);
 

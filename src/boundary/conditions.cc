@@ -2,7 +2,8 @@
 
 namespace settlewell {
 
-BoundaryConditions& BoundaryConditions::head(const std::string& boundary, FieldFunction h) {
+BoundaryConditions& BoundaryConditions::head(const std::string& boundary,
+                                             FieldFunction h) {
   hydraulic.push_back({boundary, HydraulicCondition::Kind::head, std::move(h)});
   return *this;
 }
@@ -26,15 +27,19 @@ BoundaryConditions& BoundaryConditions::fix(const std::string& boundary, bool x,
 
 BoundaryConditions& BoundaryConditions::normal_traction(const std::string& boundary,
                                                         FieldFunction t) {
-  mechanical.push_back(
-      {boundary, MechanicalCondition::Kind::normal_traction, {{false, false}}, std::move(t)});
+  mechanical.push_back({boundary,
+                        MechanicalCondition::Kind::normal_traction,
+                        {{false, false}},
+                        std::move(t)});
   return *this;
 }
 
 BoundaryConditions& BoundaryConditions::rigid_plate(const std::string& boundary,
                                                     TimeFunction force) {
-  mechanical.push_back({boundary, MechanicalCondition::Kind::rigid_plate,
-                        {{false, false}}, uniform(std::move(force))});
+  mechanical.push_back({boundary,
+                        MechanicalCondition::Kind::rigid_plate,
+                        {{false, false}},
+                        uniform(std::move(force))});
   return *this;
 }
 

@@ -20,8 +20,9 @@ double PiecewiseLinear::operator()(double t) const {
     return points_.front().second;
   if (t >= points_.back().first)
     return points_.back().second;
-  const auto upper = std::upper_bound(points_.begin(), points_.end(), t,
-                                      [](double v, const auto& p) { return v < p.first; });
+  const auto upper =
+      std::upper_bound(points_.begin(), points_.end(), t,
+                       [](double v, const auto& p) { return v < p.first; });
   const auto lower = upper - 1;
   const double w = (t - lower->first) / (upper->first - lower->first);
   return (1.0 - w) * lower->second + w * upper->second;

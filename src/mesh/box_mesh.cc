@@ -63,8 +63,8 @@ Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm) {
   return mesh;
 }
 
-std::vector<double> graded_edges(double start, double end, unsigned int n_cells,
-                                 double growth) {
+std::vector<double>
+graded_edges(double start, double end, unsigned int n_cells, double growth) {
   if (n_cells == 0 || !(growth > 0.0))
     throw InputError("graded edges need at least one cell and a positive growth factor");
   double total = 0.0, size = 1.0;
@@ -78,8 +78,8 @@ std::vector<double> graded_edges(double start, double end, unsigned int n_cells,
   return edges;
 }
 
-std::vector<double> double_graded_edges(double start, double end, unsigned int n_cells,
-                                        double growth) {
+std::vector<double>
+double_graded_edges(double start, double end, unsigned int n_cells, double growth) {
   const double middle = 0.5 * (start + end);
   const unsigned int half = std::max(1u, n_cells / 2);
   std::vector<double> edges = graded_edges(start, middle, half, growth);

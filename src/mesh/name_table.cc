@@ -26,7 +26,8 @@ std::string known_names(const std::map<std::string, Id>& table) {
 }
 
 template <typename Id>
-Id find_name(const std::map<std::string, Id>& table, const std::string& name,
+Id find_name(const std::map<std::string, Id>& table,
+             const std::string& name,
              const char* what) {
   const auto found = table.find(name);
   if (found == table.end())
@@ -36,7 +37,8 @@ Id find_name(const std::map<std::string, Id>& table, const std::string& name,
 }
 
 template <typename Id>
-const std::string& name_of(const std::map<std::string, Id>& table, Id id, const char* what) {
+const std::string&
+name_of(const std::map<std::string, Id>& table, Id id, const char* what) {
   for (const auto& [name, value] : table)
     if (value == id)
       return name;
@@ -70,7 +72,11 @@ const std::string& NameTable::region_name(dealii::types::material_id id) const {
 const std::string& NameTable::boundary_name(dealii::types::boundary_id id) const {
   return name_of(boundaries_, id, "boundary");
 }
-std::vector<std::string> NameTable::region_names() const { return names_of(regions_); }
-std::vector<std::string> NameTable::boundary_names() const { return names_of(boundaries_); }
+std::vector<std::string> NameTable::region_names() const {
+  return names_of(regions_);
+}
+std::vector<std::string> NameTable::boundary_names() const {
+  return names_of(boundaries_);
+}
 
 } // namespace settlewell

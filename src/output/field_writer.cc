@@ -20,16 +20,17 @@ namespace {
 /// Fields derived point by point from the primary unknowns.
 class DerivedFields : public DataPostprocessor<2> {
 public:
-  explicit DerivedFields(const BiotSetup& setup) : setup_(setup) {}
+  explicit DerivedFields(const BiotSetup& setup)
+      : setup_(setup) {}
 
   void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
                              std::vector<Vector<double>>& out) const override {
     for (unsigned int q = 0; q < in.solution_values.size(); ++q) {
       const Vector<double>& v = in.solution_values[q];
       const double head_change = v[FieldLayout::pressure] / setup_.gamma_w;
-      out[q][0] = -v[FieldLayout::uy];                                  // settlement, m
+      out[q][0] = -v[FieldLayout::uy]; // settlement, m
       out[q][1] = setup_.initial_head(in.evaluation_points[q]) + head_change; // head, m
-      out[q][2] = -head_change;                                          // drawdown, m
+      out[q][2] = -head_change; // drawdown, m
     }
   }
   std::vector<std::string> get_names() const override {
@@ -51,7 +52,9 @@ private:
 } // namespace
 
 FieldWriter::FieldWriter(std::string directory, std::string basename, MPI_Comm comm)
-    : directory_(std::move(directory)), basename_(std::move(basename)), comm_(comm) {
+    : directory_(std::move(directory))
+    , basename_(std::move(basename))
+    , comm_(comm) {
   if (Utilities::MPI::this_mpi_process(comm_) == 0)
     std::filesystem::create_directories(directory_);
   MPI_Barrier(comm_);
@@ -98,8 +101,8 @@ std::string FieldWriter::write(const BiotProblem& problem) {
     std::ofstream out(directory_ + "/" + file);
     data_out.write_vtu(out);
   } else {
-    file = data_out.write_vtu_with_pvtu_record(directory_ + "/", basename_, counter, comm_, 4,
-                                               0);
+    file = data_out.write_vtu_with_pvtu_record(directory_ + "/", basename_, counter,
+                                               comm_, 4, 0);
   }
   series_.emplace_back(units::to_days(problem.time()), file);
   if (Utilities::MPI::this_mpi_process(comm_) == 0) {

@@ -20,8 +20,8 @@ PointValues probe(const BiotProblem& problem, const Point<2>& x) {
   std::vector<double> local{0.0, 0.0, 0.0, 0.0}; // ux, uy, p, found
   std::vector<std::pair<DoFHandler<2>::active_cell_iterator, Point<2>>> cells;
   try {
-    cells = GridTools::find_all_active_cells_around_point(problem.mapping(), dof_handler, x,
-                                                          1e-10);
+    cells = GridTools::find_all_active_cells_around_point(problem.mapping(), dof_handler,
+                                                          x, 1e-10);
   } catch (const std::exception&) {
     // Not in this process's part of the mesh; another process will find it.
   }
@@ -49,7 +49,8 @@ PointValues probe(const BiotProblem& problem, const Point<2>& x) {
   return {total[0] / total[3], total[1] / total[3], total[2] / total[3]};
 }
 
-double boundary_mean(const BiotProblem& problem, const std::string& boundary,
+double boundary_mean(const BiotProblem& problem,
+                     const std::string& boundary,
                      unsigned int component) {
   const auto id = problem.mesh().names.boundary_id(boundary);
   const auto& dof_handler = problem.dof_handler();
@@ -69,7 +70,8 @@ double boundary_mean(const BiotProblem& problem, const std::string& boundary,
       fv.get_function_values(problem.solution(), values);
       for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
         const double w =
-            fv.JxW(q) * (axisymmetric ? 2.0 * units::pi * fv.quadrature_point(q)[0] : 1.0);
+            fv.JxW(q) *
+            (axisymmetric ? 2.0 * units::pi * fv.quadrature_point(q)[0] : 1.0);
         integral += values[q][component] * w;
         measure += w;
       }

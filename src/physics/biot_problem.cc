@@ -60,14 +60,17 @@ struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
   ConstraintInputs constraint_inputs() const {
-    return {dof_handler, layout,  conditions, plate, setup.rigid_skeleton,
-            owned,       relevant};
+    return {dof_handler,          layout, conditions, plate,
+            setup.rigid_skeleton, owned,  relevant};
   }
   void setup_dofs();
   void assemble_matrix(double dt);
   void assemble_rhs(double t_new, double dt);
-  void add_face_terms(CellKernel& kernel, const DoFHandler<2>::active_cell_iterator& cell,
-                      double t_new, double dt, Vector<double>& cell_rhs) const;
+  void add_face_terms(CellKernel& kernel,
+                      const DoFHandler<2>::active_cell_iterator& cell,
+                      double t_new,
+                      double dt,
+                      Vector<double>& cell_rhs) const;
   bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
 
   const Mesh& mesh;
@@ -145,7 +148,8 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
 
 void BiotProblem::Impl::add_face_terms(CellKernel& kernel,
                                        const DoFHandler<2>::active_cell_iterator& cell,
-                                       double t_new, double dt,
+                                       double t_new,
+                                       double dt,
                                        Vector<double>& cell_rhs) const {
   for (const unsigned int f : cell->face_indices()) {
     if (!cell->face(f)->at_boundary())
@@ -252,14 +256,32 @@ StepReport BiotProblem::advance_to(double t_new) {
   return report;
 }
 
-double BiotProblem::time() const { return impl_->time; }
-MPI_Comm BiotProblem::communicator() const { return impl_->comm; }
-const Mesh& BiotProblem::mesh() const { return impl_->mesh; }
-const BiotSetup& BiotProblem::setup() const { return impl_->setup; }
-const FieldLayout& BiotProblem::layout() const { return impl_->layout; }
-const Mapping<2>& BiotProblem::mapping() const { return impl_->mapping; }
-const DoFHandler<2>& BiotProblem::dof_handler() const { return impl_->dof_handler; }
-const LA::MPI::Vector& BiotProblem::solution() const { return impl_->solution; }
-std::string BiotProblem::solver_name() const { return impl_->solver->name(); }
+double BiotProblem::time() const {
+  return impl_->time;
+}
+MPI_Comm BiotProblem::communicator() const {
+  return impl_->comm;
+}
+const Mesh& BiotProblem::mesh() const {
+  return impl_->mesh;
+}
+const BiotSetup& BiotProblem::setup() const {
+  return impl_->setup;
+}
+const FieldLayout& BiotProblem::layout() const {
+  return impl_->layout;
+}
+const Mapping<2>& BiotProblem::mapping() const {
+  return impl_->mapping;
+}
+const DoFHandler<2>& BiotProblem::dof_handler() const {
+  return impl_->dof_handler;
+}
+const LA::MPI::Vector& BiotProblem::solution() const {
+  return impl_->solution;
+}
+std::string BiotProblem::solver_name() const {
+  return impl_->solver->name();
+}
 
 } // namespace settlewell

@@ -23,14 +23,19 @@ namespace {
 constexpr unsigned int n_gauss = FieldLayout::displacement_degree + 1;
 }
 
-CellKernel::CellKernel(const FieldLayout& layout, AnalysisType analysis,
+CellKernel::CellKernel(const FieldLayout& layout,
+                       AnalysisType analysis,
                        const Mapping<2>& mapping)
     : layout_(layout)
     , analysis_(analysis)
-    , fe_values_(mapping, layout.fe, QGauss<2>(n_gauss),
+    , fe_values_(mapping,
+                 layout.fe,
+                 QGauss<2>(n_gauss),
                  update_values | update_gradients | update_quadrature_points |
                      update_JxW_values)
-    , face_values_(mapping, layout.fe, QGauss<1>(n_gauss),
+    , face_values_(mapping,
+                   layout.fe,
+                   QGauss<1>(n_gauss),
                    update_values | update_quadrature_points | update_normal_vectors |
                        update_JxW_values)
     , component_(layout.fe.n_dofs_per_cell())
@@ -69,7 +74,9 @@ void CellKernel::evaluate_shapes(unsigned int q) {
   }
 }
 
-void CellKernel::add_matrix(const CellCoefficients& c, double dt, FullMatrix<double>& out) {
+void CellKernel::add_matrix(const CellCoefficients& c,
+                            double dt,
+                            FullMatrix<double>& out) {
   const unsigned int n = component_.size();
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);
@@ -95,7 +102,8 @@ void CellKernel::add_matrix(const CellCoefficients& c, double dt, FullMatrix<dou
   }
 }
 
-void CellKernel::add_old_state(const CellCoefficients& c, const LA::MPI::Vector& old,
+void CellKernel::add_old_state(const CellCoefficients& c,
+                               const LA::MPI::Vector& old,
                                Vector<double>& out) {
   const unsigned int nq = fe_values_.n_quadrature_points;
   std::vector<double> div_u(nq), p_old(nq);
@@ -107,7 +115,8 @@ void CellKernel::add_old_state(const CellCoefficients& c, const LA::MPI::Vector&
   for (unsigned int q = 0; q < nq; ++q) {
     const double r = fe_values_.quadrature_point(q)[0];
     const double volumetric = div_u[q] + (axisymmetric ? u_old[q][0] / r : 0.0);
-    const double source = -(c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
+    const double source =
+        -(c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
     for (unsigned int i = 0; i < component_.size(); ++i)
       if (!layout_.is_displacement(component_[i]))
         out(i) += source * fe_values_[layout_.excess_pressure].value(i, q);
@@ -138,12 +147,15 @@ void CellKernel::add_face_traction(
   }
 }
 
-void CellKernel::add_face_outflow(unsigned int face, double dt, const FieldFunction& q_out,
-                                  double t, Vector<double>& out) {
+void CellKernel::add_face_outflow(unsigned int face,
+                                  double dt,
+                                  const FieldFunction& q_out,
+                                  double t,
+                                  Vector<double>& out) {
   face_values_.reinit(cell_, face);
   for (unsigned int q = 0; q < face_values_.n_quadrature_points; ++q) {
-    const double flux = dt * q_out(face_values_.quadrature_point(q), t) *
-                        weight(face_values_, q);
+    const double flux =
+        dt * q_out(face_values_.quadrature_point(q), t) * weight(face_values_, q);
     for (unsigned int i = 0; i < component_.size(); ++i)
       if (!layout_.is_displacement(component_[i]))
         out(i) += flux * face_values_[layout_.excess_pressure].value(i, q);

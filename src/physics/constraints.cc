@@ -29,9 +29,11 @@ void throw_if_any(bool local_problem, const std::string& message, MPI_Comm comm)
 /// Outward normal and area of a boundary; the normal must be the same everywhere.
 std::pair<Tensor<1, 2>, double> face_geometry(const DoFHandler<2>& dof_handler,
                                               types::boundary_id id,
-                                              AnalysisType analysis, bool& curved) {
+                                              AnalysisType analysis,
+                                              bool& curved) {
   FEFaceValues<2> fv(StaticMappingQ1<2>::mapping, dof_handler.get_fe(), QGauss<1>(2),
-                     update_normal_vectors | update_JxW_values | update_quadrature_points);
+                     update_normal_vectors | update_JxW_values |
+                         update_quadrature_points);
   Tensor<1, 2> normal;
   double area = 0.0;
   bool have_normal = false;
@@ -44,7 +46,8 @@ std::pair<Tensor<1, 2>, double> face_geometry(const DoFHandler<2>& dof_handler,
       fv.reinit(cell, f);
       for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
         const double r = fv.quadrature_point(q)[0];
-        area += fv.JxW(q) * (analysis == AnalysisType::axisymmetric ? 2 * units::pi * r : 1.0);
+        area += fv.JxW(q) *
+                (analysis == AnalysisType::axisymmetric ? 2 * units::pi * r : 1.0);
         if (!have_normal)
           normal = fv.normal_vector(q), have_normal = true;
         else if ((normal - fv.normal_vector(q)).norm() > 1e-8)
@@ -57,8 +60,10 @@ std::pair<Tensor<1, 2>, double> face_geometry(const DoFHandler<2>& dof_handler,
 
 } // namespace
 
-PlateLink link_plate(const DoFHandler<2>& dof_handler, const FieldLayout& layout,
-                     const PlateBoundary& plate, AnalysisType analysis,
+PlateLink link_plate(const DoFHandler<2>& dof_handler,
+                     const FieldLayout& layout,
+                     const PlateBoundary& plate,
+                     AnalysisType analysis,
                      const std::string& name) {
   const MPI_Comm comm = dof_handler.get_communicator();
   bool curved = false;
@@ -67,7 +72,8 @@ PlateLink link_plate(const DoFHandler<2>& dof_handler, const FieldLayout& layout
   Tensor<1, 2> summed = Utilities::MPI::sum(area > 0 ? normal : Tensor<1, 2>(), comm);
   area = Utilities::MPI::sum(area, comm);
   throw_if_any(curved, "rigid plate '" + name + "' must be one straight face", comm);
-  throw_if_any(!(area > 0.0), "rigid plate '" + name + "' has no faces in the mesh", comm);
+  throw_if_any(!(area > 0.0), "rigid plate '" + name + "' has no faces in the mesh",
+               comm);
   const double length = summed.norm();
   summed /= length;
   const bool along_x = std::abs(std::abs(summed[0]) - 1.0) < 1e-8;
@@ -79,12 +85,13 @@ PlateLink link_plate(const DoFHandler<2>& dof_handler, const FieldLayout& layout
   link.normal_component = along_x ? FieldLayout::ux : FieldLayout::uy;
   link.outward_normal = summed;
   link.area = area;
-  link.locally_relevant_dofs =
-      DoFTools::extract_boundary_dofs(dof_handler, layout.mask_of(link.normal_component),
-                                      {plate.id});
-  const types::global_dof_index none = std::numeric_limits<types::global_dof_index>::max();
-  const types::global_dof_index local_first =
-      link.locally_relevant_dofs.n_elements() > 0 ? *link.locally_relevant_dofs.begin() : none;
+  link.locally_relevant_dofs = DoFTools::extract_boundary_dofs(
+      dof_handler, layout.mask_of(link.normal_component), {plate.id});
+  const types::global_dof_index none =
+      std::numeric_limits<types::global_dof_index>::max();
+  const types::global_dof_index local_first = link.locally_relevant_dofs.n_elements() > 0
+                                                  ? *link.locally_relevant_dofs.begin()
+                                                  : none;
   link.master = Utilities::MPI::min(local_first, comm);
   return link;
 }
@@ -94,7 +101,9 @@ namespace {
 class ExcessPressureValues : public Function<2> {
 public:
   ExcessPressureValues(const FieldFunction& f, double t)
-      : Function<2>(FieldLayout::n_components), f_(f), t_(t) {}
+      : Function<2>(FieldLayout::n_components)
+      , f_(f)
+      , t_(t) {}
   double value(const Point<2>& x, unsigned int component) const override {
     return component == FieldLayout::pressure ? f_(x, t_) : 0.0;
   }
@@ -113,7 +122,8 @@ void add_fixed(const ConstraintInputs& in, AffineConstraints<double>& constraint
                                                  constraints, in.layout.mask_of(c));
 }
 
-void add_rigid_skeleton(const ConstraintInputs& in, AffineConstraints<double>& constraints) {
+void add_rigid_skeleton(const ConstraintInputs& in,
+                        AffineConstraints<double>& constraints) {
   // Every locally relevant displacement dof, ghosts included, so that each process
   // holds the lines it needs.
   std::vector<types::global_dof_index> dof_indices(in.layout.fe.n_dofs_per_cell());
@@ -147,7 +157,8 @@ void add_plate(const ConstraintInputs& in, AffineConstraints<double>& constraint
                in.dof_handler.get_communicator());
 }
 
-void add_pressures(const ConstraintInputs& in, double t,
+void add_pressures(const ConstraintInputs& in,
+                   double t,
                    AffineConstraints<double>& constraints) {
   for (const auto& bc : in.conditions.pressures) {
     const ExcessPressureValues values(bc.excess_pressure, t);
@@ -158,7 +169,8 @@ void add_pressures(const ConstraintInputs& in, double t,
 
 } // namespace
 
-void make_constraints(const ConstraintInputs& in, double t,
+void make_constraints(const ConstraintInputs& in,
+                      double t,
                       AffineConstraints<double>& constraints) {
   constraints.clear();
   constraints.reinit(in.locally_relevant);

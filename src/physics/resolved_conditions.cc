@@ -13,22 +13,26 @@ FieldFunction excess_from(const HydraulicCondition& c, const BiotSetup& setup) {
   const auto h0 = setup.initial_head;
   const FieldFunction value = c.value;
   if (c.kind == HydraulicCondition::Kind::head)
-    return [=](const dealii::Point<2>& x, double t) { return gw * (value(x, t) - h0(x)); };
+    return
+        [=](const dealii::Point<2>& x, double t) { return gw * (value(x, t) - h0(x)); };
   // pore pressure: p0 = gamma_w (h0 - y)
   return [=](const dealii::Point<2>& x, double t) {
     return value(x, t) - gw * (h0(x) - x[1]);
   };
 }
 
-void resolve_hydraulic(const BiotSetup& setup, const NameTable& names,
+void resolve_hydraulic(const BiotSetup& setup,
+                       const NameTable& names,
                        ResolvedConditions& out) {
   std::set<std::string> seen;
   for (const auto& c : setup.conditions.hydraulic) {
     const auto id = names.boundary_id(c.boundary);
     if (!c.value)
-      throw InputError("hydraulic condition on boundary '" + c.boundary + "' has no value");
+      throw InputError("hydraulic condition on boundary '" + c.boundary +
+                       "' has no value");
     if (!seen.insert(c.boundary).second)
-      throw InputError("boundary '" + c.boundary + "' has more than one hydraulic condition");
+      throw InputError("boundary '" + c.boundary +
+                       "' has more than one hydraulic condition");
     if (c.kind == HydraulicCondition::Kind::normal_flux)
       out.fluxes.push_back({id, c.value});
     else
@@ -36,14 +40,16 @@ void resolve_hydraulic(const BiotSetup& setup, const NameTable& names,
   }
 }
 
-void resolve_mechanical(const BiotSetup& setup, const NameTable& names,
+void resolve_mechanical(const BiotSetup& setup,
+                        const NameTable& names,
                         ResolvedConditions& out) {
   std::set<std::string> fixed_names, loaded_names;
   for (const auto& c : setup.conditions.mechanical) {
     const auto id = names.boundary_id(c.boundary);
     if (c.kind == MechanicalCondition::Kind::fixed) {
       if (!fixed_names.insert(c.boundary).second)
-        throw InputError("boundary '" + c.boundary + "' is fixed twice; give the "
+        throw InputError("boundary '" + c.boundary +
+                         "' is fixed twice; give the "
                          "components in one condition");
       out.fixed.push_back({id, c.fixed_components});
       continue;
@@ -67,7 +73,8 @@ void resolve_mechanical(const BiotSetup& setup, const NameTable& names,
                      "' is both a rigid plate and fixed");
 }
 
-void resolve_body_forces(const BiotSetup& setup, const NameTable& names,
+void resolve_body_forces(const BiotSetup& setup,
+                         const NameTable& names,
                          ResolvedConditions& out) {
   for (const auto& b : setup.conditions.body_forces) {
     const auto id = names.region_id(b.region);

@@ -17,7 +17,9 @@ unsigned int terms_for(double T) {
   return static_cast<unsigned int>(std::min(m_max, 2.0e6));
 }
 
-double mode(unsigned int m) { return pi * (2.0 * m + 1.0) / 2.0; }
+double mode(unsigned int m) {
+  return pi * (2.0 * m + 1.0) / 2.0;
+}
 
 } // namespace
 
@@ -67,20 +69,24 @@ double terzaghi_time_factor(double U) {
   return std::sqrt(lo * hi);
 }
 
+// Closed forms of the algebraic tails, so that only fast-decaying terms are summed:
+// sum 1/M^4 = 1/6 and sum 2 sin(M Z)/M^3 = Z - Z^2/2 (the steady profile of a
+// unit source with a drained face at Z = 0 and a sealed one at Z = 1).
 double olson_average_degree(double T, double Tc) {
   if (T <= 0.0)
     return 0.0;
-  double sum = 0.0;
-  const unsigned int n = terms_for(std::min(T, Tc));
-  for (unsigned int m = 0; m < n; ++m) {
-    const double M = mode(m), M2 = M * M, M4 = M2 * M2;
-    if (T <= Tc)
-      sum += (1.0 - std::exp(-M2 * T)) / M4;
-    else
-      sum += std::expm1(M2 * Tc) * std::exp(-M2 * T) / M4;
+  double sum = 0.0; // of the exponential parts
+  if (T <= Tc) {
+    for (unsigned int m = 0, n = terms_for(T); m < n; ++m) {
+      const double M2 = mode(m) * mode(m);
+      sum += std::exp(-M2 * T) / (M2 * M2);
+    }
+    return T / Tc * (1.0 - 2.0 / T * (1.0 / 6.0 - sum));
   }
-  if (T <= Tc)
-    return T / Tc * (1.0 - 2.0 / T * sum);
+  for (unsigned int m = 0, n = terms_for(T - Tc); m < n; ++m) {
+    const double M2 = mode(m) * mode(m);
+    sum += (std::exp(-M2 * (T - Tc)) - std::exp(-M2 * T)) / (M2 * M2);
+  }
   return 1.0 - 2.0 / Tc * sum;
 }
 
@@ -88,18 +94,24 @@ double olson_excess_ratio(double Z, double T, double Tc) {
   if (T <= 0.0)
     return 0.0;
   double sum = 0.0;
-  const unsigned int n = terms_for(std::min(T, Tc));
-  for (unsigned int m = 0; m < n; ++m) {
-    const double M = mode(m), M2 = M * M;
-    const double history = T <= Tc ? -std::expm1(-M2 * T)
-                                   : std::expm1(M2 * Tc) * std::exp(-M2 * T);
-    sum += 2.0 / (M2 * M * Tc) * std::sin(M * Z) * history;
+  if (T <= Tc) {
+    for (unsigned int m = 0, n = terms_for(T); m < n; ++m) {
+      const double M = mode(m);
+      sum += 2.0 / (M * M * M) * std::sin(M * Z) * std::exp(-M * M * T);
+    }
+    return (Z - 0.5 * Z * Z - sum) / Tc;
   }
-  return sum;
+  for (unsigned int m = 0, n = terms_for(T - Tc); m < n; ++m) {
+    const double M = mode(m), M2 = M * M;
+    sum +=
+        2.0 / (M2 * M) * std::sin(M * Z) * (std::exp(-M2 * (T - Tc)) - std::exp(-M2 * T));
+  }
+  return sum / Tc;
 }
 
 MandelSolution::MandelSolution(double nu, double nu_u, unsigned int n_terms)
-    : nu_(nu), nu_u_(nu_u) {
+    : nu_(nu)
+    , nu_u_(nu_u) {
   // Roots of tan(a) = c a with c = (1 - nu)/(nu_u - nu), one in each interval
   // ((n-1) pi, (n - 1/2) pi); bisection on g(a) = sin a - c a cos a.
   const double c = (1.0 - nu) / (nu_u - nu);
@@ -143,7 +155,9 @@ double MandelSolution::side_displacement_ratio(double t_star) const {
   return nu_ + 2.0 * (1.0 - nu_u_) * sum_sin_cos(t_star);
 }
 
-double theis_well_function(double u) { return -std::expint(-u); }
+double theis_well_function(double u) {
+  return -std::expint(-u);
+}
 
 double theis_drawdown(double Q, double T, double S, double r, double t) {
   const double u = r * r * S / (4.0 * T * t);

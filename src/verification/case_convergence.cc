@@ -31,7 +31,9 @@ constexpr double load = 45.0; // kPa
 class ReferencePressure : public dealii::Function<2> {
 public:
   ReferencePressure(std::function<double(double)> ratio_of_Z, double H)
-      : dealii::Function<2>(FieldLayout::n_components), ratio_(std::move(ratio_of_Z)), H_(H) {}
+      : dealii::Function<2>(FieldLayout::n_components)
+      , ratio_(std::move(ratio_of_Z))
+      , H_(H) {}
   double value(const dealii::Point<2>& x, unsigned int component) const override {
     return component == FieldLayout::pressure ? load * ratio_(-x[1] / H_) : 0.0;
   }
@@ -42,8 +44,10 @@ private:
 };
 
 /// ||p_h - p_ref|| / ||p_ref|| in L2 over the column at Tv_end.
-double relative_pressure_error(unsigned int n_cells, unsigned int n_steps,
-                               bool time_discrete_reference, MPI_Comm comm) {
+double relative_pressure_error(unsigned int n_cells,
+                               unsigned int n_steps,
+                               bool time_discrete_reference,
+                               MPI_Comm comm) {
   ColumnSpec spec;
   spec.surface_load = load;
   spec.n_cells = n_cells;
@@ -65,9 +69,9 @@ double relative_pressure_error(unsigned int n_cells, unsigned int n_steps,
                                                          FieldLayout::n_components);
   auto l2 = [&](const LA::MPI::Vector& field) {
     dealii::Vector<float> cellwise(tria.n_active_cells());
-    dealii::VectorTools::integrate_difference(problem.mapping(), problem.dof_handler(), field,
-                                              reference, cellwise, dealii::QGauss<2>(5),
-                                              dealii::VectorTools::L2_norm, &pressure_only);
+    dealii::VectorTools::integrate_difference(
+        problem.mapping(), problem.dof_handler(), field, reference, cellwise,
+        dealii::QGauss<2>(5), dealii::VectorTools::L2_norm, &pressure_only);
     return dealii::VectorTools::compute_global_error(tria, cellwise,
                                                      dealii::VectorTools::L2_norm);
   };
@@ -84,18 +88,20 @@ std::string scientific(double v) {
 
 /// Rows for the two finest pairs; the coarsest pair is pre-asymptotic. Each label
 /// carries the two errors the order comes from.
-std::vector<CheckRow> order_rows(const std::string& what, const std::vector<unsigned int>& n,
-                                 const std::vector<double>& errors, double expected,
-                                 double tolerance, const std::string& source) {
+std::vector<CheckRow> order_rows(const std::string& what,
+                                 const std::vector<unsigned int>& n,
+                                 const std::vector<double>& errors,
+                                 double expected,
+                                 double tolerance,
+                                 const std::string& source) {
   std::vector<CheckRow> rows;
   for (std::size_t i = errors.size() - 3; i + 1 < errors.size(); ++i)
-    rows.push_back(scaled_row("convergence",
-                              what + " order, n " + std::to_string(n[i]) + "->" +
-                                  std::to_string(n[i + 1]) + " (errors " +
-                                  scientific(errors[i]) + ", " + scientific(errors[i + 1]) +
-                                  "; error absolute)",
-                              std::log2(errors[i] / errors[i + 1]), expected, 1.0, tolerance,
-                              source));
+    rows.push_back(scaled_row(
+        "convergence",
+        what + " order, n " + std::to_string(n[i]) + "->" + std::to_string(n[i + 1]) +
+            " (errors " + scientific(errors[i]) + ", " + scientific(errors[i + 1]) +
+            "; error absolute)",
+        std::log2(errors[i] / errors[i + 1]), expected, 1.0, tolerance, source));
   return rows;
 }
 

@@ -9,8 +9,10 @@
 
 namespace settlewell::verification {
 
-void march(BiotProblem& problem, const std::vector<double>& times,
-           const std::function<void(const BiotProblem&)>& after_step, FieldWriter* writer,
+void march(BiotProblem& problem,
+           const std::vector<double>& times,
+           const std::function<void(const BiotProblem&)>& after_step,
+           FieldWriter* writer,
            const std::vector<double>& write_times) {
   if (writer != nullptr)
     writer->write(problem);
@@ -26,22 +28,23 @@ void march(BiotProblem& problem, const std::vector<double>& times,
   }
 }
 
-std::unique_ptr<FieldWriter> writer_for(const CaseSettings& settings,
-                                        const std::string& case_name, MPI_Comm comm) {
+std::unique_ptr<FieldWriter>
+writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm comm) {
   if (settings.vtk_directory.empty())
     return nullptr;
-  return std::make_unique<FieldWriter>(settings.vtk_directory + "/" + case_name, case_name,
-                                       comm);
+  return std::make_unique<FieldWriter>(settings.vtk_directory + "/" + case_name,
+                                       case_name, comm);
 }
 
-std::vector<double> graded_toward_end(double start, double end, unsigned int n_cells,
-                                      double growth) {
+std::vector<double>
+graded_toward_end(double start, double end, unsigned int n_cells, double growth) {
   std::vector<double> edges = graded_edges(end, start, n_cells, growth);
   std::reverse(edges.begin(), edges.end());
   return edges;
 }
 
-double crossing_time(const std::vector<double>& t, const std::vector<double>& value,
+double crossing_time(const std::vector<double>& t,
+                     const std::vector<double>& value,
                      double level) {
   for (std::size_t i = 1; i < t.size(); ++i) {
     if (value[i - 1] < level && value[i] >= level) {

@@ -17,16 +17,26 @@ bool CheckRow::passed() const {
   return std::isfinite(computed) && std::isfinite(error()) && error() <= tolerance;
 }
 
-CheckRow relative_row(std::string case_name, std::string quantity, double computed,
-                      double reference, double tolerance, std::string source) {
-  return {std::move(case_name), std::move(quantity), computed, reference,
-          std::abs(reference),  tolerance,          std::move(source)};
+CheckRow relative_row(std::string case_name,
+                      std::string quantity,
+                      double computed,
+                      double reference,
+                      double tolerance,
+                      std::string source) {
+  return {std::move(case_name), std::move(quantity), computed,         reference,
+          std::abs(reference),  tolerance,           std::move(source)};
 }
 
-CheckRow scaled_row(std::string case_name, std::string quantity, double computed,
-                    double reference, double scale, double tolerance, std::string source) {
-  return {std::move(case_name), std::move(quantity), computed, reference,
-          scale,                tolerance,          std::move(source)};
+CheckRow scaled_row(std::string case_name,
+                    std::string quantity,
+                    double computed,
+                    double reference,
+                    double scale,
+                    double tolerance,
+                    std::string source) {
+  return {
+      std::move(case_name), std::move(quantity), computed, reference, scale, tolerance,
+      std::move(source)};
 }
 
 namespace {
@@ -70,7 +80,8 @@ void print_table(std::ostream& out, const std::vector<CheckRow>& rows) {
     print_line(row);
   const auto n_pass = std::count_if(rows.begin(), rows.end(),
                                     [](const CheckRow& r) { return r.passed(); });
-  out << n_pass << " of " << rows.size() << " checks passed. The error is relative to the "
+  out << n_pass << " of " << rows.size()
+      << " checks passed. The error is relative to the "
       << "reference unless the quantity names another scale.\n";
 }
 

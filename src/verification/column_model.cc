@@ -38,7 +38,8 @@ BiotSetup column_setup(const ColumnSpec& spec) {
 
 } // namespace
 
-ColumnModel::ColumnModel(const ColumnSpec& spec, MPI_Comm comm) : spec_(spec) {
+ColumnModel::ColumnModel(const ColumnSpec& spec, MPI_Comm comm)
+    : spec_(spec) {
   BoxSpec box;
   const double x0 = spec.analysis == AnalysisType::axisymmetric ? spec.inner_radius : 0.0;
   box.x_edges = {x0, x0 + 1.0};
@@ -65,12 +66,14 @@ double ColumnModel::ultimate_settlement() const {
 }
 
 double ColumnModel::settlement() const {
-  const double x_mid = (spec_.analysis == AnalysisType::axisymmetric ? spec_.inner_radius : 0.0) + 0.5;
+  const double x_mid =
+      (spec_.analysis == AnalysisType::axisymmetric ? spec_.inner_radius : 0.0) + 0.5;
   return -probe(*problem_, dealii::Point<2>(x_mid, 0.0)).uy;
 }
 
 double ColumnModel::excess_ratio(double Z) const {
-  const double x_mid = (spec_.analysis == AnalysisType::axisymmetric ? spec_.inner_radius : 0.0) + 0.5;
+  const double x_mid =
+      (spec_.analysis == AnalysisType::axisymmetric ? spec_.inner_radius : 0.0) + 0.5;
   const double y = -std::min(Z * drainage_path(), spec_.height);
   const double final_excess = -problem_->setup().gamma_w * spec_.head_drop;
   const double p = probe(*problem_, dealii::Point<2>(x_mid, y)).excess_pressure;

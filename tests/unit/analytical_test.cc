@@ -69,8 +69,8 @@ TEST(Mandel, RootsAndSeriesMatchTabulatedValues) {
   for (std::size_t i = 0; i < roots.size(); ++i)
     EXPECT_NEAR(m.roots()[i], roots[i], 1e-4);
   const std::vector<std::tuple<double, double, double>> pressure{
-      {0.001, 1.01352, 1.01352}, {0.01, 1.04376, 1.04335}, {0.02, 1.06277, 1.05004},
-      {0.05, 1.09888, 0.982236}, {0.1, 1.09541, 0.860903}, {0.2, 0.968114, 0.707444},
+      {0.001, 1.01352, 1.01352}, {0.01, 1.04376, 1.04335},  {0.02, 1.06277, 1.05004},
+      {0.05, 1.09888, 0.982236}, {0.1, 1.09541, 0.860903},  {0.2, 0.968114, 0.707444},
       {0.5, 0.592785, 0.428127}, {1.0, 0.258844, 0.186939}, {2.0, 0.0493518, 0.0356422}};
   for (const auto& [t, centre, half] : pressure) {
     EXPECT_NEAR(m.pressure_ratio(0.0, t), centre, 2e-5) << "t* = " << t;
@@ -87,9 +87,9 @@ TEST(Mandel, RootsAndSeriesMatchTabulatedValues) {
 
 // Theis (1935) W(u) check values; Thiem (1906) check value Q = 3.55765e-3 m^3/s.
 TEST(Wells, TheisWellFunctionAndThiem) {
-  const std::vector<std::pair<double, double>> table{
-      {1e-4, 8.63322}, {1e-3, 6.33154}, {0.01, 4.03793}, {0.1, 1.82292},
-      {0.5, 0.559774}, {1.0, 0.219384}};
+  const std::vector<std::pair<double, double>> table{{1e-4, 8.63322}, {1e-3, 6.33154},
+                                                     {0.01, 4.03793}, {0.1, 1.82292},
+                                                     {0.5, 0.559774}, {1.0, 0.219384}};
   for (const auto& [u, W] : table)
     EXPECT_NEAR(a::theis_well_function(u), W, 1e-5 * W) << "u = " << u;
   // Thiem: k = 1e-4, b = 10, r1 = 0.5, r2 = 100, h2 - h1 = 3 m gives Q; invert it.

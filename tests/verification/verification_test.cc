@@ -19,14 +19,20 @@ TEST_P(VerificationCase, EveryCheckPasses) {
   for (const auto& row : rows)
     EXPECT_TRUE(row.passed()) << row.quantity << ": computed " << row.computed
                               << ", reference " << row.reference << ", error "
-                              << row.error() << " > " << row.tolerance << " (" << row.source
-                              << ")";
+                              << row.error() << " > " << row.tolerance << " ("
+                              << row.source << ")";
 }
 
-INSTANTIATE_TEST_SUITE_P(Published, VerificationCase,
-                         ::testing::Values("terzaghi-drop-double", "terzaghi-drop-single",
-                                           "terzaghi-load", "terzaghi-axisymmetric",
-                                           "mandel", "thiem", "theis", "convergence"),
+INSTANTIATE_TEST_SUITE_P(Published,
+                         VerificationCase,
+                         ::testing::Values("terzaghi-drop-double",
+                                           "terzaghi-drop-single",
+                                           "terzaghi-load",
+                                           "terzaghi-axisymmetric",
+                                           "mandel",
+                                           "thiem",
+                                           "theis",
+                                           "convergence"),
                          [](const auto& info) {
                            std::string name = info.param;
                            for (auto& ch : name)

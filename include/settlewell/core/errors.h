@@ -10,14 +10,16 @@ namespace settlewell {
 /// prints it and exits with status 2.
 class InputError : public std::runtime_error {
 public:
-  explicit InputError(const std::string& message) : std::runtime_error(message) {}
+  explicit InputError(const std::string& message)
+      : std::runtime_error(message) {}
 };
 
 /// A failure inside a numerical step that the input did not cause directly
 /// (a singular matrix, a solver that did not converge).
 class SolverError : public std::runtime_error {
 public:
-  explicit SolverError(const std::string& message) : std::runtime_error(message) {}
+  explicit SolverError(const std::string& message)
+      : std::runtime_error(message) {}
 };
 
 } // namespace settlewell

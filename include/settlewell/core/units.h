@@ -10,7 +10,11 @@ inline constexpr double seconds_per_year = 365.25 * seconds_per_day;
 inline constexpr double default_gamma_w = 9.81;
 inline constexpr double pi = 3.14159265358979323846;
 
-inline constexpr double days(double d) { return d * seconds_per_day; }
-inline constexpr double to_days(double s) { return s / seconds_per_day; }
+inline constexpr double days(double d) {
+  return d * seconds_per_day;
+}
+inline constexpr double to_days(double s) {
+  return s / seconds_per_day;
+}
 
 } // namespace settlewell::units

@@ -7,12 +7,12 @@ namespace settlewell {
 /// Isotropic linear-elastic skeleton with anisotropic hydraulic conductivity.
 /// Units: kPa, m/s, 1/kPa. Pure data and pure functions: no mesh, no MPI.
 struct PoroelasticMaterial {
-  double youngs_modulus = 0.0;  ///< drained E', kPa
-  double poisson_ratio = 0.0;   ///< drained nu'
-  double conductivity_x = 0.0;  ///< kx (kr in axisymmetric), m/s
-  double conductivity_y = 0.0;  ///< ky (kz in axisymmetric), m/s
-  double biot_alpha = 1.0;      ///< Biot coefficient alpha, (0, 1]
-  double storage = 0.0;         ///< S = 1/M, 1/kPa (0: incompressible constituents)
+  double youngs_modulus = 0.0; ///< drained E', kPa
+  double poisson_ratio = 0.0;  ///< drained nu'
+  double conductivity_x = 0.0; ///< kx (kr in axisymmetric), m/s
+  double conductivity_y = 0.0; ///< ky (kz in axisymmetric), m/s
+  double biot_alpha = 1.0;     ///< Biot coefficient alpha, (0, 1]
+  double storage = 0.0;        ///< S = 1/M, 1/kPa (0: incompressible constituents)
 
   /// E' from the coefficient of volume compressibility mv (1/kPa), i.e. the
   /// constrained modulus 1/mv, and nu'.

@@ -28,11 +28,11 @@ Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm);
 
 /// n cell edges+1 from `start` to `end`; each cell is `growth` times the size of
 /// the previous one (growth 1: uniform). Cells are smallest at `start`.
-std::vector<double> graded_edges(double start, double end, unsigned int n_cells,
-                                 double growth);
+std::vector<double>
+graded_edges(double start, double end, unsigned int n_cells, double growth);
 
 /// Edges from `start` to `end`, finest at both ends, symmetric about the middle.
-std::vector<double> double_graded_edges(double start, double end, unsigned int n_cells,
-                                        double growth);
+std::vector<double>
+double_graded_edges(double start, double end, unsigned int n_cells, double growth);
 
 } // namespace settlewell

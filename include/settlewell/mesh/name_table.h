@@ -22,7 +22,9 @@ public:
   const std::string& boundary_name(dealii::types::boundary_id id) const;
 
   bool has_region(const std::string& name) const { return regions_.count(name) != 0; }
-  bool has_boundary(const std::string& name) const { return boundaries_.count(name) != 0; }
+  bool has_boundary(const std::string& name) const {
+    return boundaries_.count(name) != 0;
+  }
   std::vector<std::string> region_names() const;
   std::vector<std::string> boundary_names() const;
 

@@ -14,9 +14,9 @@ namespace settlewell {
 
 /// What one time step did.
 struct StepReport {
-  double time = 0.0;         ///< s, at the end of the step
-  double dt = 0.0;           ///< s
-  bool new_matrix = false;   ///< the matrix was assembled and factorised in this step
+  double time = 0.0;       ///< s, at the end of the step
+  double dt = 0.0;         ///< s
+  bool new_matrix = false; ///< the matrix was assembled and factorised in this step
   unsigned int iterations = 0;
   double assembly_seconds = 0.0;      ///< matrix (if new) and right-hand side
   double factorisation_seconds = 0.0; ///< solver set-up for a new matrix

@@ -17,11 +17,11 @@ namespace settlewell {
 
 /// Material data in the form the kernel uses at a quadrature point.
 struct CellCoefficients {
-  double lambda = 0.0;             ///< kPa
-  double mu = 0.0;                 ///< kPa
-  double alpha = 1.0;              ///< Biot coefficient
-  double storage = 0.0;            ///< 1/kPa
-  dealii::Tensor<2, 2> mobility;   ///< k / gamma_w, m^4/(kN s)
+  double lambda = 0.0;           ///< kPa
+  double mu = 0.0;               ///< kPa
+  double alpha = 1.0;            ///< Biot coefficient
+  double storage = 0.0;          ///< 1/kPa
+  dealii::Tensor<2, 2> mobility; ///< k / gamma_w, m^4/(kN s)
 
   static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
 };
@@ -33,7 +33,8 @@ struct CellCoefficients {
 /// Axisymmetric integrals carry the weight 2 pi r and the hoop strain u_r / r.
 class CellKernel {
 public:
-  CellKernel(const FieldLayout& layout, AnalysisType analysis,
+  CellKernel(const FieldLayout& layout,
+             AnalysisType analysis,
              const dealii::Mapping<2>& mapping);
 
   void reinit(const dealii::DoFHandler<2>::active_cell_iterator& cell);
@@ -41,7 +42,8 @@ public:
 
   void add_matrix(const CellCoefficients& c, double dt, dealii::FullMatrix<double>& out);
   /// Old-state part of the storage equation: -(alpha div u_n + S p_n) in the p rows.
-  void add_old_state(const CellCoefficients& c, const LA::MPI::Vector& old_solution,
+  void add_old_state(const CellCoefficients& c,
+                     const LA::MPI::Vector& old_solution,
                      dealii::Vector<double>& out);
   void add_body_force(const dealii::Tensor<1, 2>& b, dealii::Vector<double>& out);
 
@@ -51,7 +53,10 @@ public:
                              const dealii::Point<2>&, const dealii::Tensor<1, 2>&)>& t,
                          dealii::Vector<double>& out);
   /// dt times an outflow q.n (m/s) in the p rows, on face `face`.
-  void add_face_outflow(unsigned int face, double dt, const FieldFunction& q, double t,
+  void add_face_outflow(unsigned int face,
+                        double dt,
+                        const FieldFunction& q,
+                        double t,
                         dealii::Vector<double>& out);
 
   /// Integration weight at a point: JxW, times 2 pi r if axisymmetric.

@@ -14,17 +14,19 @@ namespace settlewell {
 /// The degrees of freedom of a rigid plate: the normal displacement of every node
 /// on the plate is tied to one master degree of freedom.
 struct PlateLink {
-  unsigned int normal_component = 0;     ///< 0: the plate moves in x, 1: in y
+  unsigned int normal_component = 0; ///< 0: the plate moves in x, 1: in y
   dealii::types::global_dof_index master = 0;
   dealii::IndexSet locally_relevant_dofs; ///< plate dofs of this process, master included
-  double area = 0.0;                     ///< m (plane strain) or m^2 (axisymmetric)
+  double area = 0.0;                      ///< m (plane strain) or m^2 (axisymmetric)
   dealii::Tensor<1, 2> outward_normal;
 };
 
 /// Finds the plate's dofs, its normal (which must be one axis) and its area.
 /// Collective over the mesh's communicator.
-PlateLink link_plate(const dealii::DoFHandler<2>& dof_handler, const FieldLayout& layout,
-                     const PlateBoundary& plate, AnalysisType analysis,
+PlateLink link_plate(const dealii::DoFHandler<2>& dof_handler,
+                     const FieldLayout& layout,
+                     const PlateBoundary& plate,
+                     AnalysisType analysis,
                      const std::string& plate_name);
 
 struct ConstraintInputs {
@@ -40,7 +42,8 @@ struct ConstraintInputs {
 /// All constraints at time t: hanging nodes, fixed displacements, the plate, and
 /// prescribed excess pore pressures with their values at t. The set of constrained
 /// dofs does not depend on t, only the values do.
-void make_constraints(const ConstraintInputs& in, double t,
+void make_constraints(const ConstraintInputs& in,
+                      double t,
                       dealii::AffineConstraints<double>& constraints);
 
 } // namespace settlewell

@@ -45,7 +45,8 @@ struct ResolvedConditions {
   std::vector<FixedBoundary> fixed;
   std::vector<TractionBoundary> tractions;
   std::optional<PlateBoundary> plate;
-  std::vector<std::pair<dealii::types::material_id, std::array<TimeFunction, 2>>> body_forces;
+  std::vector<std::pair<dealii::types::material_id, std::array<TimeFunction, 2>>>
+      body_forces;
 
   dealii::Tensor<1, 2> body_force(dealii::types::material_id region, double t) const;
 };

@@ -8,6 +8,13 @@ namespace settlewell {
 /// with `per_decade` steps in each factor of ten; t_end is included.
 std::vector<double> log_spaced_times(double t_first, double t_end, double per_decade);
 
+/// Times after t_begin (exclusive) up to t_end (inclusive): the first step is
+/// `first_step`, each next one `growth` times the last, until the step reaches
+/// `max_step`; from there on the steps are equal (and no larger than max_step) so
+/// that a factorisation is reused, and the last one lands on t_end.
+std::vector<double> growing_times(
+    double t_begin, double t_end, double first_step, double growth, double max_step);
+
 /// Times from t_begin (exclusive) to t_end (inclusive) with a constant step.
 std::vector<double> uniform_times(double t_begin, double t_end, unsigned int n_steps);
 

@@ -13,21 +13,24 @@ namespace settlewell::verification {
 
 /// Advances `problem` through `times` (s), calling `after_step` after each step
 /// and writing fields at the times in `write_times` when a writer is given.
-void march(BiotProblem& problem, const std::vector<double>& times,
+void march(BiotProblem& problem,
+           const std::vector<double>& times,
            const std::function<void(const BiotProblem&)>& after_step,
-           FieldWriter* writer = nullptr, const std::vector<double>& write_times = {});
+           FieldWriter* writer = nullptr,
+           const std::vector<double>& write_times = {});
 
 /// A writer into <vtk_directory>/<case_name>, or none if no directory was asked for.
-std::unique_ptr<FieldWriter> writer_for(const CaseSettings& settings,
-                                        const std::string& case_name, MPI_Comm comm);
+std::unique_ptr<FieldWriter>
+writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm comm);
 
 /// Cell edges that are finest at `end` (graded_edges is finest at its start).
-std::vector<double> graded_toward_end(double start, double end, unsigned int n_cells,
-                                      double growth);
+std::vector<double>
+graded_toward_end(double start, double end, unsigned int n_cells, double growth);
 
 /// The time at which a rising history first reaches `level`, interpolated linearly
 /// in log t between the bracketing samples; NaN if it never does.
-double crossing_time(const std::vector<double>& t, const std::vector<double>& value,
+double crossing_time(const std::vector<double>& t,
+                     const std::vector<double>& value,
                      double level);
 
 /// Formats a number for a quantity label ("Tv=0.197").

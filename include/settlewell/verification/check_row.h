@@ -23,11 +23,20 @@ struct CheckRow {
 };
 
 /// A row whose error is relative to |reference|.
-CheckRow relative_row(std::string case_name, std::string quantity, double computed,
-                      double reference, double tolerance, std::string source);
+CheckRow relative_row(std::string case_name,
+                      std::string quantity,
+                      double computed,
+                      double reference,
+                      double tolerance,
+                      std::string source);
 /// A row whose error is relative to a stated scale.
-CheckRow scaled_row(std::string case_name, std::string quantity, double computed,
-                    double reference, double scale, double tolerance, std::string source);
+CheckRow scaled_row(std::string case_name,
+                    std::string quantity,
+                    double computed,
+                    double reference,
+                    double scale,
+                    double tolerance,
+                    std::string source);
 
 /// The table printed by `settlewell verify`.
 void print_table(std::ostream& out, const std::vector<CheckRow>& rows);
