@@ -79,7 +79,6 @@ int dispatch(int argc, char** argv) {
       "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
       "excavations."};
   app.set_version_flag("--version", version_text());
-  app.require_subcommand(1);
 
   VerifyOptions verify;
   auto* verify_cmd = app.add_subcommand(
@@ -111,6 +110,8 @@ int dispatch(int argc, char** argv) {
   }
   if (verify_cmd->parsed())
     return run_verify(verify);
+  if (is_root())
+    std::cerr << "settlewell: a command is required (verify); see settlewell --help\n";
   return exit_usage;
 }
 
