@@ -2,21 +2,22 @@
 
 namespace settlewell {
 
-BoundaryConditions& BoundaryConditions::head(const std::string& boundary,
-                                             FieldFunction h) {
-  hydraulic.push_back({boundary, HydraulicCondition::Kind::head, std::move(h)});
+BoundaryConditions& BoundaryConditions::head(const std::string& boundary, FieldFunction h,
+                                             TimeWindow window) {
+  hydraulic.push_back({boundary, HydraulicCondition::Kind::head, std::move(h), window});
   return *this;
 }
 
 BoundaryConditions& BoundaryConditions::pore_pressure(const std::string& boundary,
                                                       FieldFunction p) {
-  hydraulic.push_back({boundary, HydraulicCondition::Kind::pore_pressure, std::move(p)});
+  hydraulic.push_back({boundary, HydraulicCondition::Kind::pore_pressure, std::move(p), {}});
   return *this;
 }
 
 BoundaryConditions& BoundaryConditions::outflow(const std::string& boundary,
-                                                FieldFunction q) {
-  hydraulic.push_back({boundary, HydraulicCondition::Kind::normal_flux, std::move(q)});
+                                                FieldFunction q, TimeWindow window) {
+  hydraulic.push_back(
+      {boundary, HydraulicCondition::Kind::normal_flux, std::move(q), window});
   return *this;
 }
 

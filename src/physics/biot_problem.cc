@@ -3,6 +3,7 @@
 #include "settlewell/core/errors.h"
 #include "settlewell/physics/cell_kernel.h"
 #include "settlewell/physics/constraints.h"
+#include "settlewell/physics/internal_lines.h"
 #include "settlewell/physics/resolved_conditions.h"
 #include "settlewell/solvers/linear_solver.h"
 
@@ -13,9 +14,12 @@
 #include <deal.II/lac/dynamic_sparsity_pattern.h>
 #include <deal.II/lac/sparsity_tools.h>
 
+#include <algorithm>
 #include <chrono>
+#include <set>
 #include <cmath>
 #include <limits>
+#include <unordered_map>
 
 namespace settlewell {
 
@@ -46,6 +50,13 @@ std::vector<CellCoefficients> coefficients_by_region(const BiotSetup& setup,
   return by_id;
 }
 
+/// Throws InputError if the mesh has no line of this name.
+bool line_of_name_check(const Mesh& mesh, const std::string& line) {
+  if (!mesh.has_line(line))
+    throw InputError("no boundary or internal line named '" + line + "' in the mesh");
+  return true;
+}
+
 void check_axisymmetric_domain(const Mesh& mesh) {
   bool negative_radius = false;
   for (const auto& v : mesh.triangulation->get_vertices())
@@ -60,10 +71,18 @@ struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
   ConstraintInputs constraint_inputs() const {
-    return {dof_handler,          layout, conditions, plate,
-            setup.rigid_skeleton, owned,  relevant};
+    return {dof_handler, layout,   conditions,        plate, setup.rigid_skeleton,
+            owned,       relevant, pressure_line_dofs};
   }
   void setup_dofs();
+  void find_internal_lines();
+  void add_line_fluxes(CellKernel& kernel, const DoFHandler<2>::active_cell_iterator& cell,
+                       double t, double dt, Vector<double>& cell_rhs) const;
+  void add_old_state_and_fluxes(CellKernel& kernel,
+                                const DoFHandler<2>::active_cell_iterator& cell, double t,
+                                double dt, Vector<double>& cell_rhs) const;
+  double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
+  double prescribed_outflow(const FluxBoundary& flux) const;
   void assemble_matrix(double dt);
   void assemble_rhs(double t_new, double dt);
   void add_face_terms(CellKernel& kernel,
@@ -87,8 +106,13 @@ struct BiotProblem::Impl {
   LA::MPI::SparseMatrix matrix;
   LA::MPI::Vector rhs, owned_solution, solution, old_solution;
   std::unique_ptr<LinearSolver> solver;
+  std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
+  /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).
+  std::unordered_map<unsigned int, std::vector<std::pair<unsigned int, std::size_t>>>
+      line_flux_faces;
   double time = 0.0;
   double matrix_dt = std::numeric_limits<double>::quiet_NaN();
+  std::vector<bool> matrix_pressures; ///< active prescribed pressures of the matrix
 };
 
 BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
@@ -96,7 +120,7 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     , setup(std::move(setup_))
     , comm(mesh_.triangulation->get_communicator())
     , dof_handler(*mesh_.triangulation)
-    , conditions(resolve_conditions(setup, mesh_.names))
+    , conditions(resolve_conditions(setup, mesh_))
     , coefficients(coefficients_by_region(setup, mesh_.names))
     , solver(make_direct_solver(comm)) {
   if (!(setup.gamma_w > 0.0))
@@ -117,16 +141,32 @@ void BiotProblem::Impl::setup_dofs() {
                        mesh.names.boundary_name(conditions.plate->id));
     relevant.add_index(plate->master);
   }
-  make_constraints(constraint_inputs(), 0.0, constraints);
-
+  find_internal_lines();
+  // The pattern keeps the rows of prescribed pressures, so that conditions can be
+  // switched on and off (wells that start pumping) without a new pattern.
+  make_constraints(constraint_inputs(), 0.0, constraints, false);
   DynamicSparsityPattern dsp(relevant);
-  DoFTools::make_sparsity_pattern(dof_handler, dsp, constraints, false);
+  DoFTools::make_sparsity_pattern(dof_handler, dsp, constraints, true);
   SparsityTools::distribute_sparsity_pattern(dsp, owned, comm, relevant);
   matrix.reinit(owned, owned, dsp, comm);
   rhs.reinit(owned, comm);
   owned_solution.reinit(owned, comm);
   solution.reinit(owned, relevant, comm);
   old_solution.reinit(owned, relevant, comm);
+}
+
+void BiotProblem::Impl::find_internal_lines() {
+  pressure_line_dofs.assign(conditions.pressures.size(), {});
+  for (std::size_t k = 0; k < conditions.pressures.size(); ++k)
+    if (conditions.pressures[k].line.internal)
+      pressure_line_dofs[k] = pressure_dofs_on_line(
+          dof_handler, mesh.internal_lines.at(conditions.pressures[k].line.name));
+  line_flux_faces.clear();
+  for (std::size_t k = 0; k < conditions.fluxes.size(); ++k)
+    if (conditions.fluxes[k].line.internal)
+      for (const auto& lf :
+           faces_on_line(dof_handler, mesh.internal_lines.at(conditions.fluxes[k].line.name)))
+        line_flux_faces[lf.cell->active_cell_index()].emplace_back(lf.face, k);
 }
 
 void BiotProblem::Impl::assemble_matrix(double dt) {
@@ -172,9 +212,29 @@ void BiotProblem::Impl::add_face_terms(CellKernel& kernel,
           cell_rhs);
     }
     for (const auto& fb : conditions.fluxes)
-      if (fb.id == id)
+      if (!fb.line.internal && fb.line.id == id && fb.window.contains(t_new))
         kernel.add_face_outflow(f, dt, fb.outflow, t_new, cell_rhs);
   }
+}
+
+void BiotProblem::Impl::add_line_fluxes(CellKernel& kernel,
+                                        const DoFHandler<2>::active_cell_iterator& cell,
+                                        double t, double dt, Vector<double>& cell_rhs) const {
+  const auto found = line_flux_faces.find(cell->active_cell_index());
+  if (found == line_flux_faces.end())
+    return;
+  for (const auto& [face, k] : found->second)
+    if (conditions.fluxes[k].window.contains(t))
+      kernel.add_face_outflow(face, dt, conditions.fluxes[k].outflow, t, cell_rhs);
+}
+
+void BiotProblem::Impl::add_old_state_and_fluxes(
+    CellKernel& kernel, const DoFHandler<2>::active_cell_iterator& cell, double t, double dt,
+    Vector<double>& cell_rhs) const {
+  kernel.add_old_state(coefficients[cell->material_id()], old_solution, cell_rhs);
+  if (cell->at_boundary())
+    add_face_terms(kernel, cell, t, dt, cell_rhs);
+  add_line_fluxes(kernel, cell, t, dt, cell_rhs);
 }
 
 bool BiotProblem::Impl::has_inhomogeneity(
@@ -199,12 +259,10 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     cell->get_dof_indices(dofs);
     const CellCoefficients& c = coefficients[cell->material_id()];
     cell_rhs = 0.0;
-    kernel.add_old_state(c, old_solution, cell_rhs);
+    add_old_state_and_fluxes(kernel, cell, t_new, dt, cell_rhs);
     const Tensor<1, 2> b = conditions.body_force(cell->material_id(), t_new);
     if (b.norm() > 0.0)
       kernel.add_body_force(b, cell_rhs);
-    if (cell->at_boundary())
-      add_face_terms(kernel, cell, t_new, dt, cell_rhs);
     if (has_inhomogeneity(dofs)) {
       // Prescribed values enter the right-hand side through the cell matrix;
       // only cells that touch them need it.
@@ -216,6 +274,69 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     }
   }
   rhs.compress(VectorOperation::add);
+}
+
+double BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
+  // The consistent flux: at a prescribed-pressure dof, the storage-equation row of
+  // the unconstrained system minus its right-hand side is dt times the water that
+  // leaves through that dof's share of the line.
+  CellKernel kernel(layout, setup.analysis, mapping);
+  const unsigned int n = kernel.dofs_per_cell();
+  FullMatrix<double> cell_matrix(n, n);
+  Vector<double> cell_rhs(n), local(n), residual(n);
+  std::vector<types::global_dof_index> dofs(n);
+  double total = 0.0;
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    cell->get_dof_indices(dofs);
+    if (std::none_of(dofs.begin(), dofs.end(), [&](auto d) { return line.count(d) != 0; }))
+      continue;
+    kernel.reinit(cell);
+    cell_matrix = 0.0;
+    kernel.add_matrix(coefficients[cell->material_id()], matrix_dt, cell_matrix);
+    cell_rhs = 0.0;
+    add_old_state_and_fluxes(kernel, cell, time, matrix_dt, cell_rhs);
+    cell->get_dof_values(solution, local);
+    cell_matrix.vmult(residual, local);
+    residual -= cell_rhs;
+    for (unsigned int i = 0; i < n; ++i)
+      if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
+          line.count(dofs[i]))
+        total += residual(i);
+  }
+  return Utilities::MPI::sum(total, comm) / matrix_dt;
+}
+
+double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
+  // The p-rows of a face integral of q sum to the integral of q (the Q1 shape
+  // functions sum to one).
+  CellKernel kernel(layout, setup.analysis, mapping);
+  Vector<double> face_rhs(kernel.dofs_per_cell());
+  double total = 0.0;
+  auto add = [&](const DoFHandler<2>::active_cell_iterator& cell, unsigned int f) {
+    kernel.reinit(cell);
+    face_rhs = 0.0;
+    kernel.add_face_outflow(f, 1.0, flux.outflow, time, face_rhs);
+    for (unsigned int i = 0; i < face_rhs.size(); ++i)
+      total += face_rhs(i);
+  };
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    if (flux.line.internal) {
+      const auto found = line_flux_faces.find(cell->active_cell_index());
+      if (found != line_flux_faces.end())
+        for (const auto& [face, k] : found->second)
+          if (&conditions.fluxes[k] == &flux)
+            add(cell, face);
+      continue;
+    }
+    for (const unsigned int f : cell->face_indices())
+      if (cell->at_boundary(f) && cell->face(f)->boundary_id() == flux.line.id)
+        add(cell, f);
+  }
+  return Utilities::MPI::sum(total, comm);
 }
 
 BiotProblem::BiotProblem(const Mesh& mesh, BiotSetup setup)
@@ -235,7 +356,9 @@ StepReport BiotProblem::advance_to(double t_new) {
   const auto start = std::chrono::steady_clock::now();
   m.old_solution = m.solution;
   make_constraints(m.constraint_inputs(), t_new, m.constraints);
-  report.new_matrix = !(std::abs(dt - m.matrix_dt) <= 1e-12 * dt);
+  const std::vector<bool> pressures_now = active_pressures(m.conditions, t_new);
+  report.new_matrix =
+      !(std::abs(dt - m.matrix_dt) <= 1e-12 * dt) || pressures_now != m.matrix_pressures;
   if (report.new_matrix)
     m.assemble_matrix(dt);
   m.assemble_rhs(t_new, dt);
@@ -244,6 +367,7 @@ StepReport BiotProblem::advance_to(double t_new) {
     const auto factor_start = std::chrono::steady_clock::now();
     m.solver->set_matrix(m.matrix);
     m.matrix_dt = dt;
+    m.matrix_pressures = pressures_now;
     report.factorisation_seconds = seconds_since(factor_start);
   }
 

@@ -157,21 +157,39 @@ void add_plate(const ConstraintInputs& in, AffineConstraints<double>& constraint
                in.dof_handler.get_communicator());
 }
 
-void add_pressures(const ConstraintInputs& in,
-                   double t,
+void add_pressures(const ConstraintInputs& in, double t,
                    AffineConstraints<double>& constraints) {
-  for (const auto& bc : in.conditions.pressures) {
-    const ExcessPressureValues values(bc.excess_pressure, t);
-    VectorTools::interpolate_boundary_values(in.dof_handler, bc.id, values, constraints,
-                                             in.layout.mask_of(FieldLayout::pressure));
+  const auto& pressures = in.conditions.pressures;
+  for (std::size_t k = 0; k < pressures.size(); ++k) {
+    const auto& bc = pressures[k];
+    if (!bc.window.contains(t))
+      continue;
+    if (!bc.line.internal) {
+      const ExcessPressureValues values(bc.excess_pressure, t);
+      VectorTools::interpolate_boundary_values(in.dof_handler, bc.line.id, values, constraints,
+                                               in.layout.mask_of(FieldLayout::pressure));
+      continue;
+    }
+    for (const auto& [dof, x] : in.pressure_line_dofs[k]) {
+      if (constraints.is_constrained(dof))
+        continue;
+      constraints.add_line(dof);
+      constraints.set_inhomogeneity(dof, bc.excess_pressure(x, t));
+    }
   }
 }
 
 } // namespace
 
-void make_constraints(const ConstraintInputs& in,
-                      double t,
-                      AffineConstraints<double>& constraints) {
+std::vector<bool> active_pressures(const ResolvedConditions& conditions, double t) {
+  std::vector<bool> active;
+  for (const auto& bc : conditions.pressures)
+    active.push_back(bc.window.contains(t));
+  return active;
+}
+
+void make_constraints(const ConstraintInputs& in, double t,
+                      AffineConstraints<double>& constraints, bool with_pressures) {
   constraints.clear();
   constraints.reinit(in.locally_relevant);
   DoFTools::make_hanging_node_constraints(in.dof_handler, constraints);
@@ -180,7 +198,8 @@ void make_constraints(const ConstraintInputs& in,
     add_rigid_skeleton(in, constraints);
   if (in.plate)
     add_plate(in, constraints);
-  add_pressures(in, t, constraints);
+  if (with_pressures)
+    add_pressures(in, t, constraints);
   constraints.close();
 }
 

@@ -2,6 +2,7 @@
 
 #include "settlewell/core/errors.h"
 
+#include <map>
 #include <set>
 
 namespace settlewell {
@@ -21,22 +22,34 @@ FieldFunction excess_from(const HydraulicCondition& c, const BiotSetup& setup) {
   };
 }
 
-void resolve_hydraulic(const BiotSetup& setup,
-                       const NameTable& names,
-                       ResolvedConditions& out) {
-  std::set<std::string> seen;
+LineRef line_of(const std::string& name, const Mesh& mesh) {
+  if (mesh.names.has_boundary(name))
+    return {name, false, mesh.names.boundary_id(name)};
+  if (mesh.internal_lines.count(name))
+    return {name, true, 0};
+  std::string known;
+  for (const auto& b : mesh.names.boundary_names())
+    known += (known.empty() ? "" : ", ") + b;
+  for (const auto& [line, segments] : mesh.internal_lines)
+    known += (known.empty() ? "" : ", ") + line;
+  throw InputError("no boundary or internal line named '" + name + "' in the mesh (known: " +
+                   known + ")");
+}
+
+void resolve_hydraulic(const BiotSetup& setup, const Mesh& mesh, ResolvedConditions& out) {
+  std::map<std::string, std::vector<TimeWindow>> seen;
   for (const auto& c : setup.conditions.hydraulic) {
-    const auto id = names.boundary_id(c.boundary);
+    const LineRef line = line_of(c.boundary, mesh);
     if (!c.value)
-      throw InputError("hydraulic condition on boundary '" + c.boundary +
-                       "' has no value");
-    if (!seen.insert(c.boundary).second)
-      throw InputError("boundary '" + c.boundary +
-                       "' has more than one hydraulic condition");
+      throw InputError("hydraulic condition on '" + c.boundary + "' has no value");
+    for (const auto& w : seen[c.boundary])
+      if (w.overlaps(c.window))
+        throw InputError("'" + c.boundary + "' has two hydraulic conditions at the same time");
+    seen[c.boundary].push_back(c.window);
     if (c.kind == HydraulicCondition::Kind::normal_flux)
-      out.fluxes.push_back({id, c.value});
+      out.fluxes.push_back({line, c.value, c.window});
     else
-      out.pressures.push_back({id, excess_from(c, setup)});
+      out.pressures.push_back({line, excess_from(c, setup), c.window});
   }
 }
 
@@ -98,11 +111,11 @@ dealii::Tensor<1, 2> ResolvedConditions::body_force(dealii::types::material_id r
   return b;
 }
 
-ResolvedConditions resolve_conditions(const BiotSetup& setup, const NameTable& names) {
+ResolvedConditions resolve_conditions(const BiotSetup& setup, const Mesh& mesh) {
   ResolvedConditions out;
-  resolve_hydraulic(setup, names, out);
-  resolve_mechanical(setup, names, out);
-  resolve_body_forces(setup, names, out);
+  resolve_hydraulic(setup, mesh, out);
+  resolve_mechanical(setup, mesh.names, out);
+  resolve_body_forces(setup, mesh.names, out);
   return out;
 }
 

@@ -3,22 +3,36 @@
 #include "settlewell/boundary/time_function.h"
 
 #include <array>
+#include <limits>
 #include <string>
 #include <vector>
 
 namespace settlewell {
 
-/// Hydraulic conditions, addressed by boundary name. A boundary without one is
-/// no-flow. Values are absolute (not changes): the core subtracts the initial state.
+/// When a condition applies: from < t <= until (s). Outside it the line is
+/// no-flow. Changing which conditions apply changes the system matrix, so windows
+/// should open and close at step ends (stage boundaries).
+struct TimeWindow {
+  double from = -std::numeric_limits<double>::infinity();
+  double until = std::numeric_limits<double>::infinity();
+  bool contains(double t) const { return t > from && t <= until; }
+  bool overlaps(const TimeWindow& o) const { return from < o.until && o.from < until; }
+};
+
+/// Hydraulic conditions, addressed by the name of a boundary or of an internal
+/// line (a well screen, the excavation level). A line without one is no-flow.
+/// Values are absolute (not changes): the core subtracts the initial state.
 struct HydraulicCondition {
   enum class Kind {
     head,          ///< hydraulic head h, m
     pore_pressure, ///< pore pressure p, kPa (compression positive)
-    normal_flux    ///< Darcy flux q.n leaving the body, m/s
+    normal_flux    ///< water leaving the soil, m/s: Darcy flux q.n on a boundary; on an
+                   ///< internal line, the volume per second per m of line (per m run)
   };
   std::string boundary;
   Kind kind = Kind::head;
   FieldFunction value;
+  TimeWindow window{};
 };
 
 /// Mechanical conditions, addressed by boundary name. A boundary without one is
@@ -51,9 +65,11 @@ struct BoundaryConditions {
   std::vector<BodyForceChange> body_forces;
 
   // Shorthands for building a set in code (tests, verification cases).
-  BoundaryConditions& head(const std::string& boundary, FieldFunction h);
+  BoundaryConditions& head(const std::string& boundary, FieldFunction h,
+                           TimeWindow window = {});
   BoundaryConditions& pore_pressure(const std::string& boundary, FieldFunction p);
-  BoundaryConditions& outflow(const std::string& boundary, FieldFunction q);
+  BoundaryConditions& outflow(const std::string& boundary, FieldFunction q,
+                              TimeWindow window = {});
   BoundaryConditions& fix(const std::string& boundary, bool x, bool y);
   BoundaryConditions& normal_traction(const std::string& boundary, FieldFunction t);
   BoundaryConditions& rigid_plate(const std::string& boundary, TimeFunction force);

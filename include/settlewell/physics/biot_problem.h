@@ -39,6 +39,13 @@ public:
   /// One implicit-Euler step from time() to t_new (s). Collective.
   StepReport advance_to(double t_new);
 
+  /// Water leaving the soil through a boundary or internal line during the last
+  /// step, m^3/s (per metre run in plane strain; for the full circle in
+  /// axisymmetric). Where a head is prescribed this is the consistent flux (the
+  /// residual of the storage equation at the prescribed dofs), not a derivative of
+  /// heads. Collective.
+  double outflow(const std::string& line) const;
+
   double time() const;
   MPI_Comm communicator() const;
   const Mesh& mesh() const;

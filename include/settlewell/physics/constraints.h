@@ -29,6 +29,9 @@ PlateLink link_plate(const dealii::DoFHandler<2>& dof_handler,
                      AnalysisType analysis,
                      const std::string& plate_name);
 
+/// Pressure dofs (with positions) of an internal line.
+using LineDofs = std::vector<std::pair<dealii::types::global_dof_index, dealii::Point<2>>>;
+
 struct ConstraintInputs {
   const dealii::DoFHandler<2>& dof_handler;
   const FieldLayout& layout;
@@ -37,13 +40,20 @@ struct ConstraintInputs {
   bool rigid_skeleton;
   const dealii::IndexSet& locally_owned;
   const dealii::IndexSet& locally_relevant;
+  /// One entry per conditions.pressures; filled for internal lines only.
+  const std::vector<LineDofs>& pressure_line_dofs;
 };
 
+/// Which prescribed-pressure conditions apply at time t.
+std::vector<bool> active_pressures(const ResolvedConditions& conditions, double t);
+
 /// All constraints at time t: hanging nodes, fixed displacements, the plate, and
-/// prescribed excess pore pressures with their values at t. The set of constrained
-/// dofs does not depend on t, only the values do.
+/// the prescribed excess pore pressures that apply at t, with their values at t.
+/// With `with_pressures` false, only the constraints that never change (for the
+/// sparsity pattern).
 void make_constraints(const ConstraintInputs& in,
                       double t,
-                      dealii::AffineConstraints<double>& constraints);
+                      dealii::AffineConstraints<double>& constraints,
+                      bool with_pressures = true);
 
 } // namespace settlewell

@@ -1,6 +1,6 @@
 #pragma once
 
-#include "settlewell/mesh/name_table.h"
+#include "settlewell/mesh/mesh.h"
 #include "settlewell/physics/biot_setup.h"
 
 #include <deal.II/base/tensor.h>
@@ -10,16 +10,25 @@
 
 namespace settlewell {
 
-/// A prescribed excess pore pressure on a boundary, already turned from the head
-/// or pore pressure the user gave into a change from the initial state, kPa.
+/// A named line: a boundary (with its id) or an internal line of the mesh.
+struct LineRef {
+  std::string name;
+  bool internal = false;
+  dealii::types::boundary_id id = 0; ///< for boundaries
+};
+
+/// A prescribed excess pore pressure on a line, already turned from the head or
+/// pore pressure the user gave into a change from the initial state, kPa.
 struct ExcessPressureBoundary {
-  dealii::types::boundary_id id;
+  LineRef line;
   FieldFunction excess_pressure;
+  TimeWindow window;
 };
 
 struct FluxBoundary {
-  dealii::types::boundary_id id;
-  FieldFunction outflow; ///< q.n, m/s
+  LineRef line;
+  FieldFunction outflow; ///< m/s (see HydraulicCondition::Kind::normal_flux)
+  TimeWindow window;
 };
 
 struct FixedBoundary {
@@ -51,8 +60,8 @@ struct ResolvedConditions {
   dealii::Tensor<1, 2> body_force(dealii::types::material_id region, double t) const;
 };
 
-/// Throws InputError for unknown names, two hydraulic conditions on one boundary,
-/// a plate that is also fixed, or more than one plate.
-ResolvedConditions resolve_conditions(const BiotSetup& setup, const NameTable& names);
+/// Throws InputError for unknown names, two hydraulic conditions on one line at
+/// the same time, a plate that is also fixed, or more than one plate.
+ResolvedConditions resolve_conditions(const BiotSetup& setup, const Mesh& mesh);
 
 } // namespace settlewell

@@ -1,0 +1,36 @@
+#pragma once
+
+#include <iosfwd>
+#include <string>
+#include <vector>
+
+namespace settlewell::scenario {
+
+/// One key of the scenario file, declared once: the parser only reads declared
+/// keys, unknown keys are errors, and `settlewell check --keys` prints this list.
+/// In paths, `<name>` stands for a name the user chooses and `[]` for an element
+/// of an array of tables.
+struct KeySpec {
+  const char* path;
+  const char* type;
+  const char* unit;
+  const char* default_value; ///< "required", "-" (optional, no default) or the default
+  const char* doc;
+};
+
+const std::vector<KeySpec>& all_keys();
+
+/// The declared children (keys or sub-tables) of a table path such as
+/// "section.wall" or "stages[].wells.<name>".
+std::vector<std::string> children_of(const std::string& table_path);
+
+/// Whether the table at this path holds user-named entries ("materials" does).
+bool holds_named_entries(const std::string& table_path);
+
+/// The declared key closest to `key` among `candidates` (edit distance), or "".
+std::string nearest(const std::string& key, const std::vector<std::string>& candidates);
+
+/// Prints the key reference, one block per table.
+void print_key_reference(std::ostream& out);
+
+} // namespace settlewell::scenario

@@ -1,0 +1,197 @@
+// Turning the current Gmsh model's mesh into a deal.II distributed triangulation,
+// with region, boundary and internal-line names from its physical groups.
+#include "section_plan.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/mesh/gmsh_mesh.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/grid/grid_tools.h>
+#include <deal.II/grid/tria_description.h>
+
+#include <gmsh.h>
+
+#include <filesystem>
+#include <map>
+#include <set>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+using Edge = std::pair<std::size_t, std::size_t>; // node indices, smaller first
+
+Edge edge_of(std::size_t a, std::size_t b) { return {std::min(a, b), std::max(a, b)}; }
+
+struct GmshMeshData {
+  std::vector<Point<2>> vertices;
+  std::vector<CellData<2>> cells;
+  std::vector<std::string> cell_region;
+  std::map<std::string, std::vector<Edge>> curve_groups;
+};
+
+/// Nodes of the current model, with a map from Gmsh node tags to indices.
+std::map<std::size_t, std::size_t> read_nodes(std::vector<Point<2>>& vertices,
+                                              const std::string& source) {
+  std::vector<std::size_t> tags;
+  std::vector<double> coords, parametric;
+  gmsh::model::mesh::getNodes(tags, coords, parametric);
+  std::map<std::size_t, std::size_t> index;
+  for (std::size_t n = 0; n < tags.size(); ++n) {
+    if (std::abs(coords[3 * n + 2]) > 1e-9 * (1 + std::abs(coords[3 * n])))
+      throw InputError(source + ": the mesh must lie in the plane z = 0");
+    index[tags[n]] = vertices.size();
+    vertices.emplace_back(coords[3 * n], coords[3 * n + 1]);
+  }
+  return index;
+}
+
+/// Elements of one type on the entities of a physical group, as node-tag lists.
+std::vector<std::vector<std::size_t>> group_elements(int dim, int group, const std::string& name,
+                                                     const std::string& source) {
+  std::vector<int> entities;
+  gmsh::model::getEntitiesForPhysicalGroup(dim, group, entities);
+  std::vector<std::vector<std::size_t>> elements;
+  for (const int entity : entities) {
+    std::vector<int> types;
+    std::vector<std::vector<std::size_t>> element_tags, node_tags;
+    gmsh::model::mesh::getElements(types, element_tags, node_tags, dim, entity);
+    for (std::size_t t = 0; t < types.size(); ++t) {
+      const int expected = dim == 2 ? 3 : 1; // 4-node quadrangle, 2-node line
+      if (types[t] != expected)
+        throw InputError(source + ": physical group '" + name + "' holds " +
+                         (dim == 2 ? "cells that are not 4-node quadrilaterals (recombine "
+                                     "the mesh and use first-order elements)"
+                                   : "curve elements that are not 2-node lines"));
+      const std::size_t per = dim == 2 ? 4 : 2;
+      for (std::size_t e = 0; e < element_tags[t].size(); ++e)
+        elements.emplace_back(node_tags[t].begin() + e * per,
+                              node_tags[t].begin() + (e + 1) * per);
+    }
+  }
+  return elements;
+}
+
+GmshMeshData read_current_model(const std::string& source) {
+  GmshMeshData data;
+  const auto index = read_nodes(data.vertices, source);
+  gmsh::vectorpair groups;
+  gmsh::model::getPhysicalGroups(groups);
+  std::set<std::size_t> seen_elements;
+  for (const auto& [dim, tag] : groups) {
+    std::string name;
+    gmsh::model::getPhysicalName(dim, tag, name);
+    if (name.empty())
+      throw InputError(source + ": physical group " + std::to_string(tag) + " of dimension " +
+                       std::to_string(dim) + " has no name; Settlewell addresses groups by name");
+    if (dim == 2) {
+      for (const auto& nodes : group_elements(2, tag, name, source)) {
+        CellData<2> cell;
+        // Gmsh numbers quadrilateral nodes counter-clockwise, deal.II lexicographically.
+        const std::size_t order[4] = {0, 1, 3, 2};
+        for (unsigned int v = 0; v < 4; ++v)
+          cell.vertices[v] = index.at(nodes[order[v]]);
+        data.cells.push_back(cell);
+        data.cell_region.push_back(name);
+      }
+    } else if (dim == 1) {
+      for (const auto& nodes : group_elements(1, tag, name, source))
+        data.curve_groups[name].push_back(edge_of(index.at(nodes[0]), index.at(nodes[1])));
+    }
+  }
+  if (data.cells.empty())
+    throw InputError(source + ": the mesh has no physical surface naming its regions");
+  return data;
+}
+
+/// Boundary edges (on one cell only) and the curve group of each, if any.
+std::map<Edge, std::string> boundary_edges(const GmshMeshData& data, const std::string& source,
+                                           std::map<std::string, std::vector<Segment>>& internal) {
+  std::map<Edge, int> count;
+  for (const auto& cell : data.cells)
+    for (const auto& [a, b] : {std::pair{0, 1}, {1, 3}, {3, 2}, {2, 0}})
+      ++count[edge_of(cell.vertices[a], cell.vertices[b])];
+  std::map<Edge, std::string> boundary;
+  for (const auto& [edge, n] : count)
+    if (n == 1)
+      boundary[edge] = "";
+  for (const auto& [name, edges] : data.curve_groups) {
+    std::size_t on_boundary = 0;
+    for (const auto& e : edges) {
+      const auto found = boundary.find(e);
+      if (found == boundary.end())
+        continue;
+      if (!found->second.empty() && found->second != name)
+        throw InputError(source + ": boundary groups '" + found->second + "' and '" + name +
+                         "' share an edge; each boundary edge may belong to one group");
+      found->second = name;
+      ++on_boundary;
+    }
+    if (on_boundary == 0)
+      for (const auto& e : edges)
+        internal[name].push_back({data.vertices[e.first], data.vertices[e.second]});
+    else if (on_boundary != edges.size())
+      throw InputError(source + ": physical curve '" + name +
+                       "' lies partly on the boundary and partly inside; split it in two");
+  }
+  return boundary;
+}
+
+Mesh mesh_from_current_model(const std::string& source, MPI_Comm comm) {
+  GmshMeshData data = read_current_model(source);
+  Mesh mesh(comm);
+  for (std::size_t c = 0; c < data.cells.size(); ++c)
+    data.cells[c].material_id = mesh.names.add_region(data.cell_region[c]);
+  SubCellData faces;
+  for (const auto& [edge, name] : boundary_edges(data, source, mesh.internal_lines)) {
+    CellData<1> line;
+    line.vertices[0] = edge.first;
+    line.vertices[1] = edge.second;
+    line.boundary_id = mesh.names.add_boundary(name.empty() ? "unnamed_boundary" : name);
+    faces.boundary_lines.push_back(line);
+  }
+  GridTools::delete_unused_vertices(data.vertices, data.cells, faces);
+  GridTools::invert_all_negative_measure_cells(data.vertices, data.cells);
+  GridTools::consistently_order_cells(data.cells);
+  mesh.triangulation->create_triangulation(data.vertices, data.cells, faces);
+  return mesh;
+}
+
+} // namespace
+
+Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
+  if (!std::filesystem::exists(path))
+    throw InputError(path + ": no such mesh file");
+  GmshSession session;
+  try {
+    gmsh::open(path);
+  } catch (const std::exception& e) {
+    throw InputError(path + ": Gmsh cannot read it (" + e.what() + ")");
+  }
+  return mesh_from_current_model(path, comm);
+}
+
+Mesh make_scenario_mesh(const scenario::Scenario& s, MPI_Comm comm, const std::string& msh_path) {
+  if (s.mesh_file)
+    return read_gmsh_file(s.mesh_file->path, comm);
+  GmshSession session;
+  if (s.section)
+    build_grid_model(section_plan(*s.section, s.analysis), "section");
+  else
+    build_grid_model(box_plan(*s.box), "box");
+  if (!msh_path.empty() && Utilities::MPI::this_mpi_process(comm) == 0) {
+    const auto folder = std::filesystem::path(msh_path).parent_path();
+    if (!folder.empty())
+      std::filesystem::create_directories(folder);
+    gmsh::write(msh_path);
+  }
+  return mesh_from_current_model(s.source_path, comm);
+}
+
+MeshSummary summarise(const Mesh& mesh) {
+  return {mesh.triangulation->n_global_active_cells(), mesh.triangulation->n_vertices()};
+}
+
+} // namespace settlewell

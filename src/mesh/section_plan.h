@@ -1,0 +1,17 @@
+#pragma once
+
+// Private to src/mesh: block plans of the scenario geometries.
+#include "gmsh_grid.h"
+
+#include "settlewell/scenario/scenario.h"
+
+namespace settlewell {
+
+/// The parametric excavation section: layers, the wall, the pit edge, well screens
+/// and the excavation level are block edges; physical groups as in section_names.
+GridPlan section_plan(const scenario::Section& section, AnalysisType analysis);
+
+/// The layered box: boundaries left, right, bottom, top; one block row per layer.
+GridPlan box_plan(const scenario::Box& box);
+
+} // namespace settlewell

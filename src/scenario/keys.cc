@@ -1,0 +1,179 @@
+#include "settlewell/scenario/keys.h"
+
+#include <algorithm>
+#include <iomanip>
+#include <ostream>
+#include <set>
+
+namespace settlewell::scenario {
+
+// clang-format off
+const std::vector<KeySpec>& all_keys() {
+  static const std::vector<KeySpec> keys{
+    {"title", "string", "", "\"\"", "A title for the run folder and reports"},
+    {"analysis", "string", "", "\"plane_strain\"", "plane_strain (a section, per metre run) or axisymmetric (a shaft or single well about x = 0)"},
+    {"unit_weight_water", "number", "kN/m3", "9.81", "Unit weight of water"},
+
+    {"materials.<name>.unit_weight", "number", "kN/m3", "required", "Saturated unit weight"},
+    {"materials.<name>.youngs_modulus", "number", "kPa", "-", "Drained Young's modulus E' (give this, constrained_modulus or mv)"},
+    {"materials.<name>.constrained_modulus", "number", "kPa", "-", "Drained oedometer modulus 1/mv"},
+    {"materials.<name>.mv", "number", "1/kPa", "-", "Coefficient of volume compressibility"},
+    {"materials.<name>.poisson_ratio", "number", "", "required", "Drained Poisson's ratio, in (-1, 0.5)"},
+    {"materials.<name>.conductivity", "number", "m/s", "-", "Hydraulic conductivity, isotropic (or give conductivity_x and conductivity_y)"},
+    {"materials.<name>.conductivity_x", "number", "m/s", "-", "Horizontal (radial) hydraulic conductivity"},
+    {"materials.<name>.conductivity_y", "number", "m/s", "-", "Vertical hydraulic conductivity"},
+    {"materials.<name>.biot_alpha", "number", "", "1", "Biot coefficient, in (0, 1]"},
+    {"materials.<name>.storage", "number", "1/kPa", "0", "Storage coefficient S = 1/M (or give porosity and the bulk moduli)"},
+    {"materials.<name>.porosity", "number", "", "-", "Porosity n, to compute S = (alpha - n)/Ks + n/Kw"},
+    {"materials.<name>.water_bulk_modulus", "number", "kPa", "2.2e6", "Kw, used with porosity"},
+    {"materials.<name>.grain_bulk_modulus", "number", "kPa", "infinite", "Ks, used with porosity"},
+    {"materials.<name>.earth_pressure_at_rest", "number", "", "0.5", "K0 for the initial horizontal effective stress"},
+
+    {"section.ground_surface", "number", "m", "required", "Elevation of the ground surface"},
+    {"section.bottom", "number", "m", "required", "Elevation of the model base"},
+    {"section.half_model", "boolean", "", "true", "Model only x >= 0, with a symmetry line at x = 0 (plane strain)"},
+    {"section.excavation_width", "number", "m", "required", "Width between the inner wall faces (axisymmetric: shaft diameter)"},
+    {"section.excavation_depth", "number", "m", "required", "Final excavation level below the ground surface"},
+    {"section.far_distance", "number", "m", "required", "Distance from the outer wall face to the far boundary"},
+    {"section.layers[].top", "number", "m", "required", "Elevation of the layer's top (the first is the ground surface)"},
+    {"section.layers[].material", "string", "", "required", "Material of the layer"},
+    {"section.layers[].name", "string", "", "the material", "Region name of the layer"},
+    {"section.wall.thickness", "number", "m", "required", "Cutoff wall thickness"},
+    {"section.wall.toe", "number", "m", "required", "Elevation of the wall toe"},
+    {"section.wall.material", "string", "", "required", "Material of the wall"},
+    {"section.wall.sides", "string", "", "\"both\"", "left, right or both (a half model has its wall on the right)"},
+    {"section.wells[].name", "string", "", "required", "Well name, used by stages and outputs"},
+    {"section.wells[].x", "number", "m", "required", "Position (plane strain: a row of wells seen in section; axisymmetric: 0 = the axis)"},
+    {"section.wells[].radius", "number", "m", "0.15", "Well radius (axisymmetric only: the model starts there)"},
+    {"section.wells[].screen_top", "number", "m", "required", "Elevation of the screen top"},
+    {"section.wells[].screen_bottom", "number", "m", "required", "Elevation of the screen bottom"},
+    {"section.mesh.size_near_wall", "number", "m", "0.5", "Cell size at the wall faces and the pit edge"},
+    {"section.mesh.size_near_well", "number", "m", "0.5", "Cell size at well screens"},
+    {"section.mesh.size_far", "number", "m", "10", "Largest cell size"},
+    {"section.mesh.growth", "number", "", "1.25", "Ratio of neighbouring cell sizes away from a wall or well"},
+
+    {"box.width", "number", "m", "1", "Width of the box"},
+    {"box.bottom", "number", "m", "required", "Elevation of the box base"},
+    {"box.layers[].top", "number", "m", "required", "Elevation of the layer's top (the first is the box's top)"},
+    {"box.layers[].material", "string", "", "required", "Material of the layer"},
+    {"box.layers[].name", "string", "", "the material", "Region name of the layer"},
+    {"box.cells_x", "integer", "", "1", "Cells across the width"},
+    {"box.cell_height", "number", "m", "0.5", "Cell height"},
+
+    {"mesh_file.path", "string", "", "required", "A Gmsh .msh file (relative to the scenario) with named physical groups"},
+    {"mesh_file.regions.<name>", "string", "", "the region's name", "Material of a region (physical surface) of the mesh"},
+
+    {"groundwater.water_table", "number", "m", "required", "Initial water-table elevation (hydrostatic below, saturated above)"},
+    {"groundwater.layer_heads.<name>", "number", "m", "-", "Initial piezometric head in a layer (artesian aquifers); layers between given ones take a linear head"},
+
+    {"boundaries.<name>.hydraulic", "string", "", "depends on the boundary", "no_flow or fixed_head"},
+    {"boundaries.<name>.head", "number", "m", "the initial head", "Head held on a fixed_head boundary"},
+    {"boundaries.<name>.mechanical", "string", "", "depends on the boundary", "free, fixed (both directions) or roller (normal direction fixed)"},
+
+    {"stages[].name", "string", "", "required", "Stage name"},
+    {"stages[].duration", "number", "days", "required", "Stage duration (stages follow each other)"},
+    {"stages[].ramp", "number", "days", "0", "Changes of this stage ramp linearly over this time from the stage start"},
+    {"stages[].wells.<name>.head", "number", "m", "-", "Target head in the well (give head or discharge)"},
+    {"stages[].wells.<name>.discharge", "number", "m3/day", "-", "Target pumped discharge (per metre run in plane strain, per well in axisymmetric); 0 stops the well"},
+    {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a fixed_head boundary"},
+    {"stages[].excavation_level_head", "number", "m", "-", "Target head held along the final excavation level inside the pit"},
+    {"stages[].loads[].boundary", "string", "", "\"ground_surface\"", "Boundary that carries the load"},
+    {"stages[].loads[].pressure", "number", "kPa", "required", "Vertical surcharge (compressive positive)"},
+    {"stages[].loads[].x_from", "number", "m", "required", "Start of the loaded strip"},
+    {"stages[].loads[].x_to", "number", "m", "required", "End of the loaded strip"},
+    {"stages[].time_steps.first", "number", "days", "duration/1000", "First step of the stage (the undrained response)"},
+    {"stages[].time_steps.growth", "number", "", "1.25", "Ratio of successive steps"},
+    {"stages[].time_steps.largest", "number", "days", "duration/10", "Largest step"},
+
+    {"output.times", "array of numbers", "days", "[]", "Extra output times"},
+    {"output.per_stage", "integer", "", "4", "Output times inside each stage, log-spaced (stage ends are always written)"},
+    {"output.points[].name", "string", "", "required", "Monitoring point name"},
+    {"output.points[].x", "number", "m", "required", "x of the point"},
+    {"output.points[].y", "number", "m", "required", "Elevation of the point"},
+    {"output.lines[].name", "string", "", "required", "Section line name"},
+    {"output.lines[].points", "array of [x, y]", "m", "required", "Polyline vertices"},
+    {"output.lines[].samples", "integer", "", "101", "Sample points along the line"},
+    {"output.columns[].name", "string", "", "required", "Column name"},
+    {"output.columns[].x", "number", "m", "required", "x of a vertical column for the 1D comparison"},
+  };
+  return keys;
+}
+// clang-format on
+
+namespace {
+
+bool starts_with(const std::string& s, const std::string& prefix) {
+  return s.size() > prefix.size() && s.compare(0, prefix.size(), prefix) == 0 &&
+         s[prefix.size()] == '.';
+}
+
+std::string next_segment(const std::string& path, const std::string& table) {
+  const std::string rest = table.empty() ? path : path.substr(table.size() + 1);
+  return rest.substr(0, rest.find('.'));
+}
+
+} // namespace
+
+std::vector<std::string> children_of(const std::string& table_path) {
+  std::set<std::string> children;
+  for (const auto& key : all_keys()) {
+    const std::string path = key.path;
+    if (table_path.empty() || starts_with(path, table_path))
+      children.insert(next_segment(path, table_path));
+  }
+  return {children.begin(), children.end()};
+}
+
+bool holds_named_entries(const std::string& table_path) {
+  const auto children = children_of(table_path);
+  return children.size() == 1 && children.front() == "<name>";
+}
+
+std::string nearest(const std::string& key, const std::vector<std::string>& candidates) {
+  auto distance = [](const std::string& a, const std::string& b) {
+    std::vector<std::size_t> row(b.size() + 1);
+    for (std::size_t j = 0; j <= b.size(); ++j)
+      row[j] = j;
+    for (std::size_t i = 1; i <= a.size(); ++i) {
+      std::size_t diagonal = row[0];
+      row[0] = i;
+      for (std::size_t j = 1; j <= b.size(); ++j) {
+        const std::size_t up = row[j];
+        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] != b[j - 1])});
+        diagonal = up;
+      }
+    }
+    return row[b.size()];
+  };
+  std::string best;
+  std::size_t best_distance = std::max<std::size_t>(3, key.size() / 2) + 1;
+  for (const auto& c : candidates) {
+    if (c == "<name>")
+      continue;
+    const std::size_t d = distance(key, c);
+    if (d < best_distance)
+      best = c, best_distance = d;
+  }
+  return best;
+}
+
+void print_key_reference(std::ostream& out) {
+  out << "Scenario keys (TOML). Times in days, lengths and elevations in m, stresses in\n"
+         "kPa, conductivities in m/s. <name> is a name you choose; [] an array element.\n";
+  std::string table;
+  for (const auto& key : all_keys()) {
+    const std::string path = key.path;
+    const std::string this_table = path.substr(0, path.rfind('.') == std::string::npos
+                                                      ? 0
+                                                      : path.rfind('.'));
+    if (this_table != table) {
+      table = this_table;
+      out << '\n' << (table.empty() ? "(top level)" : "[" + table + "]") << '\n';
+    }
+    out << "  " << std::left << std::setw(24) << path.substr(table.empty() ? 0 : table.size() + 1)
+        << std::setw(18) << key.type << std::setw(8) << key.unit << key.doc
+        << " (default: " << key.default_value << ")\n";
+  }
+}
+
+} // namespace settlewell::scenario

@@ -1,0 +1,186 @@
+#include "settlewell/scenario/parse.h"
+
+#include "parse_parts.h"
+#include "settlewell/core/errors.h"
+#include "settlewell/scenario/keys.h"
+
+#include <fstream>
+#include <sstream>
+
+namespace settlewell::scenario {
+
+double Scenario::end_time() const {
+  double t = 0.0;
+  for (const auto& stage : stages)
+    t += stage.duration;
+  return t;
+}
+
+std::string Scenario::location_of(const std::string& key_path) const {
+  const auto found = locations.find(key_path);
+  return found != locations.end() ? found->second : source_path;
+}
+
+namespace {
+
+Material read_material(const std::string& name, const TableReader& r) {
+  Material m;
+  m.name = name;
+  m.unit_weight = r.positive("unit_weight");
+  auto& p = m.poroelastic;
+  p.poisson_ratio = r.number("poisson_ratio");
+  if (!(p.poisson_ratio > -1.0 && p.poisson_ratio < 0.5))
+    r.fail("poisson_ratio", "must lie in (-1, 0.5)");
+  const int n_stiffness =
+      r.has("youngs_modulus") + r.has("constrained_modulus") + r.has("mv");
+  if (n_stiffness != 1)
+    r.fail_here("give exactly one of youngs_modulus, constrained_modulus and mv");
+  if (r.has("youngs_modulus"))
+    p.youngs_modulus = r.positive("youngs_modulus");
+  else if (r.has("constrained_modulus"))
+    p.youngs_modulus =
+        PoroelasticMaterial::youngs_from_mv(1.0 / r.positive("constrained_modulus"),
+                                            p.poisson_ratio);
+  else
+    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(r.positive("mv"), p.poisson_ratio);
+
+  if (r.has("conductivity") == (r.has("conductivity_x") || r.has("conductivity_y")))
+    r.fail_here("give conductivity, or both conductivity_x and conductivity_y");
+  if (r.has("conductivity")) {
+    p.conductivity_x = p.conductivity_y = r.positive("conductivity");
+  } else {
+    p.conductivity_x = r.positive("conductivity_x");
+    p.conductivity_y = r.positive("conductivity_y");
+  }
+  p.biot_alpha = r.number_or("biot_alpha", 1.0);
+  if (!(p.biot_alpha > 0.0 && p.biot_alpha <= 1.0))
+    r.fail("biot_alpha", "must lie in (0, 1]");
+  if (r.has("storage") && r.has("porosity"))
+    r.fail_here("give storage or porosity (with the bulk moduli), not both");
+  if (r.has("porosity")) {
+    const double n = r.number("porosity");
+    if (!(n > 0.0 && n < 1.0))
+      r.fail("porosity", "must lie in (0, 1)");
+    const double Kw = r.number_or("water_bulk_modulus", 2.2e6);
+    if (!(Kw > 0.0))
+      r.fail("water_bulk_modulus", "must be positive");
+    const double inverse_Ks = r.has("grain_bulk_modulus") ? 1.0 / r.positive("grain_bulk_modulus") : 0.0;
+    p.storage = (p.biot_alpha - n) * inverse_Ks + n / Kw; // (alpha - n)/Ks + n/Kw
+    if (p.storage < 0.0)
+      r.fail("porosity", "gives a negative storage (alpha < n with finite Ks)");
+  } else {
+    p.storage = r.number_or("storage", 0.0);
+    if (p.storage < 0.0)
+      r.fail("storage", "must not be negative");
+  }
+  m.k0 = r.number_or("earth_pressure_at_rest", 0.5);
+  if (!(m.k0 > 0.0))
+    r.fail("earth_pressure_at_rest", "must be positive");
+  return m;
+}
+
+} // namespace
+
+void parse_materials(const TableReader& top, Scenario& s) {
+  if (!top.has("materials"))
+    top.fail_here("missing the required table [materials]");
+  for_each_named(top, "materials", [&](const std::string& name, const TableReader& r) {
+    s.materials[name] = read_material(name, r);
+    s.locations["materials." + name] = r.where("unit_weight");
+  });
+  if (s.materials.empty())
+    top.fail("materials", "needs at least one material");
+}
+
+void parse_groundwater(const TableReader& top, Scenario& s) {
+  const toml::table* t = top.table("groundwater");
+  if (t == nullptr)
+    top.fail_here("missing the required table [groundwater]");
+  const TableReader r(*t, "groundwater", "groundwater", top.file());
+  s.groundwater.water_table = r.number("water_table");
+  const toml::table* heads = r.table("layer_heads");
+  if (heads == nullptr)
+    return;
+  const auto regions = region_names(s);
+  const TableReader h(*heads, "groundwater.layer_heads", "groundwater.layer_heads", top.file());
+  for (const auto& [key, node] : *heads) {
+    const std::string name(key.str());
+    if (std::find(regions.begin(), regions.end(), name) == regions.end()) {
+      const std::string suggestion = nearest(name, regions);
+      h.fail(name, "is not a layer" +
+                       (suggestion.empty() ? std::string() : "; did you mean '" + suggestion + "'?"));
+    }
+    s.groundwater.layer_heads[name] = h.number(name);
+  }
+}
+
+void parse_boundaries(const TableReader& top, Scenario& s) {
+  for_each_named(top, "boundaries", [&](const std::string& name, const TableReader& r) {
+    BoundarySpec b;
+    const std::string hydraulic = r.text_or("hydraulic", "");
+    if (hydraulic == "no_flow")
+      b.hydraulic = BoundarySpec::Hydraulic::no_flow;
+    else if (hydraulic == "fixed_head")
+      b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
+    else if (!hydraulic.empty())
+      r.fail("hydraulic", "must be no_flow or fixed_head (got '" + hydraulic + "')");
+    if (r.has("head")) {
+      if (b.hydraulic == BoundarySpec::Hydraulic::no_flow)
+        r.fail("head", "a no_flow boundary takes no head");
+      b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
+      b.head = r.number("head");
+    }
+    const std::string mechanical = r.text_or("mechanical", "");
+    if (mechanical == "free")
+      b.mechanical = BoundarySpec::Mechanical::free;
+    else if (mechanical == "fixed")
+      b.mechanical = BoundarySpec::Mechanical::fixed;
+    else if (mechanical == "roller")
+      b.mechanical = BoundarySpec::Mechanical::roller;
+    else if (!mechanical.empty())
+      r.fail("mechanical", "must be free, fixed or roller (got '" + mechanical + "')");
+    s.boundaries[name] = b;
+    s.locations["boundaries." + name] = r.where(r.has("hydraulic") ? "hydraulic" : "mechanical");
+  });
+}
+
+Scenario parse_scenario(const std::string& text, const std::string& name) {
+  toml::table root;
+  try {
+    root = toml::parse(text, name);
+  } catch (const toml::parse_error& e) {
+    const auto& begin = e.source().begin;
+    throw InputError(name + ":" + std::to_string(begin.line) + ":" +
+                     std::to_string(begin.column) + ": " + std::string(e.description()));
+  }
+  Scenario s;
+  s.source_path = name;
+  const TableReader top(root, "", "", name);
+  s.title = top.text_or("title", "");
+  const std::string analysis = top.text_or("analysis", "plane_strain");
+  if (analysis == "axisymmetric")
+    s.analysis = AnalysisType::axisymmetric;
+  else if (analysis != "plane_strain")
+    top.fail("analysis", "must be plane_strain or axisymmetric (got '" + analysis + "')");
+  s.gamma_w = top.number_or("unit_weight_water", units::default_gamma_w);
+  if (!(s.gamma_w > 0.0))
+    top.fail("unit_weight_water", "must be positive");
+  parse_materials(top, s);
+  parse_geometry(top, s);
+  parse_groundwater(top, s);
+  parse_boundaries(top, s);
+  parse_stages(top, s);
+  parse_output(top, s);
+  return s;
+}
+
+Scenario read_scenario(const std::string& path) {
+  std::ifstream in(path);
+  if (!in)
+    throw InputError(path + ": cannot open the scenario file");
+  std::ostringstream text;
+  text << in.rdbuf();
+  return parse_scenario(text.str(), path);
+}
+
+} // namespace settlewell::scenario

@@ -1,0 +1,196 @@
+// Stages (what changes when) and outputs (what is written when and where).
+#include "parse_parts.h"
+
+#include "settlewell/core/units.h"
+
+#include <set>
+
+namespace settlewell::scenario {
+
+namespace {
+
+std::string fmt(double v) {
+  std::ostringstream os;
+  os << v;
+  return os.str();
+}
+
+double days(const TableReader& r, const std::string& key) {
+  return units::days(r.number(key));
+}
+
+bool well_exists(const Scenario& s, const std::string& name) {
+  if (!s.section)
+    return s.mesh_file.has_value(); // a mesh file's lines are checked against the mesh
+  for (const auto& w : s.section->wells)
+    if (w.name == name)
+      return true;
+  return false;
+}
+
+Target read_target(const TableReader& r, const std::string& what) {
+  if (r.has("head") == r.has("discharge"))
+    r.fail_here("give either head or discharge for " + what);
+  if (r.has("head"))
+    return {Target::Kind::head, r.number("head")};
+  const double q = r.number("discharge");
+  if (q < 0.0)
+    r.fail("discharge", "must not be negative (it is the pumped rate)");
+  return {Target::Kind::discharge, q / units::seconds_per_day};
+}
+
+TimeSteps read_time_steps(const TableReader& stage, double duration) {
+  TimeSteps steps;
+  const toml::table* t = stage.table("time_steps");
+  if (t == nullptr)
+    return steps;
+  const TableReader r(*t, "stages[].time_steps", stage.label() + ".time_steps", stage.file());
+  if (r.has("first")) {
+    steps.first = units::days(r.positive("first"));
+    if (steps.first > duration)
+      r.fail("first", "is longer than the stage");
+  }
+  steps.growth = r.number_or("growth", steps.growth);
+  if (!(steps.growth >= 1.0 && steps.growth <= 10.0))
+    r.fail("growth", "must lie in [1, 10]");
+  if (r.has("largest"))
+    steps.largest = units::days(r.positive("largest"));
+  if (steps.largest > 0.0 && steps.first > steps.largest)
+    r.fail("largest", "is smaller than the first step");
+  return steps;
+}
+
+void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
+  for_each_named(r, "wells", [&](const std::string& name, const TableReader& w) {
+    if (!well_exists(s, name))
+      throw InputError(w.where("head") + ": " + w.label() + ": no well named '" + name + "'");
+    stage.wells[name] = read_target(w, "well '" + name + "'");
+  });
+  for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
+    stage.boundary_heads[name] = b.number("head");
+  });
+  if (r.has("excavation_level_head")) {
+    if (!s.section)
+      r.fail("excavation_level_head", "needs a [section] geometry");
+    stage.excavation_level_head = r.number("excavation_level_head");
+  }
+  for_each_table(r, "loads", [&](const TableReader& l) {
+    SurfaceLoad load;
+    load.boundary = l.text_or("boundary", "ground_surface");
+    load.pressure = l.number("pressure");
+    load.x_from = l.number("x_from");
+    load.x_to = l.number("x_to");
+    if (!(load.x_to > load.x_from))
+      l.fail("x_to", "must be greater than x_from");
+    stage.loads.push_back(load);
+  });
+}
+
+} // namespace
+
+void parse_stages(const TableReader& top, Scenario& s) {
+  if (!top.has("stages"))
+    top.fail_here("missing the required array [[stages]]");
+  std::set<std::string> names;
+  for_each_table(top, "stages", [&](const TableReader& r) {
+    Stage stage;
+    stage.name = r.text("name");
+    if (!names.insert(stage.name).second)
+      r.fail("name", "two stages are named '" + stage.name + "'");
+    stage.duration = days(r, "duration");
+    if (!(stage.duration > 0.0))
+      r.fail("duration", "must be positive");
+    stage.ramp = units::days(r.number_or("ramp", 0.0));
+    if (stage.ramp < 0.0)
+      r.fail("ramp", "must not be negative");
+    if (stage.ramp > stage.duration * (1 + 1e-12))
+      r.fail("ramp", "is longer than its stage (" + fmt(units::to_days(stage.duration)) +
+                         " days)");
+    read_stage_changes(r, s, stage);
+    stage.steps = read_time_steps(r, stage.duration);
+    s.locations["stages." + stage.name] = r.where("name");
+    s.stages.push_back(stage);
+  });
+  if (s.stages.empty())
+    top.fail("stages", "needs at least one stage");
+}
+
+namespace {
+
+void check_inside(const TableReader& r, const Scenario& s, double x, double y,
+                  const std::string& key) {
+  double x0, x1, y0, y1;
+  if (!model_extent(s, x0, x1, y0, y1))
+    return; // a mesh file: checked when the mesh is loaded
+  const double tol = 1e-9 * std::max(1.0, x1 - x0);
+  if (x < x0 - tol || x > x1 + tol || y < y0 - tol || y > y1 + tol)
+    r.fail(key, "the point (" + fmt(x) + ", " + fmt(y) + ") lies outside the model (x " +
+                    fmt(x0) + " to " + fmt(x1) + ", y " + fmt(y0) + " to " + fmt(y1) + ")");
+}
+
+std::pair<double, double> read_xy(const TableReader& r, const toml::node& node) {
+  const toml::array* a = node.as_array();
+  if (a == nullptr || a->size() != 2 || !(*a)[0].is_number() || !(*a)[1].is_number())
+    throw InputError(position(r.file(), node) + ": " + r.label() +
+                     ".points: each point must be [x, y]");
+  return {(*a)[0].value<double>().value(), (*a)[1].value<double>().value()};
+}
+
+void read_output_sites(const TableReader& r, const Scenario& s, Output& out) {
+  for_each_table(r, "points", [&](const TableReader& p) {
+    MonitoringPoint point{p.text("name"), p.number("x"), p.number("y")};
+    check_inside(p, s, point.x, point.y, "x");
+    out.points.push_back(point);
+  });
+  for_each_table(r, "lines", [&](const TableReader& l) {
+    SectionLine line;
+    line.name = l.text("name");
+    const toml::array* pts = l.array("points");
+    if (pts == nullptr || pts->size() < 2)
+      l.fail("points", "needs at least two points [x, y]");
+    for (const auto& node : *pts) {
+      line.points.push_back(read_xy(l, node));
+      check_inside(l, s, line.points.back().first, line.points.back().second, "points");
+    }
+    const long long n = l.optional_integer("samples").value_or(101);
+    if (n < 2 || n > 100000)
+      l.fail("samples", "must lie in 2..100000");
+    line.samples = static_cast<unsigned int>(n);
+    out.lines.push_back(line);
+  });
+  for_each_table(r, "columns", [&](const TableReader& c) {
+    Column column{c.text("name"), c.number("x")};
+    double x0, x1, y0, y1;
+    if (model_extent(s, x0, x1, y0, y1))
+      check_inside(c, s, column.x, y0, "x");
+    out.columns.push_back(column);
+  });
+}
+
+} // namespace
+
+void parse_output(const TableReader& top, Scenario& s) {
+  const toml::table* t = top.table("output");
+  if (t == nullptr)
+    return;
+  const TableReader r(*t, "output", "output", top.file());
+  if (const toml::array* times = r.array("times")) {
+    for (const auto& node : *times) {
+      if (!node.is_number())
+        throw InputError(position(r.file(), node) + ": output.times: must be numbers (days)");
+      const double t_s = units::days(node.value<double>().value());
+      if (!(t_s > 0.0) || t_s > s.end_time() * (1 + 1e-12))
+        throw InputError(position(r.file(), node) +
+                         ": output.times: each time must lie after 0 and not after the last "
+                         "stage ends (" + fmt(units::to_days(s.end_time())) + " days)");
+      s.output.times.push_back(t_s);
+    }
+  }
+  const long long per_stage = r.optional_integer("per_stage").value_or(4);
+  if (per_stage < 0 || per_stage > 1000)
+    r.fail("per_stage", "must lie in 0..1000");
+  s.output.per_stage = static_cast<unsigned int>(per_stage);
+  read_output_sites(r, s, s.output);
+}
+
+} // namespace settlewell::scenario

@@ -1,0 +1,135 @@
+#include "reader.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/scenario/keys.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace settlewell::scenario {
+
+std::string position(const std::string& file, const toml::node& node) {
+  const auto& begin = node.source().begin;
+  return file + ":" + std::to_string(begin.line) + ":" + std::to_string(begin.column);
+}
+
+TableReader::TableReader(const toml::table& table, std::string path, std::string label,
+                         const std::string& file)
+    : table_(table), path_(std::move(path)), label_(std::move(label)), file_(file) {
+  reject_unknown_keys();
+}
+
+const toml::node& TableReader::node_of(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  return node != nullptr ? *node : static_cast<const toml::node&>(table_);
+}
+
+std::string TableReader::where(const std::string& key) const {
+  return position(file_, node_of(key));
+}
+
+void TableReader::fail(const std::string& key, const std::string& message) const {
+  const std::string name = label_.empty() ? key : label_ + "." + key;
+  throw InputError(where(key) + ": " + name + ": " + message);
+}
+
+void TableReader::fail_here(const std::string& message) const {
+  throw InputError(position(file_, table_) + ": " +
+                   (label_.empty() ? std::string() : label_ + ": ") + message);
+}
+
+void TableReader::reject_unknown_keys() const {
+  if (holds_named_entries(path_))
+    return;
+  const auto declared = children_of(path_);
+  for (const auto& [key, node] : table_) {
+    const std::string k(key.str());
+    if (std::find(declared.begin(), declared.end(), k) != declared.end())
+      continue;
+    const std::string suggestion = nearest(k, declared);
+    const std::string where_label = label_.empty() ? "at the top level" : "in [" + label_ + "]";
+    throw InputError(position(file_, node) + ": unknown key '" + k + "' " + where_label +
+                     (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
+  }
+}
+
+std::optional<double> TableReader::optional_number(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    return std::nullopt;
+  if (!node->is_number())
+    fail(key, "must be a number");
+  const double value = node->value<double>().value();
+  if (!std::isfinite(value))
+    fail(key, "must be a finite number");
+  return value;
+}
+
+double TableReader::number(const std::string& key) const {
+  const auto value = optional_number(key);
+  if (!value)
+    fail_here("missing the required key '" + key + "'");
+  return *value;
+}
+
+double TableReader::number_or(const std::string& key, double fallback) const {
+  return optional_number(key).value_or(fallback);
+}
+
+double TableReader::positive(const std::string& key) const {
+  const double value = number(key);
+  if (!(value > 0.0))
+    fail(key, "must be positive (got " + std::to_string(value) + ")");
+  return value;
+}
+
+std::string TableReader::text(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    fail_here("missing the required key '" + key + "'");
+  if (!node->is_string())
+    fail(key, "must be a string");
+  return std::string(*node->value<std::string_view>());
+}
+
+std::string TableReader::text_or(const std::string& key, const std::string& fallback) const {
+  return table_.contains(key) ? text(key) : fallback;
+}
+
+bool TableReader::boolean_or(const std::string& key, bool fallback) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    return fallback;
+  if (!node->is_boolean())
+    fail(key, "must be true or false");
+  return *node->value<bool>();
+}
+
+std::optional<long long> TableReader::optional_integer(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    return std::nullopt;
+  if (!node->is_integer())
+    fail(key, "must be a whole number");
+  return *node->value<long long>();
+}
+
+const toml::table* TableReader::table(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    return nullptr;
+  if (!node->is_table())
+    fail(key, "must be a table");
+  return node->as_table();
+}
+
+const toml::array* TableReader::array(const std::string& key) const {
+  const toml::node* node = table_.get(key);
+  if (node == nullptr)
+    return nullptr;
+  if (!node->is_array())
+    fail(key, "must be an array");
+  return node->as_array();
+}
+
+} // namespace settlewell::scenario
