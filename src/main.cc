@@ -2,6 +2,9 @@
 // into one line and an exit status. All the work is in the library.
 #include "settlewell/core/errors.h"
 #include "settlewell/core/version.h"
+#include "settlewell/scenario/keys.h"
+#include "settlewell/scenario/parse.h"
+#include "settlewell/simulation/simulation.h"
 #include "settlewell/verification/cases.h"
 
 #include <CLI/CLI.hpp>
@@ -10,7 +13,9 @@
 #include <petscversion.h>
 
 #include <chrono>
+#include <filesystem>
 #include <iostream>
+#include <unistd.h>
 
 namespace {
 
@@ -74,6 +79,56 @@ int run_verify(const VerifyOptions& options) {
   return v::all_passed(rows) ? exit_ok : exit_checks_failed;
 }
 
+struct ScenarioOptions {
+  std::string scenario;
+  std::string output;
+  bool overwrite = false;
+  bool quiet = false;
+  bool keys = false;
+};
+
+std::string default_folder(const std::string& scenario, const std::string& suffix) {
+  return std::filesystem::path(scenario).stem().string() + suffix;
+}
+
+int run_run(const ScenarioOptions& o) {
+  settlewell::Simulation simulation(settlewell::scenario::read_scenario(o.scenario),
+                                    MPI_COMM_WORLD);
+  settlewell::RunOptions options;
+  options.run_directory = o.output.empty() ? default_folder(o.scenario, "-run") : o.output;
+  options.overwrite = o.overwrite;
+  options.show_progress = !o.quiet;
+  options.progress_in_place = isatty(STDERR_FILENO) != 0;
+  const auto summary = simulation.run(options);
+  if (is_root())
+    settlewell::print_summary(std::cout, summary,
+                              settlewell::scenario::read_scenario(o.scenario));
+  return exit_ok;
+}
+
+int run_check(const ScenarioOptions& o) {
+  if (o.keys) {
+    if (is_root())
+      settlewell::scenario::print_key_reference(std::cout);
+    return exit_ok;
+  }
+  if (o.scenario.empty())
+    throw settlewell::InputError("check needs a scenario file (or --keys)");
+  settlewell::check_scenario(settlewell::scenario::read_scenario(o.scenario), MPI_COMM_WORLD,
+                             std::cout);
+  return exit_ok;
+}
+
+int run_mesh(const ScenarioOptions& o) {
+  const auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  const std::string folder = o.output.empty() ? default_folder(o.scenario, "-mesh") : o.output;
+  settlewell::write_scenario_mesh(scenario, folder, MPI_COMM_WORLD);
+  if (is_root())
+    std::cout << "Wrote " << folder << "/mesh.msh, " << folder << "/mesh_cells.vtu (region "
+              << "ids; names in the field data) and " << folder << "/mesh_lines.vtu\n";
+  return exit_ok;
+}
+
 int dispatch(int argc, char** argv) {
   CLI::App app{
       "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
@@ -88,6 +143,32 @@ int dispatch(int argc, char** argv) {
   verify_cmd->add_option("--vtk", verify.vtk_directory,
                          "Also write each case's fields (VTU + PVD) into this folder");
   verify_cmd->add_flag("--list", verify.list, "List the cases and exit");
+
+  ScenarioOptions run, check, mesh;
+  auto* run_cmd = app.add_subcommand(
+      "run", "Run a scenario through all its stages and write a run folder (fields, "
+             "time histories, profiles, manifest).");
+  run_cmd->add_option("scenario", run.scenario, "Scenario file (TOML)")
+      ->required()
+      ->check(CLI::ExistingFile);
+  run_cmd->add_option("-o,--output", run.output,
+                      "Run folder (default: <scenario name>-run in the current folder)");
+  run_cmd->add_flag("--overwrite", run.overwrite, "Replace the results in an existing run folder");
+  run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
+
+  auto* check_cmd = app.add_subcommand(
+      "check", "Validate a scenario and print what it describes; writes nothing.");
+  check_cmd->add_option("scenario", check.scenario, "Scenario file (TOML)")
+      ->check(CLI::ExistingFile);
+  check_cmd->add_flag("--keys", check.keys, "Print every scenario key with its unit and default");
+
+  auto* mesh_cmd = app.add_subcommand(
+      "mesh", "Write the scenario's mesh (.msh) and VTU files of its regions and lines.");
+  mesh_cmd->add_option("scenario", mesh.scenario, "Scenario file (TOML)")
+      ->required()
+      ->check(CLI::ExistingFile);
+  mesh_cmd->add_option("-o,--output", mesh.output,
+                       "Folder for the files (default: <scenario name>-mesh)");
 
   try {
     app.parse(argc, argv);
@@ -110,8 +191,15 @@ int dispatch(int argc, char** argv) {
   }
   if (verify_cmd->parsed())
     return run_verify(verify);
+  if (run_cmd->parsed())
+    return run_run(run);
+  if (check_cmd->parsed())
+    return run_check(check);
+  if (mesh_cmd->parsed())
+    return run_mesh(mesh);
   if (is_root())
-    std::cerr << "settlewell: a command is required (verify); see settlewell --help\n";
+    std::cerr << "settlewell: a command is required (run, check, mesh, verify); see "
+                 "settlewell --help\n";
   return exit_usage;
 }
 

@@ -1,5 +1,9 @@
 #include "settlewell/mesh/mesh.h"
 
+#include "settlewell/core/errors.h"
+
+#include <deal.II/base/mpi.h>
+
 #include <algorithm>
 #include <cmath>
 
@@ -13,6 +17,31 @@ bool Segment::contains(const dealii::Point<2>& p, double tolerance) const {
     return false;
   const dealii::Point<2> nearest = a + std::clamp(s, 0.0, 1.0) * ab;
   return nearest.distance(p) <= tolerance;
+}
+
+unsigned int boundary_normal_axis(const Mesh& mesh, const std::string& boundary) {
+  const auto id = mesh.names.boundary_id(boundary);
+  int vertical = 0, horizontal = 0, other = 0;
+  for (const auto& cell : mesh.triangulation->active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    for (const unsigned int f : cell->face_indices()) {
+      if (!cell->at_boundary(f) || cell->face(f)->boundary_id() != id)
+        continue;
+      const dealii::Tensor<1, 2> d = cell->face(f)->vertex(1) - cell->face(f)->vertex(0);
+      const double tol = 1e-8 * d.norm();
+      (std::abs(d[0]) <= tol ? vertical : std::abs(d[1]) <= tol ? horizontal : other) += 1;
+    }
+  }
+  const MPI_Comm comm = mesh.triangulation->get_communicator();
+  vertical = dealii::Utilities::MPI::sum(vertical, comm);
+  horizontal = dealii::Utilities::MPI::sum(horizontal, comm);
+  other = dealii::Utilities::MPI::sum(other, comm);
+  if (other > 0 || (vertical > 0 && horizontal > 0) || vertical + horizontal == 0)
+    throw InputError("boundary '" + boundary +
+                     "' is not one straight vertical or horizontal line, so 'roller' has no "
+                     "single normal direction; use fixed or free");
+  return vertical > 0 ? 0u : 1u;
 }
 
 Mesh::Mesh(MPI_Comm comm)

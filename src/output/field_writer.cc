@@ -17,44 +17,59 @@ using namespace dealii;
 
 namespace {
 
-/// Fields derived point by point from the primary unknowns.
+/// Fields derived point by point from the primary unknowns (see DerivedState).
 class DerivedFields : public DataPostprocessor<2> {
 public:
-  explicit DerivedFields(const BiotSetup& setup)
-      : setup_(setup) {}
+  explicit DerivedFields(const Derivation& derivation) : derivation_(derivation) {}
 
   void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
                              std::vector<Vector<double>>& out) const override {
+    const auto cell = in.template get_cell<2>();
     for (unsigned int q = 0; q < in.solution_values.size(); ++q) {
-      const Vector<double>& v = in.solution_values[q];
-      const double head_change = v[FieldLayout::pressure] / setup_.gamma_w;
-      out[q][0] = -v[FieldLayout::uy]; // settlement, m
-      out[q][1] = setup_.initial_head(in.evaluation_points[q]) + head_change; // head, m
-      out[q][2] = -head_change; // drawdown, m
+      const DerivedState d = derivation_.at(in.evaluation_points[q], cell->material_id(),
+                                            in.solution_values[q], in.solution_gradients[q]);
+      const std::vector<double> values{
+          d.settlement, d.head, d.drawdown, d.pore_pressure, d.mean_effective_stress,
+          d.deviator_stress, d.vertical_effective_stress, d.volumetric_strain,
+          d.effective_stress[2][2], d.darcy_flux[0], d.darcy_flux[1],
+          d.effective_stress[0][0], d.effective_stress[0][1], d.effective_stress[0][1],
+          d.effective_stress[1][1]};
+      for (unsigned int c = 0; c < values.size(); ++c)
+        out[q][c] = values[c];
     }
   }
   std::vector<std::string> get_names() const override {
-    return {"settlement", "hydraulic_head", "drawdown"};
+    return {"settlement",     "hydraulic_head",   "drawdown",
+            "pore_pressure",  "mean_effective_stress", "deviator_stress",
+            "vertical_effective_stress", "volumetric_strain",
+            "effective_stress_out_of_plane", "darcy_flux", "darcy_flux",
+            "effective_stress", "effective_stress", "effective_stress", "effective_stress"};
   }
   std::vector<DataComponentInterpretation::DataComponentInterpretation>
   get_data_component_interpretation() const override {
-    return std::vector<DataComponentInterpretation::DataComponentInterpretation>(
-        3, DataComponentInterpretation::component_is_scalar);
+    using namespace DataComponentInterpretation;
+    std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds(
+        9, component_is_scalar);
+    kinds.insert(kinds.end(), 2, component_is_part_of_vector);
+    kinds.insert(kinds.end(), 4, component_is_part_of_tensor);
+    return kinds;
   }
   UpdateFlags get_needed_update_flags() const override {
-    return update_values | update_quadrature_points;
+    return update_values | update_gradients | update_quadrature_points;
   }
 
 private:
-  const BiotSetup& setup_;
+  const Derivation& derivation_;
 };
 
 } // namespace
 
-FieldWriter::FieldWriter(std::string directory, std::string basename, MPI_Comm comm)
+FieldWriter::FieldWriter(std::string directory, std::string basename, MPI_Comm comm,
+                         std::optional<InitialFields> initial)
     : directory_(std::move(directory))
     , basename_(std::move(basename))
-    , comm_(comm) {
+    , comm_(comm)
+    , initial_(std::move(initial)) {
   if (Utilities::MPI::this_mpi_process(comm_) == 0)
     std::filesystem::create_directories(directory_);
   MPI_Barrier(comm_);
@@ -73,7 +88,9 @@ std::string FieldWriter::write(const BiotProblem& problem) {
       DataComponentInterpretation::component_is_part_of_vector,
       DataComponentInterpretation::component_is_scalar};
   data_out.add_data_vector(problem.solution(), names, DataOut<2>::type_dof_data, kinds);
-  const DerivedFields derived(problem.setup());
+  const Derivation derivation(problem,
+                              initial_ ? *initial_ : InitialFields::from_setup(problem.setup()));
+  const DerivedFields derived(derivation);
   data_out.add_data_vector(problem.solution(), derived);
 
   const auto& tria = problem.dof_handler().get_triangulation();

@@ -380,6 +380,32 @@ StepReport BiotProblem::advance_to(double t_new) {
   return report;
 }
 
+double BiotProblem::outflow(const std::string& line) const {
+  const Impl& m = *impl_;
+  line_of_name_check(m.mesh, line);
+  if (!(m.time > 0.0))
+    return 0.0;
+  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k) {
+    const auto& bc = m.conditions.pressures[k];
+    if (bc.line.name != line || !bc.window.contains(m.time))
+      continue;
+    std::set<types::global_dof_index> dofs;
+    if (bc.line.internal) {
+      for (const auto& [dof, x] : m.pressure_line_dofs[k])
+        dofs.insert(dof);
+    } else {
+      const IndexSet on_boundary = DoFTools::extract_boundary_dofs(
+          m.dof_handler, m.layout.mask_of(FieldLayout::pressure), {bc.line.id});
+      dofs.insert(on_boundary.begin(), on_boundary.end());
+    }
+    return m.reaction_outflow(dofs);
+  }
+  for (const auto& flux : m.conditions.fluxes)
+    if (flux.line.name == line && flux.window.contains(m.time))
+      return m.prescribed_outflow(flux);
+  return 0.0;
+}
+
 double BiotProblem::time() const {
   return impl_->time;
 }

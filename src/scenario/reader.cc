@@ -41,7 +41,10 @@ void TableReader::fail_here(const std::string& message) const {
 void TableReader::reject_unknown_keys() const {
   if (holds_named_entries(path_))
     return;
-  const auto declared = children_of(path_);
+  std::vector<std::string> declared = children_of(path_);
+  for (auto& d : declared) // an array of tables is declared as "name[]"
+    if (d.size() > 2 && d.compare(d.size() - 2, 2, "[]") == 0)
+      d.resize(d.size() - 2);
   for (const auto& [key, node] : table_) {
     const std::string k(key.str());
     if (std::find(declared.begin(), declared.end(), k) != declared.end())

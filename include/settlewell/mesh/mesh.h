@@ -34,4 +34,8 @@ struct Mesh {
   }
 };
 
+/// The axis a straight boundary is normal to: 0 if its faces are vertical (normal
+/// along x), 1 if horizontal. Throws InputError if it is neither. Collective.
+unsigned int boundary_normal_axis(const Mesh& mesh, const std::string& boundary);
+
 } // namespace settlewell

@@ -1,7 +1,9 @@
 #pragma once
 
+#include "settlewell/output/derived.h"
 #include "settlewell/physics/biot_problem.h"
 
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
@@ -14,7 +16,10 @@ namespace settlewell {
 class FieldWriter {
 public:
   /// Creates `directory` if needed. Files are named `<basename>_NNNN.vtu`.
-  FieldWriter(std::string directory, std::string basename, MPI_Comm comm);
+  /// `initial` gives the state at t = 0 that absolute heads, pore pressures,
+  /// stresses and fluxes are built on (by default: from the problem's setup).
+  FieldWriter(std::string directory, std::string basename, MPI_Comm comm,
+              std::optional<InitialFields> initial = std::nullopt);
 
   /// Writes the current state of `problem` and rewrites the PVD record.
   /// Returns the path of the file written for this time.
@@ -26,6 +31,7 @@ private:
   std::string directory_;
   std::string basename_;
   MPI_Comm comm_;
+  std::optional<InitialFields> initial_;
   std::vector<std::pair<double, std::string>> series_;
 };
 

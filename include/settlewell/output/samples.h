@@ -1,0 +1,51 @@
+#pragma once
+
+#include "settlewell/output/derived.h"
+#include "settlewell/physics/biot_problem.h"
+
+#include <deal.II/base/point.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace settlewell {
+
+/// The quantities sampled at a point (units and signs as in DerivedState).
+struct SampleValues {
+  double ux = 0.0;                        ///< m
+  double settlement = 0.0;                ///< m, positive down
+  double head = 0.0;                      ///< m
+  double drawdown = 0.0;                  ///< m
+  double pore_pressure = 0.0;             ///< kPa
+  double excess_pore_pressure = 0.0;      ///< kPa
+  double vertical_effective_stress = 0.0; ///< kPa, compression positive
+  double mean_effective_stress = 0.0;     ///< kPa, compression positive
+  double deviator_stress = 0.0;           ///< kPa
+  double flux_x = 0.0, flux_y = 0.0;      ///< Darcy flux, m/s
+};
+
+/// A fixed set of points (monitoring points, samples along a section line) located
+/// once in the mesh and evaluated whenever asked. Each point is evaluated by the one
+/// process that owns the cell holding it; every process gets every value.
+class SamplePoints {
+public:
+  /// Collective. Throws InputError naming `what` and the first point outside the mesh.
+  SamplePoints(const BiotProblem& problem, std::vector<dealii::Point<2>> points,
+               const std::string& what);
+  ~SamplePoints();
+  SamplePoints(SamplePoints&&) noexcept;
+
+  /// Collective.
+  std::vector<SampleValues> evaluate(const BiotProblem& problem,
+                                     const Derivation& derivation) const;
+  const std::vector<dealii::Point<2>>& points() const { return points_; }
+
+  struct Located; ///< where a point is (defined in the source)
+
+private:
+  std::vector<dealii::Point<2>> points_;
+  std::vector<std::unique_ptr<Located>> located_; ///< null where another process owns it
+};
+
+} // namespace settlewell

@@ -1,0 +1,26 @@
+#pragma once
+
+#include <chrono>
+#include <iosfwd>
+#include <string>
+
+namespace settlewell {
+
+/// One progress line per step: updated in place on a terminal, plain lines when
+/// the output goes to a file or a pipe.
+class Progress {
+public:
+  Progress(std::ostream& out, bool in_place, std::size_t total_steps, bool enabled);
+
+  void step(const std::string& stage, std::size_t stage_number, std::size_t n_stages,
+            double time_days, double dt_days, double solve_seconds);
+  void finish();
+
+private:
+  std::ostream& out_;
+  bool in_place_, enabled_;
+  std::size_t total_, done_ = 0;
+  std::chrono::steady_clock::time_point start_;
+};
+
+} // namespace settlewell

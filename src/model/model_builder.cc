@@ -1,0 +1,280 @@
+#include "settlewell/model/model_builder.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
+#include "settlewell/mesh/gmsh_mesh.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cmath>
+
+namespace settlewell::model {
+
+using namespace dealii;
+using scenario::BoundarySpec;
+using scenario::Scenario;
+using scenario::Target;
+
+std::map<std::string, std::string> region_materials(const Scenario& s, const Mesh& mesh) {
+  std::map<std::string, std::string> out;
+  const std::vector<scenario::Layer>* layers =
+      s.section ? &s.section->layers : (s.box ? &s.box->layers : nullptr);
+  if (layers)
+    for (const auto& l : *layers)
+      out[l.name] = l.material;
+  if (s.section && s.section->wall)
+    out[section_names::wall_region] = s.section->wall->material;
+  if (s.mesh_file) {
+    for (const auto& [region, material] : s.mesh_file->region_materials) {
+      if (!mesh.names.has_region(region))
+        throw InputError(s.location_of("mesh_file") + ": mesh_file.regions." + region +
+                         ": the mesh has no region (physical surface) of that name");
+      out[region] = material;
+    }
+  }
+  std::map<std::string, std::string> used;
+  for (const auto& region : mesh.names.region_names()) {
+    auto found = out.find(region);
+    if (found == out.end() && s.mesh_file && s.materials.count(region))
+      found = out.emplace(region, region).first; // a region named after its material
+    if (found == out.end())
+      throw InputError(s.location_of(s.mesh_file ? "mesh_file" : "materials") + ": region '" +
+                       region + "' of the mesh has no material" +
+                       (s.mesh_file ? "; add it under [mesh_file.regions]" : ""));
+    used.insert(*found);
+  }
+  return used;
+}
+
+namespace {
+
+BoundarySpec role(BoundarySpec::Hydraulic h, BoundarySpec::Mechanical m) {
+  BoundarySpec b;
+  b.hydraulic = h;
+  b.mechanical = m;
+  return b;
+}
+
+BoundarySpec default_role(const Scenario& s, const std::string& name) {
+  using H = BoundarySpec::Hydraulic;
+  using M = BoundarySpec::Mechanical;
+  namespace n = section_names;
+  if (s.section) {
+    if (name == n::far_boundary)
+      return role(H::fixed_head, M::roller);
+    if (name == n::model_base)
+      return role(H::no_flow, M::fixed);
+    if (name == n::symmetry_axis || name == n::well_casing)
+      return role(H::no_flow, M::roller);
+    if (name.rfind("well_", 0) == 0)
+      return role(H::unset, M::roller); // an axisymmetric well screen: stages control it
+  }
+  if (s.box) {
+    if (name == "left" || name == "right")
+      return role(H::no_flow, M::roller);
+    if (name == "bottom")
+      return role(H::no_flow, M::fixed);
+  }
+  return role(H::no_flow, M::free);
+}
+
+/// Length of a line (times 2 pi r in axisymmetric), m or m^2.
+double line_measure(const Mesh& mesh, const std::string& name, AnalysisType analysis) {
+  auto weight = [&](const Point<2>& a, const Point<2>& b) {
+    const double length = a.distance(b);
+    return analysis == AnalysisType::axisymmetric ? length * units::pi * (a[0] + b[0])
+                                                  : length;
+  };
+  const auto internal = mesh.internal_lines.find(name);
+  if (internal != mesh.internal_lines.end()) {
+    double total = 0.0;
+    for (const auto& seg : internal->second)
+      total += weight(seg.a, seg.b);
+    return total;
+  }
+  const auto id = mesh.names.boundary_id(name);
+  double total = 0.0;
+  for (const auto& cell : mesh.triangulation->active_cell_iterators())
+    if (cell->is_locally_owned())
+      for (const unsigned int f : cell->face_indices())
+        if (cell->at_boundary(f) && cell->face(f)->boundary_id() == id)
+          total += weight(cell->face(f)->vertex(0), cell->face(f)->vertex(1));
+  return Utilities::MPI::sum(total, mesh.triangulation->get_communicator());
+}
+
+/// The stage-by-stage control of one line.
+struct ControlItem {
+  std::vector<std::optional<Target>> targets;
+  std::optional<std::function<double(const Point<2>&)>> initial;
+};
+
+void require_line(const Scenario& s, const Mesh& mesh, const std::string& line,
+                  const std::string& where, const std::string& what) {
+  if (!mesh.has_line(line))
+    throw InputError(s.location_of(where) + ": " + what + ": the mesh has no line named '" +
+                     line + "'");
+}
+
+std::map<std::string, ControlItem> hydraulic_items(const Scenario& s, const Mesh& mesh,
+                                                   const InitialState& initial,
+                                                   const std::map<std::string, BoundarySpec>& roles,
+                                                   std::vector<PumpedLine>& pumped) {
+  std::map<std::string, ControlItem> items;
+  const std::size_t n = s.stages.size();
+  auto item = [&](const std::string& line) -> ControlItem& {
+    auto& it = items[line];
+    it.targets.resize(n);
+    return it;
+  };
+  for (const auto& [name, spec] : roles)
+    if (spec.hydraulic == BoundarySpec::Hydraulic::fixed_head) {
+      auto& it = item(name);
+      if (spec.head)
+        it.initial = [h = *spec.head](const Point<2>&) { return h; };
+      else
+        it.initial = [&initial](const Point<2>& x) { return initial.head(x); };
+    }
+  for (std::size_t k = 0; k < n; ++k) {
+    const auto& stage = s.stages[k];
+    const std::string where = "stages." + stage.name;
+    for (const auto& [name, head] : stage.boundary_heads) {
+      require_line(s, mesh, name, where, "stage '" + stage.name + "' boundary head");
+      item(name).targets[k] = Target{Target::Kind::head, head};
+    }
+    for (const auto& [well, target] : stage.wells) {
+      const std::string line = s.section ? section_names::well(well) : well;
+      require_line(s, mesh, line, where, "stage '" + stage.name + "' well '" + well + "'");
+      item(line).targets[k] = target;
+    }
+    if (stage.excavation_level_head)
+      item(section_names::excavation_level).targets[k] =
+          Target{Target::Kind::head, *stage.excavation_level_head};
+  }
+  if (s.section)
+    for (const auto& w : s.section->wells)
+      if (items.count(section_names::well(w.name)))
+        pumped.push_back({w.name, section_names::well(w.name)});
+  if (!s.section)
+    for (const auto& stage : s.stages)
+      for (const auto& [well, target] : stage.wells)
+        if (std::none_of(pumped.begin(), pumped.end(), [&](auto& p) { return p.line == well; }))
+          pumped.push_back({well, well});
+  if (items.count(section_names::excavation_level))
+    pumped.push_back({section_names::excavation_level, section_names::excavation_level});
+  return items;
+}
+
+void add_hydraulic(const Scenario& s, const Mesh& mesh, const InitialState& initial,
+                   const Schedule& schedule, const std::map<std::string, ControlItem>& items,
+                   BoundaryConditions& bc) {
+  auto h0 = [&initial](const Point<2>& x) { return initial.head(x); };
+  for (const auto& [line, item] : items) {
+    const double measure = line_measure(mesh, line, s.analysis);
+    for (const auto& phase : control_phases(schedule, item.targets, item.initial, h0)) {
+      if (phase.kind == Target::Kind::head) {
+        bc.head(line, phase.value, phase.window);
+        continue;
+      }
+      // A discharge (m^3/s per metre run, or per well) spread evenly over the line.
+      const FieldFunction q = phase.value;
+      bc.outflow(line, [q, measure](const Point<2>& x, double t) { return q(x, t) / measure; },
+                 phase.window);
+    }
+  }
+}
+
+void add_mechanical(const Mesh& mesh, const std::map<std::string, BoundarySpec>& roles,
+                    BoundaryConditions& bc) {
+  for (const auto& [name, spec] : roles) {
+    if (spec.mechanical == BoundarySpec::Mechanical::fixed)
+      bc.fix(name, true, true);
+    if (spec.mechanical == BoundarySpec::Mechanical::roller) {
+      const unsigned int axis = boundary_normal_axis(mesh, name);
+      bc.fix(name, axis == 0, axis == 1);
+    }
+  }
+}
+
+void add_loads(const Scenario& s, const Mesh& mesh, const Schedule& schedule,
+               BoundaryConditions& bc) {
+  // Each loaded strip is an item whose pressure ramps like a discharge (from 0).
+  struct Strip {
+    double x_from, x_to;
+    std::vector<std::optional<Target>> targets;
+  };
+  std::map<std::string, std::vector<Strip>> strips;
+  for (std::size_t k = 0; k < s.stages.size(); ++k)
+    for (const auto& load : s.stages[k].loads) {
+      if (!mesh.names.has_boundary(load.boundary))
+        throw InputError(s.location_of("stages." + s.stages[k].name) + ": stage '" +
+                         s.stages[k].name + "' load: no boundary named '" + load.boundary + "'");
+      auto& list = strips[load.boundary];
+      auto found = std::find_if(list.begin(), list.end(), [&](const Strip& st) {
+        return st.x_from == load.x_from && st.x_to == load.x_to;
+      });
+      if (found == list.end())
+        found = list.insert(list.end(),
+                            Strip{load.x_from, load.x_to, std::vector<std::optional<Target>>(s.stages.size())});
+      found->targets[k] = Target{Target::Kind::discharge, load.pressure};
+    }
+  auto zero = [](const Point<2>&) { return 0.0; };
+  for (const auto& [boundary, list] : strips) {
+    std::vector<std::tuple<double, double, FieldFunction>> pieces;
+    for (const auto& strip : list)
+      for (const auto& phase : control_phases(schedule, strip.targets, std::nullopt, zero))
+        pieces.emplace_back(strip.x_from, strip.x_to, phase.value);
+    bc.normal_traction(boundary, [pieces](const Point<2>& x, double t) {
+      double pressure = 0.0;
+      for (const auto& [a, b, p] : pieces)
+        if (x[0] >= a && x[0] <= b)
+          pressure += p(x, t);
+      return -pressure; // a compressive surcharge is a negative normal traction
+    });
+  }
+}
+
+} // namespace
+
+std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh& mesh) {
+  std::map<std::string, BoundarySpec> roles;
+  for (const auto& name : mesh.names.boundary_names())
+    roles[name] = default_role(s, name);
+  for (const auto& [name, spec] : s.boundaries) {
+    const bool internal = mesh.internal_lines.count(name) != 0;
+    if (!mesh.names.has_boundary(name) && !internal) {
+      std::string known;
+      for (const auto& b : mesh.names.boundary_names())
+        known += (known.empty() ? "" : ", ") + b;
+      throw InputError(s.location_of("boundaries." + name) + ": boundaries." + name +
+                       ": the mesh has no boundary of that name (known: " + known + ")");
+    }
+    if (internal && spec.mechanical != BoundarySpec::Mechanical::unset)
+      throw InputError(s.location_of("boundaries." + name) + ": boundaries." + name +
+                       ": is an internal line and takes no mechanical condition");
+    auto& r = roles[name];
+    if (spec.hydraulic != BoundarySpec::Hydraulic::unset)
+      r.hydraulic = spec.hydraulic, r.head = spec.head;
+    if (spec.mechanical != BoundarySpec::Mechanical::unset)
+      r.mechanical = spec.mechanical;
+  }
+  return roles;
+}
+
+Model build_model(const Scenario& s, const Mesh& mesh, const InitialState& initial,
+                  const Schedule& schedule) {
+  Model model;
+  BiotSetup& setup = model.setup;
+  setup.analysis = s.analysis;
+  setup.gamma_w = s.gamma_w;
+  for (const auto& [region, material] : region_materials(s, mesh))
+    setup.materials[region] = s.materials.at(material).poroelastic;
+  setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
+  const auto roles = boundary_roles(s, mesh);
+  const auto items = hydraulic_items(s, mesh, initial, roles, model.pumped);
+  add_hydraulic(s, mesh, initial, schedule, items, setup.conditions);
+  add_mechanical(mesh, roles, setup.conditions);
+  add_loads(s, mesh, schedule, setup.conditions);
+  return model;
+}
+
+} // namespace settlewell::model

@@ -1,0 +1,146 @@
+#include "settlewell/model/schedule.h"
+
+#include "settlewell/time/time_grid.h"
+
+#include <algorithm>
+#include <cmath>
+#include <memory>
+
+namespace settlewell::model {
+
+namespace {
+
+std::vector<double> stage_output_times(const StageTimes& st, double first, unsigned int n) {
+  // n times log-spaced from the first step to the stage end (the end itself is
+  // always written).
+  std::vector<double> times;
+  const double duration = st.end - st.start;
+  for (unsigned int i = 0; i < n; ++i)
+    times.push_back(st.start + first * std::pow(duration / first, double(i) / n));
+  return times;
+}
+
+} // namespace
+
+Schedule::Schedule(const scenario::Scenario& s) {
+  double t = 0.0;
+  for (const auto& stage : s.stages) {
+    const double ramp_end = t + std::min(stage.ramp, stage.duration);
+    stages_.push_back({stage.name, t, t + stage.duration, ramp_end});
+    t += stage.duration;
+  }
+  for (std::size_t k = 0; k < stages_.size(); ++k) {
+    const StageTimes& st = stages_[k];
+    const auto& steps = s.stages[k].steps;
+    const double duration = st.end - st.start;
+    const double first = steps.first > 0.0 ? steps.first : duration / 1000.0;
+    const double largest = std::max(first, steps.largest > 0.0 ? steps.largest : duration / 10.0);
+    std::vector<double> must_hit{st.end};
+    if (st.ramp_end > st.start && st.ramp_end < st.end)
+      must_hit.push_back(st.ramp_end);
+    for (const double o : stage_output_times(st, first, s.output.per_stage))
+      if (o > st.start)
+        outputs_.push_back(o);
+    outputs_.push_back(st.end);
+    for (const double o : s.output.times)
+      if (o > st.start && o <= st.end)
+        outputs_.push_back(o);
+    for (const double o : outputs_)
+      if (o > st.start && o <= st.end)
+        must_hit.push_back(o);
+    const auto stage_steps =
+        merge_times(growing_times(st.start, st.end, first, steps.growth, largest), must_hit);
+    steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());
+  }
+  std::sort(outputs_.begin(), outputs_.end());
+  outputs_.erase(std::unique(outputs_.begin(), outputs_.end()), outputs_.end());
+  std::sort(steps_.begin(), steps_.end());
+  steps_.erase(std::unique(steps_.begin(), steps_.end()), steps_.end());
+}
+
+std::size_t Schedule::stage_at(double t) const {
+  for (std::size_t k = 0; k < stages_.size(); ++k)
+    if (t <= stages_[k].end * (1 + 1e-12))
+      return k;
+  return stages_.size() - 1;
+}
+
+bool Schedule::is_output_time(double t) const {
+  return std::any_of(outputs_.begin(), outputs_.end(),
+                     [t](double o) { return std::abs(o - t) <= 1e-9 * std::max(1.0, o); });
+}
+
+namespace {
+
+using PointFunction = std::function<double(const dealii::Point<2>&)>;
+
+PointFunction constant(double v) {
+  return [v](const dealii::Point<2>&) { return v; };
+}
+
+FieldFunction phase_value(std::vector<ControlSegment> segments) {
+  auto shared = std::make_shared<const std::vector<ControlSegment>>(std::move(segments));
+  return [shared](const dealii::Point<2>& x, double t) {
+    const auto& segs = *shared;
+    const ControlSegment* seg = &segs.back();
+    for (const auto& s : segs)
+      if (t <= s.end) {
+        seg = &s;
+        break;
+      }
+    const double w = seg->ramp_end > seg->start
+                         ? std::clamp((t - seg->start) / (seg->ramp_end - seg->start), 0.0, 1.0)
+                         : 1.0;
+    const double from = seg->from(x);
+    return from + w * (seg->to(x) - from);
+  };
+}
+
+} // namespace
+
+std::vector<ControlPhase>
+control_phases(const Schedule& schedule,
+               const std::vector<std::optional<scenario::Target>>& targets,
+               const std::optional<PointFunction>& initial, const PointFunction& initial_head) {
+  using Kind = scenario::Target::Kind;
+  std::vector<ControlPhase> phases;
+  std::vector<ControlSegment> current;
+  auto close_phase = [&]() {
+    if (current.empty())
+      return;
+    phases.push_back({current.front().kind, {current.front().start, current.back().end},
+                      phase_value(current)});
+    current.clear();
+  };
+  std::optional<Kind> kind;
+  PointFunction last_value;
+  if (initial) {
+    kind = Kind::head;
+    last_value = *initial;
+  }
+  const auto& stages = schedule.stages();
+  for (std::size_t k = 0; k < stages.size(); ++k) {
+    const StageTimes& st = stages[k];
+    const auto& target = k < targets.size() ? targets[k] : std::nullopt;
+    if (target) {
+      PointFunction from;
+      if (kind == target->kind) {
+        from = last_value;
+      } else {
+        close_phase();
+        from = target->kind == Kind::head ? initial_head : constant(0.0);
+      }
+      kind = target->kind;
+      last_value = constant(target->value);
+      current.push_back({*kind, from, last_value, st.start, st.ramp_end, st.end});
+    } else if (kind) {
+      current.push_back({*kind, last_value, last_value, st.start, st.start, st.end});
+    }
+  }
+  close_phase();
+  if (!phases.empty())
+    phases.back().window.until = std::numeric_limits<double>::infinity();
+  return phases;
+}
+
+} // namespace settlewell::model

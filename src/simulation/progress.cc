@@ -1,0 +1,54 @@
+#include "settlewell/simulation/progress.h"
+
+#include <iomanip>
+#include <ostream>
+#include <sstream>
+
+namespace settlewell {
+
+Progress::Progress(std::ostream& out, bool in_place, std::size_t total_steps, bool enabled)
+    : out_(out)
+    , in_place_(in_place)
+    , enabled_(enabled)
+    , total_(total_steps)
+    , start_(std::chrono::steady_clock::now()) {}
+
+namespace {
+std::string duration_text(double seconds) {
+  std::ostringstream os;
+  if (seconds < 90)
+    os << std::fixed << std::setprecision(0) << seconds << " s";
+  else if (seconds < 5400)
+    os << std::fixed << std::setprecision(1) << seconds / 60 << " min";
+  else
+    os << std::fixed << std::setprecision(1) << seconds / 3600 << " h";
+  return os.str();
+}
+} // namespace
+
+void Progress::step(const std::string& stage, std::size_t stage_number, std::size_t n_stages,
+                    double time_days, double dt_days, double solve_seconds) {
+  ++done_;
+  if (!enabled_)
+    return;
+  const double elapsed =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
+  const double left = done_ > 0 ? elapsed / done_ * (total_ - done_) : 0.0;
+  std::ostringstream line;
+  line << "stage " << stage_number << "/" << n_stages << " " << stage << " | t "
+       << std::fixed << std::setprecision(2) << time_days << " d | dt " << std::setprecision(3)
+       << dt_days << " d | step " << done_ << "/" << total_ << " | solve "
+       << std::setprecision(3) << solve_seconds << " s | left ~" << duration_text(left);
+  if (in_place_)
+    out_ << '\r' << std::left << std::setw(100) << line.str() << std::flush;
+  else
+    out_ << line.str() << '\n';
+}
+
+void Progress::finish() {
+  if (enabled_ && in_place_)
+    out_ << '\n';
+  out_ << std::flush;
+}
+
+} // namespace settlewell

@@ -1,0 +1,99 @@
+#include "run_extremes.h"
+
+#include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/physics/field_layout.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/dofs/dof_tools.h>
+
+#include <cmath>
+#include <map>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+std::vector<types::global_dof_index> owned_boundary_dofs(const BiotProblem& problem,
+                                                         const std::string& boundary,
+                                                         unsigned int component) {
+  std::vector<types::global_dof_index> dofs;
+  if (!problem.mesh().names.has_boundary(boundary))
+    return dofs;
+  const IndexSet on = DoFTools::extract_boundary_dofs(
+      problem.dof_handler(), problem.layout().mask_of(component),
+      {problem.mesh().names.boundary_id(boundary)});
+  for (const auto d : on)
+    if (problem.dof_handler().locally_owned_dofs().is_element(d))
+      dofs.push_back(d);
+  return dofs;
+}
+
+} // namespace
+
+RunExtremes::RunExtremes(const BiotProblem& problem, const scenario::Scenario& s) {
+  const auto& dh = problem.dof_handler();
+  std::map<types::global_dof_index, Point<2>> support;
+  DoFTools::map_dofs_to_support_points(problem.mapping(), dh, support);
+  double outer = 0.0;
+  if (s.section) {
+    has_wall_zone_ = true;
+    outer = s.section->excavation_width / 2 + (s.section->wall ? s.section->wall->thickness : 0);
+  }
+  const auto& fe = dh.get_fe();
+  std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
+  std::map<types::global_dof_index, unsigned int> component;
+  for (const auto& cell : dh.active_cell_iterators())
+    if (cell->is_locally_owned()) {
+      cell->get_dof_indices(cell_dofs);
+      for (unsigned int i = 0; i < cell_dofs.size(); ++i)
+        component[cell_dofs[i]] = fe.system_to_component_index(i).first;
+    }
+  const double tol = 1e-9 * (1.0 + outer);
+  for (const auto& [dof, c] : component) {
+    if (!dh.locally_owned_dofs().is_element(dof))
+      continue;
+    const bool outside = has_wall_zone_ && std::abs(support.at(dof)[0]) >= outer - tol;
+    if (c == FieldLayout::uy)
+      all_uy_.push_back(dof);
+    if (c == FieldLayout::pressure) {
+      all_p_.push_back(dof);
+      if (outside)
+        outside_p_.push_back(dof);
+    }
+  }
+  pit_surface_uy_ = owned_boundary_dofs(problem, section_names::pit_surface, FieldLayout::uy);
+  for (const auto d :
+       owned_boundary_dofs(problem, section_names::ground_surface, FieldLayout::uy))
+    if (std::abs(support.at(d)[0]) >= outer - tol)
+      outside_surface_uy_.push_back(d);
+}
+
+double RunExtremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) const {
+  double value = 0.0;
+  for (const auto d : dofs)
+    value = std::max(value, factor * problem.solution()[d]);
+  return Utilities::MPI::max(value, problem.communicator());
+}
+
+void RunExtremes::update(const BiotProblem& problem) {
+  const double to_drawdown = -1.0 / problem.setup().gamma_w;
+  pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
+  outside_ = std::max(outside_, largest(problem, outside_surface_uy_, -1.0));
+  anywhere_ = std::max(anywhere_, largest(problem, all_uy_, -1.0));
+  drawdown_outside_ = std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
+  drawdown_ = std::max(drawdown_, largest(problem, all_p_, to_drawdown));
+}
+
+void RunExtremes::fill(RunSummary& summary) const {
+  if (has_wall_zone_) {
+    summary.settlement_inside = pit_;
+    summary.settlement_outside = outside_;
+    summary.drawdown_outside = drawdown_outside_;
+  }
+  summary.settlement_anywhere = anywhere_;
+  summary.drawdown_anywhere = drawdown_;
+}
+
+} // namespace settlewell
