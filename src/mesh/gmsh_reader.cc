@@ -169,6 +169,10 @@ Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
     gmsh::open(path);
   } catch (const std::exception& e) {
     throw InputError(path + ": Gmsh cannot read it (" + e.what() + ")");
+  } catch (const std::string& e) { // Gmsh 4.8 throws strings
+    throw InputError(path + ": Gmsh cannot read it (" + e + ")");
+  } catch (...) {
+    throw InputError(path + ": Gmsh cannot read it");
   }
   return mesh_from_current_model(path, comm);
 }
@@ -177,10 +181,15 @@ Mesh make_scenario_mesh(const scenario::Scenario& s, MPI_Comm comm, const std::s
   if (s.mesh_file)
     return read_gmsh_file(s.mesh_file->path, comm);
   GmshSession session;
-  if (s.section)
-    build_grid_model(section_plan(*s.section, s.analysis), "section");
-  else
-    build_grid_model(box_plan(*s.box), "box");
+  try {
+    if (s.section)
+      build_grid_model(section_plan(*s.section, s.analysis), "section");
+    else
+      build_grid_model(box_plan(*s.box), "box");
+  } catch (const std::string& e) { // Gmsh 4.8 throws strings
+    throw InputError(s.location_of(s.section ? "section" : "box") +
+                     ": the mesh generator failed: " + e);
+  }
   if (!msh_path.empty() && Utilities::MPI::this_mpi_process(comm) == 0) {
     const auto folder = std::filesystem::path(msh_path).parent_path();
     if (!folder.empty())

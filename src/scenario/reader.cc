@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <sstream>
 
 namespace settlewell::scenario {
 
@@ -81,8 +82,11 @@ double TableReader::number_or(const std::string& key, double fallback) const {
 
 double TableReader::positive(const std::string& key) const {
   const double value = number(key);
-  if (!(value > 0.0))
-    fail(key, "must be positive (got " + std::to_string(value) + ")");
+  if (!(value > 0.0)) {
+    std::ostringstream os;
+    os << "must be positive (got " << value << ")";
+    fail(key, os.str());
+  }
   return value;
 }
 

@@ -34,14 +34,17 @@ std::string days_text(double seconds) {
 std::string role_text(const scenario::BoundarySpec& b) {
   using H = scenario::BoundarySpec::Hydraulic;
   using M = scenario::BoundarySpec::Mechanical;
-  std::string h = b.hydraulic == H::fixed_head
-                      ? (b.head ? "fixed head " + std::to_string(*b.head) + " m"
-                                : std::string("fixed head (initial)"))
-                      : b.hydraulic == H::no_flow ? "no flow" : "set by the stages";
+  std::ostringstream h;
+  if (b.hydraulic == H::fixed_head && b.head)
+    h << "fixed head " << *b.head << " m";
+  else if (b.hydraulic == H::fixed_head)
+    h << "fixed head (the initial head)";
+  else
+    h << (b.hydraulic == H::no_flow ? "no flow" : "set by the stages");
   const char* m = b.mechanical == M::fixed    ? "fixed"
                   : b.mechanical == M::roller ? "roller (normal fixed)"
                                               : "free";
-  return h + ", " + m;
+  return h.str() + ", " + m;
 }
 
 std::string target_text(const scenario::Target& t) {
