@@ -1,0 +1,95 @@
+#include "example_support.h"
+
+#include "settlewell/scenario/parse.h"
+
+#include <fstream>
+#include <sstream>
+#include <stdexcept>
+
+namespace example_support {
+
+namespace fs = std::filesystem;
+
+fs::path write_variant(const std::string& example, const std::string& variant,
+                       const std::function<void(toml::table&)>& change) {
+  toml::table scenario =
+      toml::parse_file(std::string(SETTLEWELL_SOURCE_DIR) + "/examples/" + example + "/scenario.toml");
+  if (change)
+    change(scenario);
+  const fs::path folder = fs::temp_directory_path() / "settlewell_examples";
+  fs::create_directories(folder);
+  const fs::path file = folder / (example + "-" + variant + ".toml");
+  std::ofstream(file) << scenario << '\n';
+  return file;
+}
+
+ExampleRun run_example(const std::string& example, const std::string& variant,
+                       const std::function<void(toml::table&)>& change) {
+  const fs::path file = write_variant(example, variant, change);
+  settlewell::Simulation simulation(settlewell::scenario::read_scenario(file.string()),
+                                    MPI_COMM_WORLD);
+  settlewell::RunOptions options;
+  options.run_directory = (file.parent_path() / (example + "-" + variant + "-run")).string();
+  options.overwrite = true;
+  options.show_progress = false;
+  ExampleRun run;
+  run.summary = simulation.run(options);
+  run.folder = options.run_directory;
+  return run;
+}
+
+Csv::Csv(const fs::path& path) {
+  std::ifstream in(path);
+  if (!in)
+    throw std::runtime_error("cannot read " + path.string());
+  std::string line;
+  std::getline(in, line);
+  std::vector<std::string> header;
+  for (std::stringstream ss(line); std::getline(ss, line, ',');)
+    header.push_back(line);
+  while (std::getline(in, line)) {
+    std::stringstream ss(line);
+    std::string cell;
+    for (const auto& name : header) {
+      std::getline(ss, cell, ',');
+      texts_[name].push_back(cell);
+      char* end = nullptr;
+      const double v = std::strtod(cell.c_str(), &end);
+      numbers_[name].push_back(end != cell.c_str() ? v : 0.0);
+    }
+    ++n_rows_;
+  }
+}
+
+const std::vector<double>& Csv::column(const std::string& name) const {
+  const auto found = numbers_.find(name);
+  if (found == numbers_.end())
+    throw std::runtime_error("no column " + name);
+  return found->second;
+}
+
+const std::vector<std::string>& Csv::text(const std::string& name) const {
+  const auto found = texts_.find(name);
+  if (found == texts_.end())
+    throw std::runtime_error("no column " + name);
+  return found->second;
+}
+
+std::vector<std::size_t> rows_at(const Csv& csv, double time_days) {
+  std::vector<std::size_t> rows;
+  const auto& t = csv.column("time_days");
+  for (std::size_t i = 0; i < t.size(); ++i)
+    if (std::abs(t[i] - time_days) <= 1e-6 * std::max(1.0, time_days))
+      rows.push_back(i);
+  return rows;
+}
+
+void coarsen_section(toml::table& scenario, double near, double far, double growth) {
+  auto* mesh = scenario["section"]["mesh"].as_table();
+  mesh->insert_or_assign("size_near_wall", near);
+  mesh->insert_or_assign("size_near_well", near);
+  mesh->insert_or_assign("size_far", far);
+  mesh->insert_or_assign("growth", growth);
+}
+
+} // namespace example_support

@@ -1,0 +1,51 @@
+#pragma once
+
+// Running the examples (or variants of them) from tests, and reading their run
+// folders back.
+#include "settlewell/simulation/simulation.h"
+
+#include <toml++/toml.h>
+
+#include <filesystem>
+#include <functional>
+#include <map>
+#include <string>
+#include <vector>
+
+namespace example_support {
+
+struct ExampleRun {
+  std::filesystem::path folder;
+  settlewell::RunSummary summary;
+};
+
+/// Reads examples/<example>/scenario.toml, lets `change` edit it, writes the
+/// variant next to its run folder and runs it quietly.
+ExampleRun run_example(const std::string& example, const std::string& variant,
+                       const std::function<void(toml::table&)>& change);
+
+/// The same scenario variant as run_example would write, without running it.
+std::filesystem::path write_variant(const std::string& example, const std::string& variant,
+                                    const std::function<void(toml::table&)>& change);
+
+/// A CSV file as columns of numbers (non-numeric cells are kept as text).
+class Csv {
+public:
+  explicit Csv(const std::filesystem::path& path);
+  const std::vector<double>& column(const std::string& name) const;
+  const std::vector<std::string>& text(const std::string& name) const;
+  std::size_t rows() const { return n_rows_; }
+
+private:
+  std::map<std::string, std::vector<double>> numbers_;
+  std::map<std::string, std::vector<std::string>> texts_;
+  std::size_t n_rows_ = 0;
+};
+
+/// Rows of a profile or point table at one time (days), as indices.
+std::vector<std::size_t> rows_at(const Csv& csv, double time_days);
+
+/// Coarser mesh sizes for a section example (tests run at a coarse setting).
+void coarsen_section(toml::table& scenario, double near, double far, double growth);
+
+} // namespace example_support

@@ -1,0 +1,67 @@
+// A run folder opens in VTK's own readers: the PVD series lists the output times
+// in days, every VTU holds every field, and the values are those of the CSV files.
+#include "example_support.h"
+
+#include <gtest/gtest.h>
+#include <vtkDataArray.h>
+#include <vtkPointData.h>
+#include <vtkSmartPointer.h>
+#include <vtkUnstructuredGrid.h>
+#include <vtkXMLUnstructuredGridReader.h>
+
+#include <fstream>
+#include <regex>
+
+using namespace example_support;
+
+TEST(RunFolder, SeriesOpensInVtkWithEveryFieldAndTimesInDays) {
+  const auto run = run_example("basement-pit", "readback", [](toml::table& s) {
+    coarsen_section(s, 1.5, 30.0, 1.5);
+  });
+  std::ifstream pvd(run.folder / "fields" / "fields.pvd");
+  ASSERT_TRUE(pvd);
+  const std::string text((std::istreambuf_iterator<char>(pvd)), {});
+  const std::regex entry("timestep=\"([^\"]+)\"[^>]*file=\"([^\"]+)\"");
+  std::vector<std::pair<double, std::string>> series;
+  for (auto it = std::sregex_iterator(text.begin(), text.end(), entry);
+       it != std::sregex_iterator(); ++it)
+    series.emplace_back(std::stod((*it)[1]), (*it)[2]);
+  // t = 0, 4 log-spaced times and the end of each of the two stages, and the four
+  // extra times of the example (7, 30, 120, 200 days).
+  ASSERT_EQ(series.size(), 1u + 2 * 5 + 4);
+  EXPECT_EQ(series.front().first, 0.0);
+  EXPECT_NEAR(series.back().first, 365.0, 1e-9);
+  bool has_60 = false;
+  for (std::size_t i = 1; i < series.size(); ++i) {
+    EXPECT_GT(series[i].first, series[i - 1].first);
+    has_60 = has_60 || std::abs(series[i].first - 60.0) < 1e-9;
+  }
+  EXPECT_TRUE(has_60) << "the end of the first stage (day 60) is written";
+
+  auto reader = vtkSmartPointer<vtkXMLUnstructuredGridReader>::New();
+  reader->SetFileName((run.folder / "fields" / series.back().second).c_str());
+  reader->Update();
+  vtkUnstructuredGrid* grid = reader->GetOutput();
+  ASSERT_GT(grid->GetNumberOfCells(), 0);
+  const std::vector<std::pair<const char*, int>> fields{
+      {"displacement", 3},           {"settlement", 1},
+      {"excess_pore_pressure", 1},   {"pore_pressure", 1},
+      {"hydraulic_head", 1},         {"drawdown", 1},
+      {"effective_stress", 9},       {"effective_stress_out_of_plane", 1},
+      {"mean_effective_stress", 1},  {"deviator_stress", 1},
+      {"vertical_effective_stress", 1}, {"volumetric_strain", 1},
+      {"darcy_flux", 3},             {"region", 1}};
+  for (const auto& [name, components] : fields) {
+    vtkDataArray* array = grid->GetPointData()->GetArray(name);
+    ASSERT_NE(array, nullptr) << name;
+    EXPECT_EQ(array->GetNumberOfComponents(), components) << name;
+  }
+  // The largest drawdown in the field equals the one the run summary reports.
+  double range[2];
+  grid->GetPointData()->GetArray("drawdown")->GetRange(range);
+  EXPECT_NEAR(range[1], run.summary.drawdown_anywhere, 0.01 * run.summary.drawdown_anywhere);
+  // Geostatic stress is in the output: at depth the vertical effective stress is
+  // far above the few kPa a change alone would give.
+  grid->GetPointData()->GetArray("vertical_effective_stress")->GetRange(range);
+  EXPECT_GT(range[1], 200.0);
+}
