@@ -95,7 +95,8 @@ int run_run(const ScenarioOptions& o) {
   settlewell::Simulation simulation(settlewell::scenario::read_scenario(o.scenario),
                                     MPI_COMM_WORLD);
   settlewell::RunOptions options;
-  options.run_directory = o.output.empty() ? default_folder(o.scenario, "-run") : o.output;
+  options.run_directory =
+      o.output.empty() ? default_folder(o.scenario, "-run") : o.output;
   options.overwrite = o.overwrite;
   options.show_progress = !o.quiet;
   options.progress_in_place = isatty(STDERR_FILENO) != 0;
@@ -114,17 +115,19 @@ int run_check(const ScenarioOptions& o) {
   }
   if (o.scenario.empty())
     throw settlewell::InputError("check needs a scenario file (or --keys)");
-  settlewell::check_scenario(settlewell::scenario::read_scenario(o.scenario), MPI_COMM_WORLD,
-                             std::cout);
+  settlewell::check_scenario(settlewell::scenario::read_scenario(o.scenario),
+                             MPI_COMM_WORLD, std::cout);
   return exit_ok;
 }
 
 int run_mesh(const ScenarioOptions& o) {
   const auto scenario = settlewell::scenario::read_scenario(o.scenario);
-  const std::string folder = o.output.empty() ? default_folder(o.scenario, "-mesh") : o.output;
+  const std::string folder =
+      o.output.empty() ? default_folder(o.scenario, "-mesh") : o.output;
   settlewell::write_scenario_mesh(scenario, folder, MPI_COMM_WORLD);
   if (is_root())
-    std::cout << "Wrote " << folder << "/mesh.msh, " << folder << "/mesh_cells.vtu (region "
+    std::cout << "Wrote " << folder << "/mesh.msh, " << folder
+              << "/mesh_cells.vtu (region "
               << "ids; names in the field data) and " << folder << "/mesh_lines.vtu\n";
   return exit_ok;
 }
@@ -153,14 +156,16 @@ int dispatch(int argc, char** argv) {
       ->check(CLI::ExistingFile);
   run_cmd->add_option("-o,--output", run.output,
                       "Run folder (default: <scenario name>-run in the current folder)");
-  run_cmd->add_flag("--overwrite", run.overwrite, "Replace the results in an existing run folder");
+  run_cmd->add_flag("--overwrite", run.overwrite,
+                    "Replace the results in an existing run folder");
   run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
 
   auto* check_cmd = app.add_subcommand(
       "check", "Validate a scenario and print what it describes; writes nothing.");
   check_cmd->add_option("scenario", check.scenario, "Scenario file (TOML)")
       ->check(CLI::ExistingFile);
-  check_cmd->add_flag("--keys", check.keys, "Print every scenario key with its unit and default");
+  check_cmd->add_flag("--keys", check.keys,
+                      "Print every scenario key with its unit and default");
 
   auto* mesh_cmd = app.add_subcommand(
       "mesh", "Write the scenario's mesh (.msh) and VTU files of its regions and lines.");

@@ -2,7 +2,8 @@
 
 namespace settlewell {
 
-BoundaryConditions& BoundaryConditions::head(const std::string& boundary, FieldFunction h,
+BoundaryConditions& BoundaryConditions::head(const std::string& boundary,
+                                             FieldFunction h,
                                              TimeWindow window) {
   hydraulic.push_back({boundary, HydraulicCondition::Kind::head, std::move(h), window});
   return *this;
@@ -10,12 +11,14 @@ BoundaryConditions& BoundaryConditions::head(const std::string& boundary, FieldF
 
 BoundaryConditions& BoundaryConditions::pore_pressure(const std::string& boundary,
                                                       FieldFunction p) {
-  hydraulic.push_back({boundary, HydraulicCondition::Kind::pore_pressure, std::move(p), {}});
+  hydraulic.push_back(
+      {boundary, HydraulicCondition::Kind::pore_pressure, std::move(p), {}});
   return *this;
 }
 
 BoundaryConditions& BoundaryConditions::outflow(const std::string& boundary,
-                                                FieldFunction q, TimeWindow window) {
+                                                FieldFunction q,
+                                                TimeWindow window) {
   hydraulic.push_back(
       {boundary, HydraulicCondition::Kind::normal_flux, std::move(q), window});
   return *this;

@@ -7,7 +7,9 @@ namespace settlewell {
 
 namespace {
 
-double size_at(double x, const std::vector<GradingFeature>& features, double size_far,
+double size_at(double x,
+               const std::vector<GradingFeature>& features,
+               double size_far,
                double slope) {
   double h = size_far;
   for (const auto& f : features)
@@ -20,8 +22,8 @@ AxisInterval progression(double a, double b, double h0, double h1, double growth
   const double length = b - a;
   AxisInterval interval{a, b, 1, 1.0};
   if (std::abs(h1 - h0) < 1e-9 * std::max(h0, h1) || growth <= 1.0) {
-    interval.cells =
-        static_cast<unsigned int>(std::max(1.0, std::ceil(length / std::min(h0, h1) - 1e-9)));
+    interval.cells = static_cast<unsigned int>(
+        std::max(1.0, std::ceil(length / std::min(h0, h1) - 1e-9)));
     return interval;
   }
   // Sizes growing by `growth` per cell from the small end: n = ln(h_big/h_small)/ln g.
@@ -31,8 +33,12 @@ AxisInterval progression(double a, double b, double h0, double h1, double growth
   return interval;
 }
 
-void grade_stretch(double a, double b, const std::vector<GradingFeature>& features,
-                   double size_far, double growth, std::vector<AxisInterval>& out) {
+void grade_stretch(double a,
+                   double b,
+                   const std::vector<GradingFeature>& features,
+                   double size_far,
+                   double growth,
+                   std::vector<AxisInterval>& out) {
   const double slope = growth - 1.0;
   const double ha = size_at(a, features, size_far, slope);
   const double hb = size_at(b, features, size_far, slope);
@@ -69,7 +75,8 @@ void grade_stretch(double a, double b, const std::vector<GradingFeature>& featur
 
 std::vector<AxisInterval> grade_axis(const std::vector<double>& breakpoints,
                                      const std::vector<GradingFeature>& features,
-                                     double size_far, double growth) {
+                                     double size_far,
+                                     double growth) {
   std::vector<AxisInterval> out;
   for (std::size_t i = 1; i < breakpoints.size(); ++i)
     grade_stretch(breakpoints[i - 1], breakpoints[i], features, size_far, growth, out);

@@ -13,7 +13,9 @@ GmshSession::GmshSession() {
   gmsh::option::setNumber("General.Verbosity", 1);
 }
 
-GmshSession::~GmshSession() { gmsh::finalize(); }
+GmshSession::~GmshSession() {
+  gmsh::finalize();
+}
 
 std::vector<double> corner_coordinates(const std::vector<AxisInterval>& intervals) {
   std::vector<double> c{intervals.front().start};
@@ -36,7 +38,8 @@ void add_groups(int dim, const std::map<std::string, std::vector<int>>& groups) 
 void build_grid_model(const GridPlan& plan, const std::string& model_name) {
   namespace geo = gmsh::model::geo;
   gmsh::model::add(model_name);
-  const std::vector<double> X = corner_coordinates(plan.x), Y = corner_coordinates(plan.y);
+  const std::vector<double> X = corner_coordinates(plan.x),
+                            Y = corner_coordinates(plan.y);
   const std::size_t nx = X.size(), ny = Y.size();
   std::vector<int> point(nx * ny), hline((nx - 1) * ny), vline(nx * (ny - 1));
   auto P = [&](std::size_t i, std::size_t j) -> int& { return point[j * nx + i]; };
@@ -65,21 +68,21 @@ void build_grid_model(const GridPlan& plan, const std::string& model_name) {
 
   for (std::size_t j = 0; j < ny; ++j)
     for (std::size_t i = 0; i + 1 < nx; ++i) {
-      gmsh::model::mesh::setTransfiniteCurve(H(i, j), int(plan.x[i].cells) + 1, "Progression",
-                                             plan.x[i].ratio);
+      gmsh::model::mesh::setTransfiniteCurve(H(i, j), int(plan.x[i].cells) + 1,
+                                             "Progression", plan.x[i].ratio);
       for (const auto& g : plan.horizontal_groups(i, j))
         curves[g].push_back(H(i, j));
     }
   for (std::size_t j = 0; j + 1 < ny; ++j)
     for (std::size_t i = 0; i < nx; ++i) {
-      gmsh::model::mesh::setTransfiniteCurve(V(i, j), int(plan.y[j].cells) + 1, "Progression",
-                                             plan.y[j].ratio);
+      gmsh::model::mesh::setTransfiniteCurve(V(i, j), int(plan.y[j].cells) + 1,
+                                             "Progression", plan.y[j].ratio);
       for (const auto& g : plan.vertical_groups(i, j))
         curves[g].push_back(V(i, j));
     }
   for (const auto& [surface, corners] : surfaces) {
-    gmsh::model::mesh::setTransfiniteSurface(surface, "Left",
-                                             {corners[0], corners[1], corners[2], corners[3]});
+    gmsh::model::mesh::setTransfiniteSurface(
+        surface, "Left", {corners[0], corners[1], corners[2], corners[3]});
     gmsh::model::mesh::setRecombine(2, surface);
   }
   add_groups(2, regions);

@@ -23,7 +23,9 @@ namespace {
 
 using Edge = std::pair<std::size_t, std::size_t>; // node indices, smaller first
 
-Edge edge_of(std::size_t a, std::size_t b) { return {std::min(a, b), std::max(a, b)}; }
+Edge edge_of(std::size_t a, std::size_t b) {
+  return {std::min(a, b), std::max(a, b)};
+}
 
 struct GmshMeshData {
   std::vector<Point<2>> vertices;
@@ -49,8 +51,8 @@ std::map<std::size_t, std::size_t> read_nodes(std::vector<Point<2>>& vertices,
 }
 
 /// Elements of one type on the entities of a physical group, as node-tag lists.
-std::vector<std::vector<std::size_t>> group_elements(int dim, int group, const std::string& name,
-                                                     const std::string& source) {
+std::vector<std::vector<std::size_t>>
+group_elements(int dim, int group, const std::string& name, const std::string& source) {
   std::vector<int> entities;
   gmsh::model::getEntitiesForPhysicalGroup(dim, group, entities);
   std::vector<std::vector<std::size_t>> elements;
@@ -62,9 +64,10 @@ std::vector<std::vector<std::size_t>> group_elements(int dim, int group, const s
       const int expected = dim == 2 ? 3 : 1; // 4-node quadrangle, 2-node line
       if (types[t] != expected)
         throw InputError(source + ": physical group '" + name + "' holds " +
-                         (dim == 2 ? "cells that are not 4-node quadrilaterals (recombine "
-                                     "the mesh and use first-order elements)"
-                                   : "curve elements that are not 2-node lines"));
+                         (dim == 2
+                              ? "cells that are not 4-node quadrilaterals (recombine "
+                                "the mesh and use first-order elements)"
+                              : "curve elements that are not 2-node lines"));
       const std::size_t per = dim == 2 ? 4 : 2;
       for (std::size_t e = 0; e < element_tags[t].size(); ++e)
         elements.emplace_back(node_tags[t].begin() + e * per,
@@ -84,8 +87,9 @@ GmshMeshData read_current_model(const std::string& source) {
     std::string name;
     gmsh::model::getPhysicalName(dim, tag, name);
     if (name.empty())
-      throw InputError(source + ": physical group " + std::to_string(tag) + " of dimension " +
-                       std::to_string(dim) + " has no name; Settlewell addresses groups by name");
+      throw InputError(source + ": physical group " + std::to_string(tag) +
+                       " of dimension " + std::to_string(dim) +
+                       " has no name; Settlewell addresses groups by name");
     if (dim == 2) {
       for (const auto& nodes : group_elements(2, tag, name, source)) {
         CellData<2> cell;
@@ -98,7 +102,8 @@ GmshMeshData read_current_model(const std::string& source) {
       }
     } else if (dim == 1) {
       for (const auto& nodes : group_elements(1, tag, name, source))
-        data.curve_groups[name].push_back(edge_of(index.at(nodes[0]), index.at(nodes[1])));
+        data.curve_groups[name].push_back(
+            edge_of(index.at(nodes[0]), index.at(nodes[1])));
     }
   }
   if (data.cells.empty())
@@ -107,8 +112,10 @@ GmshMeshData read_current_model(const std::string& source) {
 }
 
 /// Boundary edges (on one cell only) and the curve group of each, if any.
-std::map<Edge, std::string> boundary_edges(const GmshMeshData& data, const std::string& source,
-                                           std::map<std::string, std::vector<Segment>>& internal) {
+std::map<Edge, std::string>
+boundary_edges(const GmshMeshData& data,
+               const std::string& source,
+               std::map<std::string, std::vector<Segment>>& internal) {
   std::map<Edge, int> count;
   for (const auto& cell : data.cells)
     for (const auto& [a, b] : {std::pair{0, 1}, {1, 3}, {3, 2}, {2, 0}})
@@ -124,7 +131,8 @@ std::map<Edge, std::string> boundary_edges(const GmshMeshData& data, const std::
       if (found == boundary.end())
         continue;
       if (!found->second.empty() && found->second != name)
-        throw InputError(source + ": boundary groups '" + found->second + "' and '" + name +
+        throw InputError(source + ": boundary groups '" + found->second + "' and '" +
+                         name +
                          "' share an edge; each boundary edge may belong to one group");
       found->second = name;
       ++on_boundary;
@@ -133,8 +141,9 @@ std::map<Edge, std::string> boundary_edges(const GmshMeshData& data, const std::
       for (const auto& e : edges)
         internal[name].push_back({data.vertices[e.first], data.vertices[e.second]});
     else if (on_boundary != edges.size())
-      throw InputError(source + ": physical curve '" + name +
-                       "' lies partly on the boundary and partly inside; split it in two");
+      throw InputError(
+          source + ": physical curve '" + name +
+          "' lies partly on the boundary and partly inside; split it in two");
   }
   return boundary;
 }
@@ -177,7 +186,9 @@ Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
   return mesh_from_current_model(path, comm);
 }
 
-Mesh make_scenario_mesh(const scenario::Scenario& s, MPI_Comm comm, const std::string& msh_path) {
+Mesh make_scenario_mesh(const scenario::Scenario& s,
+                        MPI_Comm comm,
+                        const std::string& msh_path) {
   if (s.mesh_file)
     return read_gmsh_file(s.mesh_file->path, comm);
   GmshSession session;

@@ -30,7 +30,9 @@ unsigned int boundary_normal_axis(const Mesh& mesh, const std::string& boundary)
         continue;
       const dealii::Tensor<1, 2> d = cell->face(f)->vertex(1) - cell->face(f)->vertex(0);
       const double tol = 1e-8 * d.norm();
-      (std::abs(d[0]) <= tol ? vertical : std::abs(d[1]) <= tol ? horizontal : other) += 1;
+      (std::abs(d[0]) <= tol   ? vertical
+       : std::abs(d[1]) <= tol ? horizontal
+                               : other) += 1;
     }
   }
   const MPI_Comm comm = mesh.triangulation->get_communicator();
@@ -38,9 +40,10 @@ unsigned int boundary_normal_axis(const Mesh& mesh, const std::string& boundary)
   horizontal = dealii::Utilities::MPI::sum(horizontal, comm);
   other = dealii::Utilities::MPI::sum(other, comm);
   if (other > 0 || (vertical > 0 && horizontal > 0) || vertical + horizontal == 0)
-    throw InputError("boundary '" + boundary +
-                     "' is not one straight vertical or horizontal line, so 'roller' has no "
-                     "single normal direction; use fixed or free");
+    throw InputError(
+        "boundary '" + boundary +
+        "' is not one straight vertical or horizontal line, so 'roller' has no "
+        "single normal direction; use fixed or free");
   return vertical > 0 ? 0u : 1u;
 }
 

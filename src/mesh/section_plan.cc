@@ -8,13 +8,17 @@
 
 namespace settlewell {
 
-std::string section_names::well(const std::string& name) { return "well_" + name; }
+std::string section_names::well(const std::string& name) {
+  return "well_" + name;
+}
 
 namespace {
 
 using scenario::Section;
 
-bool near(double a, double b, double tol) { return std::abs(a - b) <= tol; }
+bool near(double a, double b, double tol) {
+  return std::abs(a - b) <= tol;
+}
 
 const std::string& layer_at(const std::vector<scenario::Layer>& layers, double y) {
   for (std::size_t k = 0; k + 1 < layers.size(); ++k)
@@ -74,7 +78,8 @@ std::vector<AxisInterval> x_intervals(const SectionFrame& f) {
     points.push_back(x);
     features.push_back({x, s.mesh.near_well});
   }
-  return grade_axis(unique_breakpoints(points, f.tol), features, s.mesh.far, s.mesh.growth);
+  return grade_axis(unique_breakpoints(points, f.tol), features, s.mesh.far,
+                    s.mesh.growth);
 }
 
 std::vector<AxisInterval> y_intervals(const SectionFrame& f) {
@@ -95,7 +100,8 @@ std::vector<AxisInterval> y_intervals(const SectionFrame& f) {
       points.push_back(y);
       features.push_back({y, s.mesh.near_well});
     }
-  return grade_axis(unique_breakpoints(points, f.tol), features, s.mesh.far, s.mesh.growth);
+  return grade_axis(unique_breakpoints(points, f.tol), features, s.mesh.far,
+                    s.mesh.growth);
 }
 
 } // namespace
@@ -105,7 +111,8 @@ GridPlan section_plan(const Section& s, AnalysisType analysis) {
   GridPlan plan;
   plan.x = x_intervals(f);
   plan.y = y_intervals(f);
-  const std::vector<double> X = corner_coordinates(plan.x), Y = corner_coordinates(plan.y);
+  const std::vector<double> X = corner_coordinates(plan.x),
+                            Y = corner_coordinates(plan.y);
   const double y_exc = s.excavation_level();
 
   plan.region = [=](std::size_t i, std::size_t j) {
@@ -118,7 +125,8 @@ GridPlan section_plan(const Section& s, AnalysisType analysis) {
     if (j == 0)
       g.push_back(section_names::model_base);
     else if (j + 1 == Y.size())
-      g.push_back(f.inside_pit(xc) ? section_names::pit_surface : section_names::ground_surface);
+      g.push_back(f.inside_pit(xc) ? section_names::pit_surface
+                                   : section_names::ground_surface);
     else if (near(y, y_exc, f.tol) && f.inside_pit(xc))
       g.push_back(section_names::excavation_level);
     else if (s.wall && near(y, s.wall->toe, f.tol) && f.in_wall(xc, y + f.tol))
@@ -130,14 +138,18 @@ GridPlan section_plan(const Section& s, AnalysisType analysis) {
     std::vector<std::string> g;
     if (i == 0 && f.axis_well != nullptr) {
       const bool screen = yc > f.axis_well->screen_bottom && yc < f.axis_well->screen_top;
-      g.push_back(screen ? section_names::well(f.axis_well->name) : section_names::well_casing);
+      g.push_back(screen ? section_names::well(f.axis_well->name)
+                         : section_names::well_casing);
     } else if (i == 0) {
-      g.push_back(f.x_min < 0 ? section_names::far_boundary : section_names::symmetry_axis);
+      g.push_back(f.x_min < 0 ? section_names::far_boundary
+                              : section_names::symmetry_axis);
     } else if (i + 1 == X.size()) {
       g.push_back(section_names::far_boundary);
-    } else if (near(std::abs(x), f.half_width, f.tol) && f.wall_at_side(x) && yc > s.wall->toe) {
+    } else if (near(std::abs(x), f.half_width, f.tol) && f.wall_at_side(x) &&
+               yc > s.wall->toe) {
       g.push_back(section_names::wall_inner_face);
-    } else if (near(std::abs(x), f.outer, f.tol) && f.wall_at_side(x) && yc > s.wall->toe) {
+    } else if (near(std::abs(x), f.outer, f.tol) && f.wall_at_side(x) &&
+               yc > s.wall->toe) {
       g.push_back(section_names::wall_outer_face);
     }
     if (!f.axisymmetric)
@@ -158,7 +170,8 @@ GridPlan box_plan(const scenario::Box& box) {
   tops.push_back(box.bottom);
   for (std::size_t k = tops.size() - 1; k > 0; --k) {
     const double h = tops[k - 1] - tops[k];
-    const auto n = static_cast<unsigned int>(std::max(1.0, std::ceil(h / box.cell_height - 1e-9)));
+    const auto n =
+        static_cast<unsigned int>(std::max(1.0, std::ceil(h / box.cell_height - 1e-9)));
     plan.y.push_back({tops[k], tops[k - 1], n, 1.0});
   }
   const std::vector<double> Y = corner_coordinates(plan.y);

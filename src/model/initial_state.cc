@@ -69,8 +69,8 @@ std::vector<std::pair<double, double>> head_knots(const scenario::Scenario& s) {
 }
 
 /// Linear interpolation in a top-down list of (y, value) knots.
-std::pair<double, double> value_and_slope(const std::vector<std::pair<double, double>>& knots,
-                                          double y) {
+std::pair<double, double>
+value_and_slope(const std::vector<std::pair<double, double>>& knots, double y) {
   if (y >= knots.front().first)
     return {knots.front().second, 0.0};
   for (std::size_t i = 1; i < knots.size(); ++i) {
@@ -86,7 +86,8 @@ std::pair<double, double> value_and_slope(const std::vector<std::pair<double, do
 
 } // namespace
 
-InitialState::InitialState(const scenario::Scenario& s, const Mesh& mesh) : gamma_w_(s.gamma_w) {
+InitialState::InitialState(const scenario::Scenario& s, const Mesh& mesh)
+    : gamma_w_(s.gamma_w) {
   const auto regions = region_materials(s, mesh);
   for (const auto& [region, material] : regions) {
     const auto id = mesh.names.region_id(region);
@@ -106,7 +107,8 @@ InitialState::InitialState(const scenario::Scenario& s, const Mesh& mesh) : gamm
     if (!s.groundwater.layer_heads.empty())
       throw InputError(s.location_of("groundwater") +
                        ": groundwater.layer_heads needs a [section] or [box] geometry");
-    head_knots_ = {{top_, s.groundwater.water_table}, {top_ - 1.0, s.groundwater.water_table}};
+    head_knots_ = {{top_, s.groundwater.water_table},
+                   {top_ - 1.0, s.groundwater.water_table}};
   }
 }
 
@@ -124,13 +126,15 @@ double InitialState::pore_pressure(const Point<2>& x) const {
   return gamma_w_ * (head(x) - x[1]);
 }
 
-double InitialState::vertical_total_stress(const Point<2>& x, types::material_id region) const {
+double InitialState::vertical_total_stress(const Point<2>& x,
+                                           types::material_id region) const {
   if (weight_knots_.empty()) // a user's mesh: the local unit weight over the full depth
     return region_unit_weight_.at(region) * std::max(0.0, top_ - x[1]);
   double stress = 0.0;
   for (std::size_t k = 0; k < weight_knots_.size(); ++k) {
     const double layer_top = weight_knots_[k].first;
-    const double layer_bottom = k + 1 < weight_knots_.size() ? weight_knots_[k + 1].first : -1e300;
+    const double layer_bottom =
+        k + 1 < weight_knots_.size() ? weight_knots_[k + 1].first : -1e300;
     if (x[1] >= layer_top)
       break;
     stress += weight_knots_[k].second * (layer_top - std::max(x[1], layer_bottom));

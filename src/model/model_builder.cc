@@ -38,8 +38,8 @@ std::map<std::string, std::string> region_materials(const Scenario& s, const Mes
     if (found == out.end() && s.mesh_file && s.materials.count(region))
       found = out.emplace(region, region).first; // a region named after its material
     if (found == out.end())
-      throw InputError(s.location_of(s.mesh_file ? "mesh_file" : "materials") + ": region '" +
-                       region + "' of the mesh has no material" +
+      throw InputError(s.location_of(s.mesh_file ? "mesh_file" : "materials") +
+                       ": region '" + region + "' of the mesh has no material" +
                        (s.mesh_file ? "; add it under [mesh_file.regions]" : ""));
     used.insert(*found);
   }
@@ -108,17 +108,22 @@ struct ControlItem {
   std::optional<std::function<double(const Point<2>&)>> initial;
 };
 
-void require_line(const Scenario& s, const Mesh& mesh, const std::string& line,
-                  const std::string& where, const std::string& what) {
+void require_line(const Scenario& s,
+                  const Mesh& mesh,
+                  const std::string& line,
+                  const std::string& where,
+                  const std::string& what) {
   if (!mesh.has_line(line))
-    throw InputError(s.location_of(where) + ": " + what + ": the mesh has no line named '" +
-                     line + "'");
+    throw InputError(s.location_of(where) + ": " + what +
+                     ": the mesh has no line named '" + line + "'");
 }
 
-std::map<std::string, ControlItem> hydraulic_items(const Scenario& s, const Mesh& mesh,
-                                                   const InitialState& initial,
-                                                   const std::map<std::string, BoundarySpec>& roles,
-                                                   std::vector<PumpedLine>& pumped) {
+std::map<std::string, ControlItem>
+hydraulic_items(const Scenario& s,
+                const Mesh& mesh,
+                const InitialState& initial,
+                const std::map<std::string, BoundarySpec>& roles,
+                std::vector<PumpedLine>& pumped) {
   std::map<std::string, ControlItem> items;
   const std::size_t n = s.stages.size();
   auto item = [&](const std::string& line) -> ControlItem& {
@@ -143,7 +148,8 @@ std::map<std::string, ControlItem> hydraulic_items(const Scenario& s, const Mesh
     }
     for (const auto& [well, target] : stage.wells) {
       const std::string line = s.section ? section_names::well(well) : well;
-      require_line(s, mesh, line, where, "stage '" + stage.name + "' well '" + well + "'");
+      require_line(s, mesh, line, where,
+                   "stage '" + stage.name + "' well '" + well + "'");
       item(line).targets[k] = target;
     }
     if (stage.excavation_level_head)
@@ -157,15 +163,19 @@ std::map<std::string, ControlItem> hydraulic_items(const Scenario& s, const Mesh
   if (!s.section)
     for (const auto& stage : s.stages)
       for (const auto& [well, target] : stage.wells)
-        if (std::none_of(pumped.begin(), pumped.end(), [&](auto& p) { return p.line == well; }))
+        if (std::none_of(pumped.begin(), pumped.end(),
+                         [&](auto& p) { return p.line == well; }))
           pumped.push_back({well, well});
   if (items.count(section_names::excavation_level))
     pumped.push_back({section_names::excavation_level, section_names::excavation_level});
   return items;
 }
 
-void add_hydraulic(const Scenario& s, const Mesh& mesh, const InitialState& initial,
-                   const Schedule& schedule, const std::map<std::string, ControlItem>& items,
+void add_hydraulic(const Scenario& s,
+                   const Mesh& mesh,
+                   const InitialState& initial,
+                   const Schedule& schedule,
+                   const std::map<std::string, ControlItem>& items,
                    BoundaryConditions& bc) {
   auto h0 = [&initial](const Point<2>& x) { return initial.head(x); };
   for (const auto& [line, item] : items) {
@@ -177,13 +187,15 @@ void add_hydraulic(const Scenario& s, const Mesh& mesh, const InitialState& init
       }
       // A discharge (m^3/s per metre run, or per well) spread evenly over the line.
       const FieldFunction q = phase.value;
-      bc.outflow(line, [q, measure](const Point<2>& x, double t) { return q(x, t) / measure; },
-                 phase.window);
+      bc.outflow(
+          line, [q, measure](const Point<2>& x, double t) { return q(x, t) / measure; },
+          phase.window);
     }
   }
 }
 
-void add_mechanical(const Mesh& mesh, const std::map<std::string, BoundarySpec>& roles,
+void add_mechanical(const Mesh& mesh,
+                    const std::map<std::string, BoundarySpec>& roles,
                     BoundaryConditions& bc) {
   for (const auto& [name, spec] : roles) {
     if (spec.mechanical == BoundarySpec::Mechanical::fixed)
@@ -195,7 +207,9 @@ void add_mechanical(const Mesh& mesh, const std::map<std::string, BoundarySpec>&
   }
 }
 
-void add_loads(const Scenario& s, const Mesh& mesh, const Schedule& schedule,
+void add_loads(const Scenario& s,
+               const Mesh& mesh,
+               const Schedule& schedule,
                BoundaryConditions& bc) {
   // Each loaded strip is an item whose pressure ramps like a discharge (from 0).
   struct Strip {
@@ -207,21 +221,24 @@ void add_loads(const Scenario& s, const Mesh& mesh, const Schedule& schedule,
     for (const auto& load : s.stages[k].loads) {
       if (!mesh.names.has_boundary(load.boundary))
         throw InputError(s.location_of("stages." + s.stages[k].name) + ": stage '" +
-                         s.stages[k].name + "' load: no boundary named '" + load.boundary + "'");
+                         s.stages[k].name + "' load: no boundary named '" +
+                         load.boundary + "'");
       auto& list = strips[load.boundary];
       auto found = std::find_if(list.begin(), list.end(), [&](const Strip& st) {
         return st.x_from == load.x_from && st.x_to == load.x_to;
       });
       if (found == list.end())
         found = list.insert(list.end(),
-                            Strip{load.x_from, load.x_to, std::vector<std::optional<Target>>(s.stages.size())});
+                            Strip{load.x_from, load.x_to,
+                                  std::vector<std::optional<Target>>(s.stages.size())});
       found->targets[k] = Target{Target::Kind::discharge, load.pressure};
     }
   auto zero = [](const Point<2>&) { return 0.0; };
   for (const auto& [boundary, list] : strips) {
     std::vector<std::tuple<double, double, FieldFunction>> pieces;
     for (const auto& strip : list)
-      for (const auto& phase : control_phases(schedule, strip.targets, std::nullopt, zero))
+      for (const auto& phase :
+           control_phases(schedule, strip.targets, std::nullopt, zero))
         pieces.emplace_back(strip.x_from, strip.x_to, phase.value);
     bc.normal_traction(boundary, [pieces](const Point<2>& x, double t) {
       double pressure = 0.0;
@@ -260,7 +277,9 @@ std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh
   return roles;
 }
 
-Model build_model(const Scenario& s, const Mesh& mesh, const InitialState& initial,
+Model build_model(const Scenario& s,
+                  const Mesh& mesh,
+                  const InitialState& initial,
                   const Schedule& schedule) {
   Model model;
   BiotSetup& setup = model.setup;

@@ -10,7 +10,8 @@ namespace settlewell::model {
 
 namespace {
 
-std::vector<double> stage_output_times(const StageTimes& st, double first, unsigned int n) {
+std::vector<double>
+stage_output_times(const StageTimes& st, double first, unsigned int n) {
   // n times log-spaced from the first step to the stage end (the end itself is
   // always written).
   std::vector<double> times;
@@ -42,7 +43,8 @@ Schedule::Schedule(const scenario::Scenario& s) {
     const double ramp = st.ramp_end - st.start;
     const double default_largest =
         ramp > 0.0 ? std::min(duration / 10.0, ramp / 100.0) : duration / 10.0;
-    const double largest = std::max(first, steps.largest > 0.0 ? steps.largest : default_largest);
+    const double largest =
+        std::max(first, steps.largest > 0.0 ? steps.largest : default_largest);
     std::vector<double> must_hit{st.end};
     if (st.ramp_end > st.start && st.ramp_end < st.end)
       must_hit.push_back(st.ramp_end);
@@ -56,8 +58,8 @@ Schedule::Schedule(const scenario::Scenario& s) {
     for (const double o : outputs_)
       if (o > st.start && o <= st.end)
         must_hit.push_back(o);
-    const auto stage_steps =
-        merge_times(growing_times(st.start, st.end, first, steps.growth, largest), must_hit);
+    const auto stage_steps = merge_times(
+        growing_times(st.start, st.end, first, steps.growth, largest), must_hit);
     steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());
   }
   std::sort(outputs_.begin(), outputs_.end());
@@ -74,8 +76,9 @@ std::size_t Schedule::stage_at(double t) const {
 }
 
 bool Schedule::is_output_time(double t) const {
-  return std::any_of(outputs_.begin(), outputs_.end(),
-                     [t](double o) { return std::abs(o - t) <= 1e-9 * std::max(1.0, o); });
+  return std::any_of(outputs_.begin(), outputs_.end(), [t](double o) {
+    return std::abs(o - t) <= 1e-9 * std::max(1.0, o);
+  });
 }
 
 namespace {
@@ -96,9 +99,10 @@ FieldFunction phase_value(std::vector<ControlSegment> segments) {
         seg = &s;
         break;
       }
-    const double w = seg->ramp_end > seg->start
-                         ? std::clamp((t - seg->start) / (seg->ramp_end - seg->start), 0.0, 1.0)
-                         : 1.0;
+    const double w =
+        seg->ramp_end > seg->start
+            ? std::clamp((t - seg->start) / (seg->ramp_end - seg->start), 0.0, 1.0)
+            : 1.0;
     const double from = seg->from(x);
     return from + w * (seg->to(x) - from);
   };
@@ -109,14 +113,16 @@ FieldFunction phase_value(std::vector<ControlSegment> segments) {
 std::vector<ControlPhase>
 control_phases(const Schedule& schedule,
                const std::vector<std::optional<scenario::Target>>& targets,
-               const std::optional<PointFunction>& initial, const PointFunction& initial_head) {
+               const std::optional<PointFunction>& initial,
+               const PointFunction& initial_head) {
   using Kind = scenario::Target::Kind;
   std::vector<ControlPhase> phases;
   std::vector<ControlSegment> current;
   auto close_phase = [&]() {
     if (current.empty())
       return;
-    phases.push_back({current.front().kind, {current.front().start, current.back().end},
+    phases.push_back({current.front().kind,
+                      {current.front().start, current.back().end},
                       phase_value(current)});
     current.clear();
   };

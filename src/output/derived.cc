@@ -41,8 +41,10 @@ Derivation::Derivation(const BiotProblem& problem, InitialFields initial)
   }
 }
 
-DerivedState Derivation::at(const Point<2>& x, types::material_id region,
-                            const Vector<double>& v, const std::vector<Tensor<1, 2>>& grad) const {
+DerivedState Derivation::at(const Point<2>& x,
+                            types::material_id region,
+                            const Vector<double>& v,
+                            const std::vector<Tensor<1, 2>>& grad) const {
   DerivedState d;
   const PoroelasticMaterial& m = materials_.at(region);
   const double dp = v[FieldLayout::pressure];
@@ -68,7 +70,8 @@ DerivedState Derivation::at(const Point<2>& x, types::material_id region,
   d.deviator_stress = std::sqrt(1.5 * (s * s));
   d.vertical_effective_stress = -d.effective_stress[1][1];
 
-  Tensor<1, 2> head_gradient = initial_.head_gradient(x) + grad[FieldLayout::pressure] / gamma_w_;
+  Tensor<1, 2> head_gradient =
+      initial_.head_gradient(x) + grad[FieldLayout::pressure] / gamma_w_;
   d.darcy_flux[0] = -m.conductivity_x * head_gradient[0];
   d.darcy_flux[1] = -m.conductivity_y * head_gradient[1];
   return d;

@@ -20,30 +20,51 @@ namespace {
 /// Fields derived point by point from the primary unknowns (see DerivedState).
 class DerivedFields : public DataPostprocessor<2> {
 public:
-  explicit DerivedFields(const Derivation& derivation) : derivation_(derivation) {}
+  explicit DerivedFields(const Derivation& derivation)
+      : derivation_(derivation) {}
 
   void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
                              std::vector<Vector<double>>& out) const override {
     const auto cell = in.template get_cell<2>();
     for (unsigned int q = 0; q < in.solution_values.size(); ++q) {
-      const DerivedState d = derivation_.at(in.evaluation_points[q], cell->material_id(),
-                                            in.solution_values[q], in.solution_gradients[q]);
-      const std::vector<double> values{
-          d.settlement, d.head, d.drawdown, d.pore_pressure, d.mean_effective_stress,
-          d.deviator_stress, d.vertical_effective_stress, d.volumetric_strain,
-          d.effective_stress[2][2], d.darcy_flux[0], d.darcy_flux[1],
-          d.effective_stress[0][0], d.effective_stress[0][1], d.effective_stress[0][1],
-          d.effective_stress[1][1]};
+      const DerivedState d =
+          derivation_.at(in.evaluation_points[q], cell->material_id(),
+                         in.solution_values[q], in.solution_gradients[q]);
+      const std::vector<double> values{d.settlement,
+                                       d.head,
+                                       d.drawdown,
+                                       d.pore_pressure,
+                                       d.mean_effective_stress,
+                                       d.deviator_stress,
+                                       d.vertical_effective_stress,
+                                       d.volumetric_strain,
+                                       d.effective_stress[2][2],
+                                       d.darcy_flux[0],
+                                       d.darcy_flux[1],
+                                       d.effective_stress[0][0],
+                                       d.effective_stress[0][1],
+                                       d.effective_stress[0][1],
+                                       d.effective_stress[1][1]};
       for (unsigned int c = 0; c < values.size(); ++c)
         out[q][c] = values[c];
     }
   }
   std::vector<std::string> get_names() const override {
-    return {"settlement",     "hydraulic_head",   "drawdown",
-            "pore_pressure",  "mean_effective_stress", "deviator_stress",
-            "vertical_effective_stress", "volumetric_strain",
-            "effective_stress_out_of_plane", "darcy_flux", "darcy_flux",
-            "effective_stress", "effective_stress", "effective_stress", "effective_stress"};
+    return {"settlement",
+            "hydraulic_head",
+            "drawdown",
+            "pore_pressure",
+            "mean_effective_stress",
+            "deviator_stress",
+            "vertical_effective_stress",
+            "volumetric_strain",
+            "effective_stress_out_of_plane",
+            "darcy_flux",
+            "darcy_flux",
+            "effective_stress",
+            "effective_stress",
+            "effective_stress",
+            "effective_stress"};
   }
   std::vector<DataComponentInterpretation::DataComponentInterpretation>
   get_data_component_interpretation() const override {
@@ -64,7 +85,9 @@ private:
 
 } // namespace
 
-FieldWriter::FieldWriter(std::string directory, std::string basename, MPI_Comm comm,
+FieldWriter::FieldWriter(std::string directory,
+                         std::string basename,
+                         MPI_Comm comm,
                          std::optional<InitialFields> initial)
     : directory_(std::move(directory))
     , basename_(std::move(basename))
@@ -88,8 +111,8 @@ std::string FieldWriter::write(const BiotProblem& problem) {
       DataComponentInterpretation::component_is_part_of_vector,
       DataComponentInterpretation::component_is_scalar};
   data_out.add_data_vector(problem.solution(), names, DataOut<2>::type_dof_data, kinds);
-  const Derivation derivation(problem,
-                              initial_ ? *initial_ : InitialFields::from_setup(problem.setup()));
+  const Derivation derivation(
+      problem, initial_ ? *initial_ : InitialFields::from_setup(problem.setup()));
   const DerivedFields derived(derivation);
   data_out.add_data_vector(problem.solution(), derived);
 

@@ -29,10 +29,12 @@ locate(const BiotProblem& problem, const GridTools::Cache<2>& cache, const Point
 
 } // namespace
 
-SamplePoints::SamplePoints(const BiotProblem& problem, std::vector<Point<2>> points,
+SamplePoints::SamplePoints(const BiotProblem& problem,
+                           std::vector<Point<2>> points,
                            const std::string& what)
     : points_(std::move(points)) {
-  const GridTools::Cache<2> cache(problem.dof_handler().get_triangulation(), problem.mapping());
+  const GridTools::Cache<2> cache(problem.dof_handler().get_triangulation(),
+                                  problem.mapping());
   const MPI_Comm comm = problem.communicator();
   const unsigned int rank = Utilities::MPI::this_mpi_process(comm);
   std::vector<unsigned int> owner(points_.size()), first_owner(points_.size());
@@ -40,8 +42,8 @@ SamplePoints::SamplePoints(const BiotProblem& problem, std::vector<Point<2>> poi
     located_.push_back(locate(problem, cache, points_[i]));
     owner[i] = located_.back() ? rank : std::numeric_limits<unsigned int>::max();
   }
-  MPI_Allreduce(owner.data(), first_owner.data(), int(owner.size()), MPI_UNSIGNED, MPI_MIN,
-                comm);
+  MPI_Allreduce(owner.data(), first_owner.data(), int(owner.size()), MPI_UNSIGNED,
+                MPI_MIN, comm);
   for (std::size_t i = 0; i < points_.size(); ++i) {
     if (first_owner[i] == std::numeric_limits<unsigned int>::max()) {
       std::ostringstream os;
@@ -67,8 +69,8 @@ locate(const BiotProblem& problem, const GridTools::Cache<2>& cache, const Point
     if (first.first.state() != IteratorState::valid)
       return nullptr;
     const DoFHandler<2>::active_cell_iterator dof_cell(
-        &problem.dof_handler().get_triangulation(), first.first->level(), first.first->index(),
-        &problem.dof_handler());
+        &problem.dof_handler().get_triangulation(), first.first->level(),
+        first.first->index(), &problem.dof_handler());
     cells = GridTools::find_all_active_cells_around_point(
         problem.mapping(), problem.dof_handler(), p, 1e-10, {dof_cell, first.second});
   } catch (const std::exception&) {
@@ -76,7 +78,8 @@ locate(const BiotProblem& problem, const GridTools::Cache<2>& cache, const Point
   }
   for (const auto& [cell, reference] : cells)
     if (cell->is_locally_owned())
-      return std::make_unique<SamplePoints::Located>(SamplePoints::Located{cell, reference});
+      return std::make_unique<SamplePoints::Located>(
+          SamplePoints::Located{cell, reference});
   return nullptr;
 }
 
@@ -85,12 +88,17 @@ locate(const BiotProblem& problem, const GridTools::Cache<2>& cache, const Point
 std::vector<SampleValues> SamplePoints::evaluate(const BiotProblem& problem,
                                                  const Derivation& derivation) const {
   using S = SampleValues;
-  static constexpr double S::*fields[] = {
-      &S::ux,       &S::settlement,    &S::head,
-      &S::drawdown, &S::pore_pressure, &S::excess_pore_pressure,
-      &S::vertical_effective_stress,   &S::mean_effective_stress,
-      &S::deviator_stress,             &S::flux_x,
-      &S::flux_y};
+  static constexpr double S::*fields[] = {&S::ux,
+                                          &S::settlement,
+                                          &S::head,
+                                          &S::drawdown,
+                                          &S::pore_pressure,
+                                          &S::excess_pore_pressure,
+                                          &S::vertical_effective_stress,
+                                          &S::mean_effective_stress,
+                                          &S::deviator_stress,
+                                          &S::flux_x,
+                                          &S::flux_y};
   constexpr std::size_t n_fields = std::size(fields);
   // Each point has one owner: sum the packed values over processes.
   std::vector<double> local(points_.size() * n_fields, 0.0), total(local.size());
@@ -106,8 +114,8 @@ std::vector<SampleValues> SamplePoints::evaluate(const BiotProblem& problem,
     fv.reinit(located_[i]->cell);
     fv.get_function_values(problem.solution(), values);
     fv.get_function_gradients(problem.solution(), gradients);
-    const DerivedState d =
-        derivation.at(points_[i], located_[i]->cell->material_id(), values[0], gradients[0]);
+    const DerivedState d = derivation.at(points_[i], located_[i]->cell->material_id(),
+                                         values[0], gradients[0]);
     const S sample{values[0][FieldLayout::ux],
                    d.settlement,
                    d.head,

@@ -16,9 +16,9 @@
 
 #include <algorithm>
 #include <chrono>
-#include <set>
 #include <cmath>
 #include <limits>
+#include <set>
 #include <unordered_map>
 
 namespace settlewell {
@@ -71,16 +71,21 @@ struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
   ConstraintInputs constraint_inputs() const {
-    return {dof_handler, layout,   conditions,        plate, setup.rigid_skeleton,
-            owned,       relevant, pressure_line_dofs};
+    return {dof_handler,          layout, conditions, plate,
+            setup.rigid_skeleton, owned,  relevant,   pressure_line_dofs};
   }
   void setup_dofs();
   void find_internal_lines();
-  void add_line_fluxes(CellKernel& kernel, const DoFHandler<2>::active_cell_iterator& cell,
-                       double t, double dt, Vector<double>& cell_rhs) const;
+  void add_line_fluxes(CellKernel& kernel,
+                       const DoFHandler<2>::active_cell_iterator& cell,
+                       double t,
+                       double dt,
+                       Vector<double>& cell_rhs) const;
   void add_old_state_and_fluxes(CellKernel& kernel,
-                                const DoFHandler<2>::active_cell_iterator& cell, double t,
-                                double dt, Vector<double>& cell_rhs) const;
+                                const DoFHandler<2>::active_cell_iterator& cell,
+                                double t,
+                                double dt,
+                                Vector<double>& cell_rhs) const;
   double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
   double prescribed_outflow(const FluxBoundary& flux) const;
   void assemble_matrix(double dt);
@@ -164,8 +169,8 @@ void BiotProblem::Impl::find_internal_lines() {
   line_flux_faces.clear();
   for (std::size_t k = 0; k < conditions.fluxes.size(); ++k)
     if (conditions.fluxes[k].line.internal)
-      for (const auto& lf :
-           faces_on_line(dof_handler, mesh.internal_lines.at(conditions.fluxes[k].line.name)))
+      for (const auto& lf : faces_on_line(
+               dof_handler, mesh.internal_lines.at(conditions.fluxes[k].line.name)))
         line_flux_faces[lf.cell->active_cell_index()].emplace_back(lf.face, k);
 }
 
@@ -219,7 +224,9 @@ void BiotProblem::Impl::add_face_terms(CellKernel& kernel,
 
 void BiotProblem::Impl::add_line_fluxes(CellKernel& kernel,
                                         const DoFHandler<2>::active_cell_iterator& cell,
-                                        double t, double dt, Vector<double>& cell_rhs) const {
+                                        double t,
+                                        double dt,
+                                        Vector<double>& cell_rhs) const {
   const auto found = line_flux_faces.find(cell->active_cell_index());
   if (found == line_flux_faces.end())
     return;
@@ -229,7 +236,10 @@ void BiotProblem::Impl::add_line_fluxes(CellKernel& kernel,
 }
 
 void BiotProblem::Impl::add_old_state_and_fluxes(
-    CellKernel& kernel, const DoFHandler<2>::active_cell_iterator& cell, double t, double dt,
+    CellKernel& kernel,
+    const DoFHandler<2>::active_cell_iterator& cell,
+    double t,
+    double dt,
     Vector<double>& cell_rhs) const {
   kernel.add_old_state(coefficients[cell->material_id()], old_solution, cell_rhs);
   if (cell->at_boundary())
@@ -276,7 +286,8 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
   rhs.compress(VectorOperation::add);
 }
 
-double BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
+double
+BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
   // The consistent flux: at a prescribed-pressure dof, the storage-equation row of
   // the unconstrained system minus its right-hand side is dt times the water that
   // leaves through that dof's share of the line.
@@ -290,7 +301,8 @@ double BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_inde
     if (!cell->is_locally_owned())
       continue;
     cell->get_dof_indices(dofs);
-    if (std::none_of(dofs.begin(), dofs.end(), [&](auto d) { return line.count(d) != 0; }))
+    if (std::none_of(dofs.begin(), dofs.end(),
+                     [&](auto d) { return line.count(d) != 0; }))
       continue;
     kernel.reinit(cell);
     cell_matrix = 0.0;

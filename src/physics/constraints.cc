@@ -157,7 +157,8 @@ void add_plate(const ConstraintInputs& in, AffineConstraints<double>& constraint
                in.dof_handler.get_communicator());
 }
 
-void add_pressures(const ConstraintInputs& in, double t,
+void add_pressures(const ConstraintInputs& in,
+                   double t,
                    AffineConstraints<double>& constraints) {
   const auto& pressures = in.conditions.pressures;
   for (std::size_t k = 0; k < pressures.size(); ++k) {
@@ -166,7 +167,8 @@ void add_pressures(const ConstraintInputs& in, double t,
       continue;
     if (!bc.line.internal) {
       const ExcessPressureValues values(bc.excess_pressure, t);
-      VectorTools::interpolate_boundary_values(in.dof_handler, bc.line.id, values, constraints,
+      VectorTools::interpolate_boundary_values(in.dof_handler, bc.line.id, values,
+                                               constraints,
                                                in.layout.mask_of(FieldLayout::pressure));
       continue;
     }
@@ -188,8 +190,10 @@ std::vector<bool> active_pressures(const ResolvedConditions& conditions, double 
   return active;
 }
 
-void make_constraints(const ConstraintInputs& in, double t,
-                      AffineConstraints<double>& constraints, bool with_pressures) {
+void make_constraints(const ConstraintInputs& in,
+                      double t,
+                      AffineConstraints<double>& constraints,
+                      bool with_pressures) {
   constraints.clear();
   constraints.reinit(in.locally_relevant);
   DoFTools::make_hanging_node_constraints(in.dof_handler, constraints);

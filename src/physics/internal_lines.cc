@@ -10,11 +10,12 @@ using namespace dealii;
 
 namespace {
 
-bool face_on_line(const DoFHandler<2>::face_iterator& face, const std::vector<Segment>& line) {
+bool face_on_line(const DoFHandler<2>::face_iterator& face,
+                  const std::vector<Segment>& line) {
   const double tol = 1e-6 * face->diameter();
   for (const auto& segment : line)
-    if (segment.contains(face->vertex(0), tol) && segment.contains(face->vertex(1), tol) &&
-        segment.contains(face->center(), tol))
+    if (segment.contains(face->vertex(0), tol) &&
+        segment.contains(face->vertex(1), tol) && segment.contains(face->center(), tol))
       return true;
   return false;
 }
@@ -22,7 +23,8 @@ bool face_on_line(const DoFHandler<2>::face_iterator& face, const std::vector<Se
 } // namespace
 
 std::vector<std::pair<types::global_dof_index, Point<2>>>
-pressure_dofs_on_line(const DoFHandler<2>& dof_handler, const std::vector<Segment>& line) {
+pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
+                      const std::vector<Segment>& line) {
   // Vertex dofs of the FESystem come in base-element order: ux, uy, then p.
   const unsigned int p_index_at_vertex = FieldLayout::pressure;
   std::set<types::global_dof_index> seen;

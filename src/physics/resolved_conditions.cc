@@ -32,11 +32,13 @@ LineRef line_of(const std::string& name, const Mesh& mesh) {
     known += (known.empty() ? "" : ", ") + b;
   for (const auto& [line, segments] : mesh.internal_lines)
     known += (known.empty() ? "" : ", ") + line;
-  throw InputError("no boundary or internal line named '" + name + "' in the mesh (known: " +
-                   known + ")");
+  throw InputError("no boundary or internal line named '" + name +
+                   "' in the mesh (known: " + known + ")");
 }
 
-void resolve_hydraulic(const BiotSetup& setup, const Mesh& mesh, ResolvedConditions& out) {
+void resolve_hydraulic(const BiotSetup& setup,
+                       const Mesh& mesh,
+                       ResolvedConditions& out) {
   std::map<std::string, std::vector<TimeWindow>> seen;
   for (const auto& c : setup.conditions.hydraulic) {
     const LineRef line = line_of(c.boundary, mesh);
@@ -44,7 +46,8 @@ void resolve_hydraulic(const BiotSetup& setup, const Mesh& mesh, ResolvedConditi
       throw InputError("hydraulic condition on '" + c.boundary + "' has no value");
     for (const auto& w : seen[c.boundary])
       if (w.overlaps(c.window))
-        throw InputError("'" + c.boundary + "' has two hydraulic conditions at the same time");
+        throw InputError("'" + c.boundary +
+                         "' has two hydraulic conditions at the same time");
     seen[c.boundary].push_back(c.window);
     if (c.kind == HydraulicCondition::Kind::normal_flux)
       out.fluxes.push_back({line, c.value, c.window});

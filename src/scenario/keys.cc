@@ -139,7 +139,8 @@ std::string nearest(const std::string& key, const std::vector<std::string>& cand
       row[0] = i;
       for (std::size_t j = 1; j <= b.size(); ++j) {
         const std::size_t up = row[j];
-        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] != b[j - 1])});
+        row[j] =
+            std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] != b[j - 1])});
         diagonal = up;
       }
     }
@@ -159,20 +160,27 @@ std::string nearest(const std::string& key, const std::vector<std::string>& cand
 
 void print_key_reference(std::ostream& out) {
   out << "Scenario keys (TOML). Times in days, lengths and elevations in m, stresses in\n"
-         "kPa, conductivities in m/s. <name> is a name you choose; [] an array element.\n";
+         "kPa, conductivities in m/s. <name> is a name you choose; [] an array "
+         "element.\n";
   std::string table;
   for (const auto& key : all_keys()) {
     const std::string path = key.path;
-    const std::string this_table = path.substr(0, path.rfind('.') == std::string::npos
-                                                      ? 0
-                                                      : path.rfind('.'));
+    const std::string this_table =
+        path.substr(0, path.rfind('.') == std::string::npos ? 0 : path.rfind('.'));
     if (this_table != table) {
       table = this_table;
       out << '\n' << (table.empty() ? "(top level)" : "[" + table + "]") << '\n';
     }
-    out << "  " << std::left << std::setw(24) << path.substr(table.empty() ? 0 : table.size() + 1)
-        << std::setw(18) << key.type << std::setw(8) << key.unit << key.doc
-        << " (default: " << key.default_value << ")\n";
+    out << "  " << std::left << std::setw(24)
+        << path.substr(table.empty() ? 0 : table.size() + 1) << std::setw(18) << key.type
+        << std::setw(8) << key.unit << key.doc;
+    const std::string fallback = key.default_value;
+    if (fallback == "required")
+      out << " (required)\n";
+    else if (fallback == "-")
+      out << '\n';
+    else
+      out << " (default: " << fallback << ")\n";
   }
 }
 

@@ -38,11 +38,11 @@ Material read_material(const std::string& name, const TableReader& r) {
   if (r.has("youngs_modulus"))
     p.youngs_modulus = r.positive("youngs_modulus");
   else if (r.has("constrained_modulus"))
-    p.youngs_modulus =
-        PoroelasticMaterial::youngs_from_mv(1.0 / r.positive("constrained_modulus"),
-                                            p.poisson_ratio);
+    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(
+        1.0 / r.positive("constrained_modulus"), p.poisson_ratio);
   else
-    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(r.positive("mv"), p.poisson_ratio);
+    p.youngs_modulus =
+        PoroelasticMaterial::youngs_from_mv(r.positive("mv"), p.poisson_ratio);
 
   if (r.has("conductivity") == (r.has("conductivity_x") || r.has("conductivity_y")))
     r.fail_here("give conductivity, or both conductivity_x and conductivity_y");
@@ -64,7 +64,8 @@ Material read_material(const std::string& name, const TableReader& r) {
     const double Kw = r.number_or("water_bulk_modulus", 2.2e6);
     if (!(Kw > 0.0))
       r.fail("water_bulk_modulus", "must be positive");
-    const double inverse_Ks = r.has("grain_bulk_modulus") ? 1.0 / r.positive("grain_bulk_modulus") : 0.0;
+    const double inverse_Ks =
+        r.has("grain_bulk_modulus") ? 1.0 / r.positive("grain_bulk_modulus") : 0.0;
     p.storage = (p.biot_alpha - n) * inverse_Ks + n / Kw; // (alpha - n)/Ks + n/Kw
     if (p.storage < 0.0)
       r.fail("porosity", "gives a negative storage (alpha < n with finite Ks)");
@@ -102,13 +103,15 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
   if (heads == nullptr)
     return;
   const auto regions = region_names(s);
-  const TableReader h(*heads, "groundwater.layer_heads", "groundwater.layer_heads", top.file());
+  const TableReader h(*heads, "groundwater.layer_heads", "groundwater.layer_heads",
+                      top.file());
   for (const auto& [key, node] : *heads) {
     const std::string name(key.str());
     if (std::find(regions.begin(), regions.end(), name) == regions.end()) {
       const std::string suggestion = nearest(name, regions);
-      h.fail(name, "is not a layer" +
-                       (suggestion.empty() ? std::string() : "; did you mean '" + suggestion + "'?"));
+      h.fail(name, "is not a layer" + (suggestion.empty()
+                                           ? std::string()
+                                           : "; did you mean '" + suggestion + "'?"));
     }
     s.groundwater.layer_heads[name] = h.number(name);
   }
@@ -140,7 +143,8 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
     else if (!mechanical.empty())
       r.fail("mechanical", "must be free, fixed or roller (got '" + mechanical + "')");
     s.boundaries[name] = b;
-    s.locations["boundaries." + name] = r.where(r.has("hydraulic") ? "hydraulic" : "mechanical");
+    s.locations["boundaries." + name] =
+        r.where(r.has("hydraulic") ? "hydraulic" : "mechanical");
   });
 }
 

@@ -15,8 +15,8 @@ std::string fmt(double v) {
   return os.str();
 }
 
-std::vector<Layer> read_layers(const TableReader& r, const Scenario& s, double top,
-                               double bottom) {
+std::vector<Layer>
+read_layers(const TableReader& r, const Scenario& s, double top, double bottom) {
   std::vector<Layer> layers;
   std::set<std::string> names;
   for_each_table(r, "layers", [&](const TableReader& l) {
@@ -27,7 +27,8 @@ std::vector<Layer> read_layers(const TableReader& r, const Scenario& s, double t
     if (!s.materials.count(layer.material))
       l.fail("material", "no material named '" + layer.material + "'");
     if (layers.empty() && std::abs(layer.top - top) > 1e-9)
-      l.fail("top", "the first layer must start at the top of the model (" + fmt(top) + " m)");
+      l.fail("top",
+             "the first layer must start at the top of the model (" + fmt(top) + " m)");
     if (!layers.empty() && !(layer.top < layers.back().top))
       l.fail("top", "layer tops must decrease downward");
     if (!(layer.top > bottom))
@@ -58,12 +59,16 @@ Wall read_wall(const TableReader& w, const Scenario& s, const Section& section) 
     w.fail("sides", "must be left, right or both");
   wall.left = sides != "right";
   wall.right = sides != "left";
-  if ((section.half_model || s.analysis == AnalysisType::axisymmetric) && sides != "right")
-    w.fail("sides", "a half model or an axisymmetric shaft has its wall on the right only");
+  if ((section.half_model || s.analysis == AnalysisType::axisymmetric) &&
+      sides != "right")
+    w.fail("sides",
+           "a half model or an axisymmetric shaft has its wall on the right only");
   return wall;
 }
 
-void check_well(const TableReader& r, const Well& well, const Scenario& s,
+void check_well(const TableReader& r,
+                const Well& well,
+                const Scenario& s,
                 const Section& section) {
   const double half_width = section.excavation_width / 2;
   if (s.analysis == AnalysisType::axisymmetric) {
@@ -74,8 +79,8 @@ void check_well(const TableReader& r, const Well& well, const Scenario& s,
   } else if (section.half_model ? !(well.x > 0.0 && well.x < half_width)
                                 : !(std::abs(well.x) < half_width)) {
     r.fail("x", "the well lies outside the pit (" +
-                    std::string(section.half_model ? "0 < x < " : "|x| < ") + fmt(half_width) +
-                    " m)");
+                    std::string(section.half_model ? "0 < x < " : "|x| < ") +
+                    fmt(half_width) + " m)");
   }
   if (!(well.screen_top > well.screen_bottom))
     r.fail("screen_top", "must lie above screen_bottom");
@@ -85,7 +90,8 @@ void check_well(const TableReader& r, const Well& well, const Scenario& s,
     r.fail("screen_bottom", "lies at or below the model base");
 }
 
-std::vector<Well> read_wells(const TableReader& r, const Scenario& s, const Section& section) {
+std::vector<Well>
+read_wells(const TableReader& r, const Scenario& s, const Section& section) {
   std::vector<Well> wells;
   std::set<std::string> names;
   for_each_table(r, "wells", [&](const TableReader& w) {
@@ -141,8 +147,8 @@ Section read_section(const TableReader& r, const Scenario& s) {
   section.far_distance = r.positive("far_distance");
   section.layers = read_layers(r, s, section.ground_surface, section.bottom);
   if (const toml::table* wall = r.table("wall"))
-    section.wall = read_wall(TableReader(*wall, "section.wall", "section.wall", r.file()), s,
-                             section);
+    section.wall = read_wall(TableReader(*wall, "section.wall", "section.wall", r.file()),
+                             s, section);
   if (section.wall && !(section.wall->toe < section.excavation_level()))
     r.fail("wall", "the wall toe must lie below the excavation level");
   section.wells = read_wells(r, s, section);
@@ -157,9 +163,9 @@ Box read_box(const TableReader& r, const Scenario& s) {
   const toml::array* layers = r.array("layers");
   if (layers == nullptr || layers->empty() || !(*layers)[0].is_table())
     r.fail_here("needs at least one entry in layers");
-  const double top = TableReader(*(*layers)[0].as_table(), "box.layers[]", "box.layers[0]",
-                                 r.file())
-                         .number("top");
+  const double top =
+      TableReader(*(*layers)[0].as_table(), "box.layers[]", "box.layers[0]", r.file())
+          .number("top");
   if (!(box.bottom < top))
     r.fail("bottom", "must lie below the top of the first layer");
   box.layers = read_layers(r, s, top, box.bottom);
@@ -206,7 +212,8 @@ void parse_geometry(const TableReader& top, Scenario& s) {
     s.locations["box"] = position(top.file(), *b);
   } else {
     const toml::table* m = top.table("mesh_file");
-    s.mesh_file = read_mesh_file(TableReader(*m, "mesh_file", "mesh_file", top.file()), s);
+    s.mesh_file =
+        read_mesh_file(TableReader(*m, "mesh_file", "mesh_file", top.file()), s);
     s.locations["mesh_file"] = position(top.file(), *m);
   }
 }
@@ -224,13 +231,14 @@ std::vector<std::string> region_names(const Scenario& s) {
   return names;
 }
 
-bool model_extent(const Scenario& s, double& x_min, double& x_max, double& y_min,
-                  double& y_max) {
+bool model_extent(
+    const Scenario& s, double& x_min, double& x_max, double& y_min, double& y_max) {
   if (s.section) {
     const Section& sec = *s.section;
-    const double outer = sec.excavation_width / 2 + (sec.wall ? sec.wall->thickness : 0.0) +
-                         sec.far_distance;
-    const bool starts_at_axis = sec.half_model || s.analysis == AnalysisType::axisymmetric;
+    const double outer = sec.excavation_width / 2 +
+                         (sec.wall ? sec.wall->thickness : 0.0) + sec.far_distance;
+    const bool starts_at_axis =
+        sec.half_model || s.analysis == AnalysisType::axisymmetric;
     x_min = starts_at_axis ? 0.0 : -outer;
     if (s.analysis == AnalysisType::axisymmetric && !sec.wells.empty())
       x_min = sec.wells.front().radius; // the model starts at the well's radius

@@ -20,8 +20,8 @@ void parse_output(const TableReader& top, Scenario& s);
 std::vector<std::string> region_names(const Scenario& s);
 /// Lateral extent [x_min, x_max] and vertical extent [y_min, y_max] of a
 /// section or box model (not known for a mesh file: returns false).
-bool model_extent(const Scenario& s, double& x_min, double& x_max, double& y_min,
-                  double& y_max);
+bool model_extent(
+    const Scenario& s, double& x_min, double& x_max, double& y_min, double& y_max);
 
 /// Each element of an array of tables, with its own reader.
 template <typename F>
@@ -35,9 +35,10 @@ void for_each_table(const TableReader& parent, const std::string& key, F&& f) {
     if (!element.is_table())
       throw InputError(position(parent.file(), element) + ": " + label +
                        ": each entry must be a table");
-    const std::string path = parent.path().empty() ? key + "[]" : parent.path() + "." + key + "[]";
-    f(TableReader(*element.as_table(), path,
-                  label + "[" + std::to_string(index++) + "]", parent.file()));
+    const std::string path =
+        parent.path().empty() ? key + "[]" : parent.path() + "." + key + "[]";
+    f(TableReader(*element.as_table(), path, label + "[" + std::to_string(index++) + "]",
+                  parent.file()));
   }
 }
 

@@ -44,7 +44,8 @@ TimeSteps read_time_steps(const TableReader& stage, double duration) {
   const toml::table* t = stage.table("time_steps");
   if (t == nullptr)
     return steps;
-  const TableReader r(*t, "stages[].time_steps", stage.label() + ".time_steps", stage.file());
+  const TableReader r(*t, "stages[].time_steps", stage.label() + ".time_steps",
+                      stage.file());
   if (r.has("first")) {
     steps.first = units::days(r.positive("first"));
     if (steps.first > duration)
@@ -63,7 +64,8 @@ TimeSteps read_time_steps(const TableReader& stage, double duration) {
 void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
   for_each_named(r, "wells", [&](const std::string& name, const TableReader& w) {
     if (!well_exists(s, name))
-      throw InputError(w.where("head") + ": " + w.label() + ": no well named '" + name + "'");
+      throw InputError(w.where("head") + ": " + w.label() + ": no well named '" + name +
+                       "'");
     stage.wells[name] = read_target(w, "well '" + name + "'");
   });
   for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
@@ -117,15 +119,16 @@ void parse_stages(const TableReader& top, Scenario& s) {
 
 namespace {
 
-void check_inside(const TableReader& r, const Scenario& s, double x, double y,
-                  const std::string& key) {
+void check_inside(
+    const TableReader& r, const Scenario& s, double x, double y, const std::string& key) {
   double x0, x1, y0, y1;
   if (!model_extent(s, x0, x1, y0, y1))
     return; // a mesh file: checked when the mesh is loaded
   const double tol = 1e-9 * std::max(1.0, x1 - x0);
   if (x < x0 - tol || x > x1 + tol || y < y0 - tol || y > y1 + tol)
     r.fail(key, "the point (" + fmt(x) + ", " + fmt(y) + ") lies outside the model (x " +
-                    fmt(x0) + " to " + fmt(x1) + ", y " + fmt(y0) + " to " + fmt(y1) + ")");
+                    fmt(x0) + " to " + fmt(x1) + ", y " + fmt(y0) + " to " + fmt(y1) +
+                    ")");
 }
 
 std::pair<double, double> read_xy(const TableReader& r, const toml::node& node) {
@@ -177,12 +180,15 @@ void parse_output(const TableReader& top, Scenario& s) {
   if (const toml::array* times = r.array("times")) {
     for (const auto& node : *times) {
       if (!node.is_number())
-        throw InputError(position(r.file(), node) + ": output.times: must be numbers (days)");
+        throw InputError(position(r.file(), node) +
+                         ": output.times: must be numbers (days)");
       const double t_s = units::days(node.value<double>().value());
       if (!(t_s > 0.0) || t_s > s.end_time() * (1 + 1e-12))
-        throw InputError(position(r.file(), node) +
-                         ": output.times: each time must lie after 0 and not after the last "
-                         "stage ends (" + fmt(units::to_days(s.end_time())) + " days)");
+        throw InputError(
+            position(r.file(), node) +
+            ": output.times: each time must lie after 0 and not after the last "
+            "stage ends (" +
+            fmt(units::to_days(s.end_time())) + " days)");
       s.output.times.push_back(t_s);
     }
   }

@@ -14,9 +14,14 @@ std::string position(const std::string& file, const toml::node& node) {
   return file + ":" + std::to_string(begin.line) + ":" + std::to_string(begin.column);
 }
 
-TableReader::TableReader(const toml::table& table, std::string path, std::string label,
+TableReader::TableReader(const toml::table& table,
+                         std::string path,
+                         std::string label,
                          const std::string& file)
-    : table_(table), path_(std::move(path)), label_(std::move(label)), file_(file) {
+    : table_(table)
+    , path_(std::move(path))
+    , label_(std::move(label))
+    , file_(file) {
   reject_unknown_keys();
 }
 
@@ -51,7 +56,8 @@ void TableReader::reject_unknown_keys() const {
     if (std::find(declared.begin(), declared.end(), k) != declared.end())
       continue;
     const std::string suggestion = nearest(k, declared);
-    const std::string where_label = label_.empty() ? "at the top level" : "in [" + label_ + "]";
+    const std::string where_label =
+        label_.empty() ? "at the top level" : "in [" + label_ + "]";
     throw InputError(position(file_, node) + ": unknown key '" + k + "' " + where_label +
                      (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
   }
@@ -99,7 +105,8 @@ std::string TableReader::text(const std::string& key) const {
   return std::string(*node->value<std::string_view>());
 }
 
-std::string TableReader::text_or(const std::string& key, const std::string& fallback) const {
+std::string TableReader::text_or(const std::string& key,
+                                 const std::string& fallback) const {
   return table_.contains(key) ? text(key) : fallback;
 }
 

@@ -15,13 +15,15 @@ std::string position(const std::string& file, const toml::node& node);
 /// ("section.wall", "stages[].wells.<name>"), `label` how messages name it.
 class TableReader {
 public:
-  TableReader(const toml::table& table, std::string path, std::string label,
+  TableReader(const toml::table& table,
+              std::string path,
+              std::string label,
               const std::string& file);
 
   double number(const std::string& key) const; ///< required
   std::optional<double> optional_number(const std::string& key) const;
   double number_or(const std::string& key, double fallback) const;
-  double positive(const std::string& key) const; ///< required, > 0
+  double positive(const std::string& key) const;  ///< required, > 0
   std::string text(const std::string& key) const; ///< required
   std::string text_or(const std::string& key, const std::string& fallback) const;
   bool boolean_or(const std::string& key, bool fallback) const;

@@ -52,8 +52,9 @@ void write_cells(const Mesh& mesh, const std::string& path) {
   region->SetName("region");
   for (const auto& cell : mesh.triangulation->active_cell_iterators()) {
     // deal.II numbers quadrilateral vertices lexicographically; VTK goes round.
-    const vtkIdType ids[4] = {vtkIdType(cell->vertex_index(0)), vtkIdType(cell->vertex_index(1)),
-                              vtkIdType(cell->vertex_index(3)), vtkIdType(cell->vertex_index(2))};
+    const vtkIdType ids[4] = {
+        vtkIdType(cell->vertex_index(0)), vtkIdType(cell->vertex_index(1)),
+        vtkIdType(cell->vertex_index(3)), vtkIdType(cell->vertex_index(2))};
     grid->InsertNextCell(VTK_QUAD, 4, ids);
     region->InsertNextValue(int(cell->material_id()));
   }
@@ -84,7 +85,8 @@ void write_lines(const Mesh& mesh, const std::string& path) {
     for (const auto& cell : mesh.triangulation->active_cell_iterators())
       for (const unsigned int f : cell->face_indices())
         if (cell->at_boundary(f) && cell->face(f)->boundary_id() == id)
-          add_segment(cell->face(f)->vertex(0), cell->face(f)->vertex(1), int(names.size() - 1));
+          add_segment(cell->face(f)->vertex(0), cell->face(f)->vertex(1),
+                      int(names.size() - 1));
   }
   for (const auto& [name, segments] : mesh.internal_lines) {
     names.push_back(name);
@@ -99,7 +101,8 @@ void write_lines(const Mesh& mesh, const std::string& path) {
 
 } // namespace
 
-void write_scenario_mesh(const scenario::Scenario& s, const std::string& directory,
+void write_scenario_mesh(const scenario::Scenario& s,
+                         const std::string& directory,
                          MPI_Comm comm) {
   const bool root = Utilities::MPI::this_mpi_process(comm) == 0;
   if (root)

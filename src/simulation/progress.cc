@@ -6,7 +6,10 @@
 
 namespace settlewell {
 
-Progress::Progress(std::ostream& out, bool in_place, std::size_t total_steps, bool enabled)
+Progress::Progress(std::ostream& out,
+                   bool in_place,
+                   std::size_t total_steps,
+                   bool enabled)
     : out_(out)
     , in_place_(in_place)
     , enabled_(enabled)
@@ -26,8 +29,12 @@ std::string duration_text(double seconds) {
 }
 } // namespace
 
-void Progress::step(const std::string& stage, std::size_t stage_number, std::size_t n_stages,
-                    double time_days, double dt_days, double solve_seconds) {
+void Progress::step(const std::string& stage,
+                    std::size_t stage_number,
+                    std::size_t n_stages,
+                    double time_days,
+                    double dt_days,
+                    double solve_seconds) {
   ++done_;
   if (!enabled_)
     return;
@@ -36,9 +43,10 @@ void Progress::step(const std::string& stage, std::size_t stage_number, std::siz
   const double left = done_ > 0 ? elapsed / done_ * (total_ - done_) : 0.0;
   std::ostringstream line;
   line << "stage " << stage_number << "/" << n_stages << " " << stage << " | t "
-       << std::fixed << std::setprecision(2) << time_days << " d | dt " << std::setprecision(3)
-       << dt_days << " d | step " << done_ << "/" << total_ << " | solve "
-       << std::setprecision(3) << solve_seconds << " s | left ~" << duration_text(left);
+       << std::fixed << std::setprecision(2) << time_days << " d | dt "
+       << std::setprecision(3) << dt_days << " d | step " << done_ << "/" << total_
+       << " | solve " << std::setprecision(3) << solve_seconds << " s | left ~"
+       << duration_text(left);
   if (in_place_)
     out_ << '\r' << std::left << std::setw(100) << line.str() << std::flush;
   else

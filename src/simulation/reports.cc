@@ -56,14 +56,15 @@ std::string target_text(const scenario::Target& t) {
   return os.str();
 }
 
-void describe_stages(const scenario::Scenario& s, const model::Schedule& schedule,
+void describe_stages(const scenario::Scenario& s,
+                     const model::Schedule& schedule,
                      std::ostream& out) {
   out << "Stages:\n";
   for (std::size_t k = 0; k < s.stages.size(); ++k) {
     const auto& st = s.stages[k];
     const auto& times = schedule.stages()[k];
-    out << "  " << k + 1 << ". " << st.name << ": day " << days_text(times.start) << " to "
-        << days_text(times.end) << ", ramp " << days_text(st.ramp) << " days";
+    out << "  " << k + 1 << ". " << st.name << ": day " << days_text(times.start)
+        << " to " << days_text(times.end) << ", ramp " << days_text(st.ramp) << " days";
     for (const auto& [well, target] : st.wells)
       out << "; well " << well << " " << target_text(target);
     for (const auto& [b, head] : st.boundary_heads)
@@ -71,16 +72,18 @@ void describe_stages(const scenario::Scenario& s, const model::Schedule& schedul
     if (st.excavation_level_head)
       out << "; excavation level head " << *st.excavation_level_head << " m";
     for (const auto& load : st.loads)
-      out << "; load " << load.pressure << " kPa on " << load.boundary << " x " << load.x_from
-          << " to " << load.x_to << " m";
+      out << "; load " << load.pressure << " kPa on " << load.boundary << " x "
+          << load.x_from << " to " << load.x_to << " m";
     out << '\n';
   }
 }
 
 } // namespace
 
-void describe_scenario(const scenario::Scenario& s, const Mesh& mesh,
-                       const model::Schedule& schedule, std::ostream& out) {
+void describe_scenario(const scenario::Scenario& s,
+                       const Mesh& mesh,
+                       const model::Schedule& schedule,
+                       std::ostream& out) {
   out << "Scenario: " << (s.title.empty() ? std::string("(untitled)") : s.title) << " ("
       << s.source_path << ")\n";
   out << "Analysis: "
@@ -91,9 +94,9 @@ void describe_scenario(const scenario::Scenario& s, const Mesh& mesh,
   for (const auto& [region, material] : model::region_materials(s, mesh)) {
     const auto& m = s.materials.at(material);
     out << "  " << region << " (" << material << "): E' " << m.poroelastic.youngs_modulus
-        << " kPa, nu' " << m.poroelastic.poisson_ratio << ", kx " << m.poroelastic.conductivity_x
-        << " m/s, ky " << m.poroelastic.conductivity_y << " m/s, unit weight " << m.unit_weight
-        << " kN/m3, K0 " << m.k0 << '\n';
+        << " kPa, nu' " << m.poroelastic.poisson_ratio << ", kx "
+        << m.poroelastic.conductivity_x << " m/s, ky " << m.poroelastic.conductivity_y
+        << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n';
   }
   out << "Boundaries:\n";
   for (const auto& [name, role] : model::boundary_roles(s, mesh))
@@ -126,8 +129,10 @@ void check_scenario(const scenario::Scenario& s, MPI_Comm comm, std::ostream& ou
   for (const auto& p : s.output.points) {
     bool found = false;
     try {
-      const auto cell = GridTools::find_active_cell_around_point(cache, Point<2>(p.x, p.y));
-      found = cell.first.state() == IteratorState::valid && cell.first->is_locally_owned();
+      const auto cell =
+          GridTools::find_active_cell_around_point(cache, Point<2>(p.x, p.y));
+      found =
+          cell.first.state() == IteratorState::valid && cell.first->is_locally_owned();
     } catch (const std::exception&) {
     }
     if (!Utilities::MPI::logical_or(found, comm))
@@ -147,8 +152,8 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
       << " unknowns, " << std::setprecision(1) << r.wall_seconds << " s wall time\n";
   out << std::setprecision(1);
   if (r.settlement_inside)
-    out << "  largest settlement inside the wall (pit surface): " << *r.settlement_inside * 1000
-        << " mm\n";
+    out << "  largest settlement inside the wall (pit surface): "
+        << *r.settlement_inside * 1000 << " mm\n";
   if (r.settlement_outside)
     out << "  largest settlement outside the wall (ground surface): "
         << *r.settlement_outside * 1000 << " mm\n";
@@ -166,28 +171,37 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     total += volume;
   }
   if (r.pumped_volume.size() > 1)
-    out << "  pumped volume, total: " << total << (per_metre ? " m3 per metre run\n" : " m3\n");
-  out << "  results: " << r.run_directory << " (fields/fields.pvd, points.csv, profiles/, "
+    out << "  pumped volume, total: " << total
+        << (per_metre ? " m3 per metre run\n" : " m3\n");
+  out << "  results: " << r.run_directory
+      << " (fields/fields.pvd, points.csv, profiles/, "
       << "steps.csv, manifest.json)\n";
   out << "These results come from a linear poroelastic model; they must be reviewed by a "
-         "qualified geotechnical engineer, and local codes and licensed practice govern.\n";
+         "qualified geotechnical engineer, and local codes and licensed practice "
+         "govern.\n";
 }
 
-void write_manifest(const std::string& path, const scenario::Scenario& s,
-                    const model::Schedule& schedule, const RunSummary& r,
-                    const std::string& started, MPI_Comm comm) {
+void write_manifest(const std::string& path,
+                    const scenario::Scenario& s,
+                    const model::Schedule& schedule,
+                    const RunSummary& r,
+                    const std::string& started,
+                    MPI_Comm comm) {
   if (Utilities::MPI::this_mpi_process(comm) != 0)
     return;
   std::ofstream out(path);
   out << std::setprecision(10);
-  out << "{\n  \"program\": " << json_string("settlewell") << ",\n  \"version\": "
-      << json_string(version_string) << ",\n  \"input\": " << json_string(s.source_path)
+  out << "{\n  \"program\": " << json_string("settlewell")
+      << ",\n  \"version\": " << json_string(version_string)
+      << ",\n  \"input\": " << json_string(s.source_path)
       << ",\n  \"input_sha256\": " << json_string(sha256_of_file(s.source_path))
-      << ",\n  \"title\": " << json_string(s.title) << ",\n  \"started\": "
-      << json_string(started) << ",\n  \"finished\": " << json_string(utc_now())
-      << ",\n  \"wall_time_s\": " << r.wall_seconds << ",\n  \"processes\": "
-      << Utilities::MPI::n_mpi_processes(comm) << ",\n  \"cells\": " << r.cells
-      << ",\n  \"unknowns\": " << r.dofs << ",\n  \"steps\": " << r.steps
+      << ",\n  \"title\": " << json_string(s.title)
+      << ",\n  \"started\": " << json_string(started)
+      << ",\n  \"finished\": " << json_string(utc_now())
+      << ",\n  \"wall_time_s\": " << r.wall_seconds
+      << ",\n  \"processes\": " << Utilities::MPI::n_mpi_processes(comm)
+      << ",\n  \"cells\": " << r.cells << ",\n  \"unknowns\": " << r.dofs
+      << ",\n  \"steps\": " << r.steps
       << ",\n  \"time_unit\": \"days\",\n  \"stages\": [";
   for (std::size_t k = 0; k < schedule.stages().size(); ++k) {
     const auto& st = schedule.stages()[k];
@@ -195,8 +209,10 @@ void write_manifest(const std::string& path, const scenario::Scenario& s,
     for (const double t : schedule.step_times())
       n += t > st.start && t <= st.end;
     out << (k ? "," : "") << "\n    {\"name\": " << json_string(st.name)
-        << ", \"start\": " << units::to_days(st.start) << ", \"end\": " << units::to_days(st.end)
-        << ", \"ramp_end\": " << units::to_days(st.ramp_end) << ", \"steps\": " << n << "}";
+        << ", \"start\": " << units::to_days(st.start)
+        << ", \"end\": " << units::to_days(st.end)
+        << ", \"ramp_end\": " << units::to_days(st.ramp_end) << ", \"steps\": " << n
+        << "}";
   }
   out << "\n  ]\n}\n";
 }

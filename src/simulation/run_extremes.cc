@@ -39,7 +39,8 @@ RunExtremes::RunExtremes(const BiotProblem& problem, const scenario::Scenario& s
   double outer = 0.0;
   if (s.section) {
     has_wall_zone_ = true;
-    outer = s.section->excavation_width / 2 + (s.section->wall ? s.section->wall->thickness : 0);
+    outer = s.section->excavation_width / 2 +
+            (s.section->wall ? s.section->wall->thickness : 0);
   }
   const auto& fe = dh.get_fe();
   std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
@@ -63,14 +64,16 @@ RunExtremes::RunExtremes(const BiotProblem& problem, const scenario::Scenario& s
         outside_p_.push_back(dof);
     }
   }
-  pit_surface_uy_ = owned_boundary_dofs(problem, section_names::pit_surface, FieldLayout::uy);
+  pit_surface_uy_ =
+      owned_boundary_dofs(problem, section_names::pit_surface, FieldLayout::uy);
   for (const auto d :
        owned_boundary_dofs(problem, section_names::ground_surface, FieldLayout::uy))
     if (std::abs(support.at(d)[0]) >= outer - tol)
       outside_surface_uy_.push_back(d);
 }
 
-double RunExtremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) const {
+double
+RunExtremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) const {
   double value = 0.0;
   for (const auto d : dofs)
     value = std::max(value, factor * problem.solution()[d]);
@@ -82,7 +85,8 @@ void RunExtremes::update(const BiotProblem& problem) {
   pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
   outside_ = std::max(outside_, largest(problem, outside_surface_uy_, -1.0));
   anywhere_ = std::max(anywhere_, largest(problem, all_uy_, -1.0));
-  drawdown_outside_ = std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
+  drawdown_outside_ =
+      std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
   drawdown_ = std::max(drawdown_, largest(problem, all_p_, to_drawdown));
 }
 

@@ -27,12 +27,17 @@ private:
 };
 
 /// Writes manifest.json (inputs, program, stages, steps, wall time). Rank 0 writes.
-void write_manifest(const std::string& path, const scenario::Scenario& scenario,
-                    const model::Schedule& schedule, const RunSummary& summary,
-                    const std::string& started, MPI_Comm comm);
+void write_manifest(const std::string& path,
+                    const scenario::Scenario& scenario,
+                    const model::Schedule& schedule,
+                    const RunSummary& summary,
+                    const std::string& started,
+                    MPI_Comm comm);
 
 /// The summary `settlewell check` prints.
-void describe_scenario(const scenario::Scenario& s, const Mesh& mesh,
-                       const model::Schedule& schedule, std::ostream& out);
+void describe_scenario(const scenario::Scenario& s,
+                       const Mesh& mesh,
+                       const model::Schedule& schedule,
+                       std::ostream& out);
 
 } // namespace settlewell

@@ -21,7 +21,8 @@ bool is_root(MPI_Comm comm) {
 }
 } // namespace
 
-CsvFile::CsvFile(const std::string& path, const std::vector<std::string>& header,
+CsvFile::CsvFile(const std::string& path,
+                 const std::vector<std::string>& header,
                  MPI_Comm comm) {
   if (!is_root(comm))
     return;
@@ -33,7 +34,8 @@ CsvFile::CsvFile(const std::string& path, const std::vector<std::string>& header
   *out_ << '\n';
 }
 
-void CsvFile::row(const std::vector<double>& values, const std::vector<std::string>& labels) {
+void CsvFile::row(const std::vector<double>& values,
+                  const std::vector<std::string>& labels) {
   if (!out_)
     return;
   bool first = true;
@@ -94,8 +96,9 @@ void prepare_run_folder(const std::string& path, bool overwrite, MPI_Comm comm) 
   if (problem == 1)
     throw InputError(path + ": exists and is not a folder");
   if (problem == 2)
-    throw InputError(path + ": the run folder already holds results; choose another with -o "
-                            "or add --overwrite");
+    throw InputError(path +
+                     ": the run folder already holds results; choose another with -o "
+                     "or add --overwrite");
   if (problem == 3)
     throw InputError(path + ": cannot create the run folder");
 }

@@ -1,5 +1,6 @@
 #include "settlewell/simulation/simulation.h"
 
+#include "run_extremes.h"
 #include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
@@ -12,7 +13,6 @@
 #include "settlewell/physics/biot_problem.h"
 #include "settlewell/simulation/progress.h"
 #include "settlewell/simulation/run_files.h"
-#include "run_extremes.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -27,7 +27,9 @@ using namespace dealii;
 
 namespace {
 
-bool is_root(MPI_Comm comm) { return Utilities::MPI::this_mpi_process(comm) == 0; }
+bool is_root(MPI_Comm comm) {
+  return Utilities::MPI::this_mpi_process(comm) == 0;
+}
 
 InitialFields initial_fields(const model::InitialState& initial) {
   InitialFields f;
@@ -62,16 +64,26 @@ std::vector<Point<2>> line_samples(const scenario::SectionLine& line) {
   return samples;
 }
 
-const std::vector<std::string> sample_columns{
-    "head_m",       "drawdown_m", "settlement_m", "ux_m", "excess_pore_pressure_kPa",
-    "pore_pressure_kPa", "vertical_effective_stress_kPa"};
+const std::vector<std::string> sample_columns{"head_m",
+                                              "drawdown_m",
+                                              "settlement_m",
+                                              "ux_m",
+                                              "excess_pore_pressure_kPa",
+                                              "pore_pressure_kPa",
+                                              "vertical_effective_stress_kPa"};
 
 std::vector<double> sample_row(const SampleValues& v) {
-  return {v.head, v.drawdown, v.settlement, v.ux, v.excess_pore_pressure, v.pore_pressure,
+  return {v.head,
+          v.drawdown,
+          v.settlement,
+          v.ux,
+          v.excess_pore_pressure,
+          v.pore_pressure,
           v.vertical_effective_stress};
 }
 
-std::vector<std::string> with(std::vector<std::string> head, const std::vector<std::string>& tail) {
+std::vector<std::string> with(std::vector<std::string> head,
+                              const std::vector<std::string>& tail) {
   head.insert(head.end(), tail.begin(), tail.end());
   return head;
 }
@@ -105,10 +117,12 @@ Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
   std::vector<Point<2>> point_list;
   for (const auto& p : scenario.output.points)
     point_list.emplace_back(p.x, p.y);
-  points.emplace(*problem, point_list, scenario.location_of("output") + ": output.points");
+  points.emplace(*problem, point_list,
+                 scenario.location_of("output") + ": output.points");
   for (const auto& line : scenario.output.lines)
     lines.emplace_back(*problem, line_samples(line),
-                       scenario.location_of("output") + ": output.lines '" + line.name + "'");
+                       scenario.location_of("output") + ": output.lines '" + line.name +
+                           "'");
 }
 
 Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
@@ -131,18 +145,20 @@ RunSummary Simulation::run(const RunOptions& options) {
 
   BiotProblem& problem = *m.problem;
   FieldWriter fields(dir + "/fields", "fields", m.comm, initial_fields(m.initial));
-  std::vector<std::string> step_header{"step", "time_days", "dt_days", "stage", "new_matrix",
-                                       "assembly_s", "factorisation_s", "solve_s"};
+  std::vector<std::string> step_header{
+      "step",       "time_days",  "dt_days",         "stage",
+      "new_matrix", "assembly_s", "factorisation_s", "solve_s"};
   for (const auto& p : m.model.pumped)
     step_header.push_back("discharge_" + p.label + "_m3_per_day");
   CsvFile steps(dir + "/steps.csv", step_header, m.comm);
   CsvFile point_table(dir + "/points.csv",
-                      with({"time_days", "stage", "point", "x_m", "y_m"}, sample_columns), m.comm);
+                      with({"time_days", "stage", "point", "x_m", "y_m"}, sample_columns),
+                      m.comm);
   std::vector<CsvFile> profile_tables;
   for (const auto& line : m.scenario.output.lines)
-    profile_tables.emplace_back(dir + "/profiles/" + line.name + ".csv",
-                                with({"time_days", "distance_m", "x_m", "y_m"}, sample_columns),
-                                m.comm);
+    profile_tables.emplace_back(
+        dir + "/profiles/" + line.name + ".csv",
+        with({"time_days", "distance_m", "x_m", "y_m"}, sample_columns), m.comm);
 
   RunExtremes extremes(problem, m.scenario);
   RunSummary summary;
@@ -171,7 +187,8 @@ RunSummary Simulation::run(const RunOptions& options) {
         if (i > 0)
           distance += pts[i].distance(pts[i - 1]);
         auto row = sample_row(values[i]);
-        row.insert(row.begin(), {units::to_days(problem.time()), distance, pts[i][0], pts[i][1]});
+        row.insert(row.begin(),
+                   {units::to_days(problem.time()), distance, pts[i][0], pts[i][1]});
         profile_tables[l].row(row);
       }
     }
@@ -214,11 +231,15 @@ RunSummary Simulation::run(const RunOptions& options) {
   summary.steps = times.size();
   extremes.fill(summary);
   summary.wall_seconds =
-      std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
-  write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started, m.comm);
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start)
+          .count();
+  write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started,
+                 m.comm);
   return summary;
 }
 
-void Simulation::describe(std::ostream& out) const { describe_scenario(impl_->scenario, impl_->mesh, impl_->schedule, out); }
+void Simulation::describe(std::ostream& out) const {
+  describe_scenario(impl_->scenario, impl_->mesh, impl_->schedule, out);
+}
 
 } // namespace settlewell

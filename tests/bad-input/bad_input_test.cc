@@ -14,7 +14,9 @@ namespace {
 struct Expected {
   std::string name, message;
 };
-void PrintTo(const Expected& e, std::ostream* os) { *os << e.name; }
+void PrintTo(const Expected& e, std::ostream* os) {
+  *os << e.name;
+}
 
 std::vector<Expected> expected_errors() {
   std::vector<Expected> list;
@@ -44,18 +46,23 @@ class BadInput : public ::testing::TestWithParam<Expected> {};
 
 } // namespace
 
-TEST(BadInputCorpus, HoldsAtLeastTwentyFiveCases) { EXPECT_GE(expected_errors().size(), 25u); }
+TEST(BadInputCorpus, HoldsAtLeastTwentyFiveCases) {
+  EXPECT_GE(expected_errors().size(), 25u);
+}
 
 TEST_P(BadInput, GivesItsOneLineErrorAndStatusTwo) {
   const auto& e = GetParam();
-  const auto [status, err] = run("check " + std::string(BAD_INPUT_DIR) + "/" + e.name + ".toml");
+  const auto [status, err] =
+      run("check " + std::string(BAD_INPUT_DIR) + "/" + e.name + ".toml");
   EXPECT_EQ(status, 2) << err;
   ASSERT_FALSE(err.empty());
   EXPECT_EQ(err.find('\n'), err.size() - 1) << "more than one line:\n" << err;
   EXPECT_NE(err.find(e.message), std::string::npos) << err << "\nexpected: " << e.message;
 }
 
-INSTANTIATE_TEST_SUITE_P(Corpus, BadInput, ::testing::ValuesIn(expected_errors()),
+INSTANTIATE_TEST_SUITE_P(Corpus,
+                         BadInput,
+                         ::testing::ValuesIn(expected_errors()),
                          [](const auto& info) { return info.param.name; });
 
 TEST(BadInputRun, WritesNothing) {

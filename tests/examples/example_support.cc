@@ -10,10 +10,11 @@ namespace example_support {
 
 namespace fs = std::filesystem;
 
-fs::path write_variant(const std::string& example, const std::string& variant,
+fs::path write_variant(const std::string& example,
+                       const std::string& variant,
                        const std::function<void(toml::table&)>& change) {
-  toml::table scenario =
-      toml::parse_file(std::string(SETTLEWELL_SOURCE_DIR) + "/examples/" + example + "/scenario.toml");
+  toml::table scenario = toml::parse_file(std::string(SETTLEWELL_SOURCE_DIR) +
+                                          "/examples/" + example + "/scenario.toml");
   if (change)
     change(scenario);
   const fs::path folder = fs::temp_directory_path() / "settlewell_examples";
@@ -23,13 +24,15 @@ fs::path write_variant(const std::string& example, const std::string& variant,
   return file;
 }
 
-ExampleRun run_example(const std::string& example, const std::string& variant,
+ExampleRun run_example(const std::string& example,
+                       const std::string& variant,
                        const std::function<void(toml::table&)>& change) {
   const fs::path file = write_variant(example, variant, change);
   settlewell::Simulation simulation(settlewell::scenario::read_scenario(file.string()),
                                     MPI_COMM_WORLD);
   settlewell::RunOptions options;
-  options.run_directory = (file.parent_path() / (example + "-" + variant + "-run")).string();
+  options.run_directory =
+      (file.parent_path() / (example + "-" + variant + "-run")).string();
   options.overwrite = true;
   options.show_progress = false;
   ExampleRun run;

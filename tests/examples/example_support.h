@@ -21,11 +21,13 @@ struct ExampleRun {
 
 /// Reads examples/<example>/scenario.toml, lets `change` edit it, writes the
 /// variant next to its run folder and runs it quietly.
-ExampleRun run_example(const std::string& example, const std::string& variant,
+ExampleRun run_example(const std::string& example,
+                       const std::string& variant,
                        const std::function<void(toml::table&)>& change);
 
 /// The same scenario variant as run_example would write, without running it.
-std::filesystem::path write_variant(const std::string& example, const std::string& variant,
+std::filesystem::path write_variant(const std::string& example,
+                                    const std::string& variant,
                                     const std::function<void(toml::table&)>& change);
 
 /// A CSV file as columns of numbers (non-numeric cells are kept as text).

@@ -22,7 +22,9 @@ namespace {
 
 constexpr double outer_face = 14.8; // half width 14 + wall 0.8, m
 
-void coarse(toml::table& s) { coarsen_section(s, 1.0, 25.0, 1.4); }
+void coarse(toml::table& s) {
+  coarsen_section(s, 1.0, 25.0, 1.4);
+}
 
 /// Shorter stages for the variants that only compare two runs, and monitoring
 /// points moved off the cell edges (stresses jump across edges, and a point on an
@@ -52,8 +54,9 @@ TEST(PitExample, SettlementOutsideTheWallIsPositiveAndDecays) {
     if (x[r] >= outer_face + 1.0)
       outside.emplace_back(x[r], s[r]);
   ASSERT_GT(outside.size(), 50u);
-  const auto peak = std::max_element(outside.begin(), outside.end(),
-                                     [](auto& a, auto& b) { return a.second < b.second; });
+  const auto peak =
+      std::max_element(outside.begin(), outside.end(),
+                       [](auto& a, auto& b) { return a.second < b.second; });
   for (const auto& [xi, si] : outside)
     EXPECT_GT(si, 0.0) << "x = " << xi;
   for (auto it = peak; it + 1 != outside.end(); ++it)
@@ -87,7 +90,8 @@ TEST(PitExample, HalfModelEqualsFullModel) {
     const std::size_t n = points->size();
     for (std::size_t i = 0; i < n; ++i) {
       toml::table p = *points->get(i)->as_table();
-      p.insert_or_assign("name", std::string(*p["name"].value<std::string>()) + "_mirror");
+      p.insert_or_assign("name",
+                         std::string(*p["name"].value<std::string>()) + "_mirror");
       p.insert_or_assign("x", -*p["x"].value<double>());
       points->push_back(p);
     }
@@ -96,10 +100,12 @@ TEST(PitExample, HalfModelEqualsFullModel) {
   const auto rows_a = rows_at(a, 40.0), rows_b = rows_at(b, 40.0);
   ASSERT_EQ(rows_b.size(), 2 * rows_a.size());
   for (std::size_t i = 0; i < rows_a.size(); ++i)
-    for (const char* field : {"head_m", "settlement_m", "vertical_effective_stress_kPa"}) {
+    for (const char* field :
+         {"head_m", "settlement_m", "vertical_effective_stress_kPa"}) {
       const double va = a.column(field)[rows_a[i]];
       const double scale = 1e-6 * std::max(1.0, std::abs(va));
-      EXPECT_NEAR(b.column(field)[rows_b[i]], va, scale) << a.text("point")[rows_a[i]] << " " << field;
+      EXPECT_NEAR(b.column(field)[rows_b[i]], va, scale)
+          << a.text("point")[rows_a[i]] << " " << field;
       EXPECT_NEAR(b.column(field)[rows_b[i + rows_a.size()]], va, scale)
           << a.text("point")[rows_a[i]] << " mirrored " << field;
     }
@@ -116,8 +122,11 @@ TEST(PitExample, FarFieldDrawdownVanishesWithANoFlowBoundary) {
   const auto run = run_example("basement-pit", "no-flow-far", [](toml::table& s) {
     coarsen_section(s, 1.0, 100.0, 1.4);
     s["section"].as_table()->insert_or_assign("far_distance", 3000.0);
-    s.insert_or_assign("boundaries", toml::table{{"far_boundary", toml::table{{"hydraulic", "no_flow"}}},
-                                                 {"ground_surface", toml::table{{"hydraulic", "fixed_head"}, {"head", 5.0}}}});
+    s.insert_or_assign(
+        "boundaries",
+        toml::table{
+            {"far_boundary", toml::table{{"hydraulic", "no_flow"}}},
+            {"ground_surface", toml::table{{"hydraulic", "fixed_head"}, {"head", 5.0}}}});
     auto* stages = s["stages"].as_array();
     stages->get(0)->as_table()->insert_or_assign("duration", 2.0);
     stages->get(0)->as_table()->insert_or_assign("ramp", 1.0);
@@ -156,8 +165,8 @@ TEST(PitExample, LateTimeHeadsMatchASteadySeepageSolve) {
   const auto run = run_example("basement-pit", "long-hold", long_hold);
 
   using namespace settlewell;
-  const auto scenario =
-      scenario::read_scenario(write_variant("basement-pit", "long-hold", long_hold).string());
+  const auto scenario = scenario::read_scenario(
+      write_variant("basement-pit", "long-hold", long_hold).string());
   const Mesh mesh = make_scenario_mesh(scenario, MPI_COMM_WORLD);
   const model::InitialState initial(scenario, mesh);
   const model::Schedule schedule(scenario);

@@ -44,13 +44,20 @@ TEST(RunFolder, SeriesOpensInVtkWithEveryFieldAndTimesInDays) {
   vtkUnstructuredGrid* grid = reader->GetOutput();
   ASSERT_GT(grid->GetNumberOfCells(), 0);
   const std::vector<std::pair<const char*, int>> fields{
-      {"displacement", 3},           {"settlement", 1},
-      {"excess_pore_pressure", 1},   {"pore_pressure", 1},
-      {"hydraulic_head", 1},         {"drawdown", 1},
-      {"effective_stress", 9},       {"effective_stress_out_of_plane", 1},
-      {"mean_effective_stress", 1},  {"deviator_stress", 1},
-      {"vertical_effective_stress", 1}, {"volumetric_strain", 1},
-      {"darcy_flux", 3},             {"region", 1}};
+      {"displacement", 3},
+      {"settlement", 1},
+      {"excess_pore_pressure", 1},
+      {"pore_pressure", 1},
+      {"hydraulic_head", 1},
+      {"drawdown", 1},
+      {"effective_stress", 9},
+      {"effective_stress_out_of_plane", 1},
+      {"mean_effective_stress", 1},
+      {"deviator_stress", 1},
+      {"vertical_effective_stress", 1},
+      {"volumetric_strain", 1},
+      {"darcy_flux", 3},
+      {"region", 1}};
   for (const auto& [name, components] : fields) {
     vtkDataArray* array = grid->GetPointData()->GetArray(name);
     ASSERT_NE(array, nullptr) << name;
@@ -59,7 +66,8 @@ TEST(RunFolder, SeriesOpensInVtkWithEveryFieldAndTimesInDays) {
   // The largest drawdown in the field equals the one the run summary reports.
   double range[2];
   grid->GetPointData()->GetArray("drawdown")->GetRange(range);
-  EXPECT_NEAR(range[1], run.summary.drawdown_anywhere, 0.01 * run.summary.drawdown_anywhere);
+  EXPECT_NEAR(range[1], run.summary.drawdown_anywhere,
+              0.01 * run.summary.drawdown_anywhere);
   // Geostatic stress is in the output: at depth the vertical effective stress is
   // far above the few kPa a change alone would give.
   grid->GetPointData()->GetArray("vertical_effective_stress")->GetRange(range);

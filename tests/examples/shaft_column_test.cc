@@ -22,28 +22,32 @@ TEST(ShaftExample, MatchesThiemFarFromTheWall) {
   const auto run = run_example("shaft", "steady", [](toml::table& s) {
     coarsen_section(s, 1.0, 20.0, 1.35);
     s["section"]["wells"][0].as_table()->insert_or_assign("radius", 0.2);
-    s["boundaries"]["ground_surface"].as_table()->insert_or_assign("hydraulic", "no_flow");
+    s["boundaries"]["ground_surface"].as_table()->insert_or_assign("hydraulic",
+                                                                   "no_flow");
     s["boundaries"]["ground_surface"].as_table()->erase("head");
     s["stages"][1].as_table()->insert_or_assign("duration", 6000.0);
     auto* points = s["output"]["points"].as_array();
     points->clear();
     for (const double r : {100.0, 250.0})
-      points->push_back(toml::table{{"name", "r" + std::to_string(int(r))}, {"x", r}, {"y", -18.0}});
+      points->push_back(
+          toml::table{{"name", "r" + std::to_string(int(r))}, {"x", r}, {"y", -18.0}});
   });
   const Csv points(run.folder / "points.csv");
   const auto rows = rows_at(points, 6021.0);
   ASSERT_EQ(rows.size(), 2u);
-  const double ds = points.column("drawdown_m")[rows[0]] - points.column("drawdown_m")[rows[1]];
+  const double ds =
+      points.column("drawdown_m")[rows[0]] - points.column("drawdown_m")[rows[1]];
   // Layers: made ground 3 m at 2e-5, clay 7 m at 6e-9, gravel 24 m at 6e-4,
   // mudstone 10 m at 5e-9 m/s (examples/shaft/scenario.toml).
   const double T = 3 * 2e-5 + 7 * 6e-9 + 24 * 6e-4 + 10 * 5e-9;
   const double Q = 1800.0 / units::seconds_per_day;
-  const double thiem = settlewell::analytical::thiem_drawdown_difference(Q, T, 100.0, 250.0);
+  const double thiem =
+      settlewell::analytical::thiem_drawdown_difference(Q, T, 100.0, 250.0);
   // 1 %: linear pressure elements over cells of at most 20 m reproduce ln r to
   // well under 0.5 % here; the residual vertical flow at r >= 100 m is negligible.
   EXPECT_NEAR(ds, thiem, 0.01 * thiem);
-  EXPECT_NEAR(run.summary.pumped_volume.at("central"),
-              1800.0 * (21.0 / 2 + 6000.0), 0.01 * 1800.0 * 6010.0);
+  EXPECT_NEAR(run.summary.pumped_volume.at("central"), 1800.0 * (21.0 / 2 + 6000.0),
+              0.01 * 1800.0 * 6010.0);
 }
 
 // The column reproduces the 1D hand solution: the clay, drained at both faces,

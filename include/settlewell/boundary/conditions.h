@@ -65,11 +65,11 @@ struct BoundaryConditions {
   std::vector<BodyForceChange> body_forces;
 
   // Shorthands for building a set in code (tests, verification cases).
-  BoundaryConditions& head(const std::string& boundary, FieldFunction h,
-                           TimeWindow window = {});
+  BoundaryConditions&
+  head(const std::string& boundary, FieldFunction h, TimeWindow window = {});
   BoundaryConditions& pore_pressure(const std::string& boundary, FieldFunction p);
-  BoundaryConditions& outflow(const std::string& boundary, FieldFunction q,
-                              TimeWindow window = {});
+  BoundaryConditions&
+  outflow(const std::string& boundary, FieldFunction q, TimeWindow window = {});
   BoundaryConditions& fix(const std::string& boundary, bool x, bool y);
   BoundaryConditions& normal_traction(const std::string& boundary, FieldFunction t);
   BoundaryConditions& rigid_plate(const std::string& boundary, TimeFunction force);

@@ -26,7 +26,8 @@ struct AxisInterval {
 /// geometric progression. Breakpoints must be sorted; pure function.
 std::vector<AxisInterval> grade_axis(const std::vector<double>& breakpoints,
                                      const std::vector<GradingFeature>& features,
-                                     double size_far, double growth);
+                                     double size_far,
+                                     double growth);
 
 /// Sorted breakpoints with any two closer than `tolerance` merged.
 std::vector<double> unique_breakpoints(std::vector<double> points, double tolerance);

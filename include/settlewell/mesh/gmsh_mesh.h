@@ -30,13 +30,16 @@ struct MeshSummary {
   std::size_t n_cells = 0;
   std::size_t n_vertices = 0;
   /// Taylor-Hood Q2^2 x Q1 unknowns: 2 (V + E + C) + V, with E = V + C - 1.
-  std::size_t estimated_dofs() const { return 2 * (2 * n_vertices + 2 * n_cells - 1) + n_vertices; }
+  std::size_t estimated_dofs() const {
+    return 2 * (2 * n_vertices + 2 * n_cells - 1) + n_vertices;
+  }
 };
 
 /// Builds the section or box of a scenario with the Gmsh SDK and loads it, or
 /// loads the scenario's Gmsh file. When `msh_path` is not empty, rank 0 writes the
 /// generated mesh there. Collective on `comm`.
-Mesh make_scenario_mesh(const scenario::Scenario& s, MPI_Comm comm,
+Mesh make_scenario_mesh(const scenario::Scenario& s,
+                        MPI_Comm comm,
                         const std::string& msh_path = "");
 
 /// Reads a Gmsh file whose physical groups name the regions (surfaces) and the

@@ -16,25 +16,28 @@ class InitialState {
 public:
   InitialState(const scenario::Scenario& s, const Mesh& mesh);
 
-  double head(const dealii::Point<2>& x) const;                  ///< m
+  double head(const dealii::Point<2>& x) const; ///< m
   dealii::Tensor<1, 2> head_gradient(const dealii::Point<2>& x) const;
-  double pore_pressure(const dealii::Point<2>& x) const;         ///< kPa, gamma_w (h0 - y)
-  double vertical_total_stress(const dealii::Point<2>& x,
-                               dealii::types::material_id region) const; ///< kPa, compression +
+  double pore_pressure(const dealii::Point<2>& x) const; ///< kPa, gamma_w (h0 - y)
+  double
+  vertical_total_stress(const dealii::Point<2>& x,
+                        dealii::types::material_id region) const; ///< kPa, compression +
   /// Geostatic effective stress, tension positive, components (xx, yy, zz) with zz
   /// out of plane (hoop in axisymmetric) and no shear, kPa.
   dealii::SymmetricTensor<2, 3> effective_stress(const dealii::Point<2>& x,
                                                  dealii::types::material_id region) const;
 
   /// Knots (elevation, head) of the head profile, top down (for reports).
-  const std::vector<std::pair<double, double>>& head_profile() const { return head_knots_; }
+  const std::vector<std::pair<double, double>>& head_profile() const {
+    return head_knots_;
+  }
 
 private:
   double gamma_w_;
   std::vector<std::pair<double, double>> head_knots_;   ///< (y, h), y decreasing
   std::vector<std::pair<double, double>> weight_knots_; ///< (layer top, unit weight)
   double top_ = 0.0;
-  std::vector<double> region_unit_weight_, region_k0_;  ///< by material id
+  std::vector<double> region_unit_weight_, region_k0_; ///< by material id
 };
 
 } // namespace settlewell::model

@@ -38,7 +38,9 @@ struct Model {
   BiotSetup setup;
   std::vector<PumpedLine> pumped;
 };
-Model build_model(const scenario::Scenario& s, const Mesh& mesh, const InitialState& initial,
+Model build_model(const scenario::Scenario& s,
+                  const Mesh& mesh,
+                  const InitialState& initial,
                   const Schedule& schedule);
 
 } // namespace settlewell::model

@@ -58,9 +58,10 @@ struct ControlPhase {
 /// last); `initial`, if set, applies from t = 0 (a fixed-head boundary), given as
 /// a function of position; `initial_head` is the head a head ramp starts from when
 /// the item was not head-controlled before.
-std::vector<ControlPhase>
-control_phases(const Schedule& schedule, const std::vector<std::optional<scenario::Target>>& targets,
-               const std::optional<std::function<double(const dealii::Point<2>&)>>& initial,
-               const std::function<double(const dealii::Point<2>&)>& initial_head);
+std::vector<ControlPhase> control_phases(
+    const Schedule& schedule,
+    const std::vector<std::optional<scenario::Target>>& targets,
+    const std::optional<std::function<double(const dealii::Point<2>&)>>& initial,
+    const std::function<double(const dealii::Point<2>&)>& initial_head);
 
 } // namespace settlewell::model

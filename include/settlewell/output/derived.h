@@ -15,7 +15,8 @@ struct InitialFields {
   std::function<double(const dealii::Point<2>&)> head;
   std::function<dealii::Tensor<1, 2>(const dealii::Point<2>&)> head_gradient;
   /// Geostatic effective stress, tension positive, (xx, yy, zz = out of plane).
-  std::function<dealii::SymmetricTensor<2, 3>(const dealii::Point<2>&, dealii::types::material_id)>
+  std::function<dealii::SymmetricTensor<2, 3>(const dealii::Point<2>&,
+                                              dealii::types::material_id)>
       effective_stress;
 
   /// From the core's setup alone: its initial head (gradient by central
@@ -25,16 +26,16 @@ struct InitialFields {
 
 /// Everything reported at a point, in output units and signs.
 struct DerivedState {
-  double settlement = 0.0;          ///< m, positive down
-  double head = 0.0;                ///< m
-  double drawdown = 0.0;            ///< m, positive when heads fall
-  double pore_pressure = 0.0;       ///< kPa, absolute, compression positive
+  double settlement = 0.0;                        ///< m, positive down
+  double head = 0.0;                              ///< m
+  double drawdown = 0.0;                          ///< m, positive when heads fall
+  double pore_pressure = 0.0;                     ///< kPa, absolute, compression positive
   dealii::SymmetricTensor<2, 3> effective_stress; ///< kPa, absolute, tension positive
-  double mean_effective_stress = 0.0; ///< p' = -tr/3, kPa, compression positive
-  double deviator_stress = 0.0;       ///< q = sqrt(3/2 s:s), kPa
+  double mean_effective_stress = 0.0;     ///< p' = -tr/3, kPa, compression positive
+  double deviator_stress = 0.0;           ///< q = sqrt(3/2 s:s), kPa
   double vertical_effective_stress = 0.0; ///< -sigma'_yy, kPa, compression positive
-  double volumetric_strain = 0.0;     ///< tension positive
-  dealii::Tensor<1, 2> darcy_flux;    ///< m/s
+  double volumetric_strain = 0.0;         ///< tension positive
+  dealii::Tensor<1, 2> darcy_flux;        ///< m/s
 };
 
 /// Turns the primary unknowns at a point into the reported quantities.
@@ -43,7 +44,8 @@ public:
   Derivation(const BiotProblem& problem, InitialFields initial);
 
   /// `values` and `gradients` hold the three components (ux, uy, excess pressure).
-  DerivedState at(const dealii::Point<2>& x, dealii::types::material_id region,
+  DerivedState at(const dealii::Point<2>& x,
+                  dealii::types::material_id region,
                   const dealii::Vector<double>& values,
                   const std::vector<dealii::Tensor<1, 2>>& gradients) const;
 

@@ -18,7 +18,9 @@ public:
   /// Creates `directory` if needed. Files are named `<basename>_NNNN.vtu`.
   /// `initial` gives the state at t = 0 that absolute heads, pore pressures,
   /// stresses and fluxes are built on (by default: from the problem's setup).
-  FieldWriter(std::string directory, std::string basename, MPI_Comm comm,
+  FieldWriter(std::string directory,
+              std::string basename,
+              MPI_Comm comm,
               std::optional<InitialFields> initial = std::nullopt);
 
   /// Writes the current state of `problem` and rewrites the PVD record.

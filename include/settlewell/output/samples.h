@@ -31,7 +31,8 @@ struct SampleValues {
 class SamplePoints {
 public:
   /// Collective. Throws InputError naming `what` and the first point outside the mesh.
-  SamplePoints(const BiotProblem& problem, std::vector<dealii::Point<2>> points,
+  SamplePoints(const BiotProblem& problem,
+               std::vector<dealii::Point<2>> points,
                const std::string& what);
   ~SamplePoints();
   SamplePoints(SamplePoints&&) noexcept;

@@ -30,7 +30,8 @@ PlateLink link_plate(const dealii::DoFHandler<2>& dof_handler,
                      const std::string& plate_name);
 
 /// Pressure dofs (with positions) of an internal line.
-using LineDofs = std::vector<std::pair<dealii::types::global_dof_index, dealii::Point<2>>>;
+using LineDofs =
+    std::vector<std::pair<dealii::types::global_dof_index, dealii::Point<2>>>;
 
 struct ConstraintInputs {
   const dealii::DoFHandler<2>& dof_handler;

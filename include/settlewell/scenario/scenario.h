@@ -15,29 +15,29 @@ namespace settlewell::scenario {
 /// A soil or wall material as the user describes it.
 struct Material {
   std::string name;
-  double unit_weight = 0.0;  ///< saturated, kN/m^3
-  double k0 = 0.5;           ///< coefficient of earth pressure at rest
+  double unit_weight = 0.0; ///< saturated, kN/m^3
+  double k0 = 0.5;          ///< coefficient of earth pressure at rest
   PoroelasticMaterial poroelastic;
 };
 
 struct Layer {
-  std::string name;     ///< region name (defaults to the material's)
+  std::string name; ///< region name (defaults to the material's)
   std::string material;
-  double top = 0.0;     ///< elevation of the layer's top, m
+  double top = 0.0; ///< elevation of the layer's top, m
 };
 
 struct Wall {
-  double thickness = 0.0;  ///< m
-  double toe = 0.0;        ///< elevation of the toe, m
+  double thickness = 0.0; ///< m
+  double toe = 0.0;       ///< elevation of the toe, m
   std::string material;
   bool left = false, right = true; ///< sides that have a wall (half model: right only)
 };
 
 struct Well {
   std::string name;
-  double x = 0.0;            ///< m (plane strain: position of the row of wells)
-  double radius = 0.15;      ///< m (axisymmetric: the model starts at this radius)
-  double screen_top = 0.0;   ///< elevation, m
+  double x = 0.0;          ///< m (plane strain: position of the row of wells)
+  double radius = 0.15;    ///< m (axisymmetric: the model starts at this radius)
+  double screen_top = 0.0; ///< elevation, m
   double screen_bottom = 0.0;
 };
 
@@ -50,13 +50,13 @@ struct MeshSizes {
 
 /// Geometry (a): a parametric excavation section.
 struct Section {
-  double ground_surface = 0.0;    ///< elevation, m
-  double bottom = 0.0;            ///< elevation of the model base, m
-  bool half_model = true;         ///< model x >= 0 with a symmetry line at x = 0
-  double excavation_width = 0.0;  ///< between the inner wall faces, m (shaft: diameter)
-  double excavation_depth = 0.0;  ///< below the ground surface, m
-  double far_distance = 0.0;      ///< from the outer wall face to the far boundary, m
-  std::vector<Layer> layers;      ///< top to bottom
+  double ground_surface = 0.0;   ///< elevation, m
+  double bottom = 0.0;           ///< elevation of the model base, m
+  bool half_model = true;        ///< model x >= 0 with a symmetry line at x = 0
+  double excavation_width = 0.0; ///< between the inner wall faces, m (shaft: diameter)
+  double excavation_depth = 0.0; ///< below the ground surface, m
+  double far_distance = 0.0;     ///< from the outer wall face to the far boundary, m
+  std::vector<Layer> layers;     ///< top to bottom
   std::optional<Wall> wall;
   std::vector<Well> wells;
   MeshSizes mesh;
@@ -65,11 +65,11 @@ struct Section {
 
 /// Geometry (b): a box with horizontal layers (columns, simple cases).
 struct Box {
-  double width = 1.0;          ///< m
-  double bottom = 0.0;         ///< elevation, m
-  std::vector<Layer> layers;   ///< top to bottom; the first top is the box's top
+  double width = 1.0;        ///< m
+  double bottom = 0.0;       ///< elevation, m
+  std::vector<Layer> layers; ///< top to bottom; the first top is the box's top
   unsigned int cells_x = 1;
-  double cell_height = 0.5;    ///< m
+  double cell_height = 0.5; ///< m
 };
 
 /// Geometry (c): a user's Gmsh file; its physical group names are the region and
@@ -80,8 +80,8 @@ struct MeshFile {
 };
 
 struct Groundwater {
-  double water_table = 0.0;                     ///< elevation, m
-  std::map<std::string, double> layer_heads;    ///< piezometric head per layer, m
+  double water_table = 0.0;                  ///< elevation, m
+  std::map<std::string, double> layer_heads; ///< piezometric head per layer, m
 };
 
 /// What holds on a named boundary for the whole analysis (stages may change heads).
@@ -89,7 +89,7 @@ struct BoundarySpec {
   enum class Hydraulic { unset, no_flow, fixed_head };
   enum class Mechanical { unset, free, fixed, roller };
   Hydraulic hydraulic = Hydraulic::unset;
-  std::optional<double> head;  ///< m; fixed_head without it keeps the initial head
+  std::optional<double> head; ///< m; fixed_head without it keeps the initial head
   Mechanical mechanical = Mechanical::unset;
 };
 
@@ -102,21 +102,21 @@ struct Target {
 
 struct SurfaceLoad {
   std::string boundary;
-  double pressure = 0.0;  ///< kPa, compressive, on the part x_from..x_to
+  double pressure = 0.0; ///< kPa, compressive, on the part x_from..x_to
   double x_from = 0.0, x_to = 0.0;
 };
 
 struct TimeSteps {
-  double first = 0.0;   ///< s; 0: 1/1000 of the stage
+  double first = 0.0; ///< s; 0: 1/1000 of the stage
   double growth = 1.25;
   double largest = 0.0; ///< s; 0: 1/10 of the stage
 };
 
 struct Stage {
   std::string name;
-  double duration = 0.0;  ///< s
-  double ramp = 0.0;      ///< s from the stage start; 0: changes apply at once
-  std::map<std::string, Target> wells;      ///< by well name
+  double duration = 0.0; ///< s
+  double ramp = 0.0;     ///< s from the stage start; 0: changes apply at once
+  std::map<std::string, Target> wells;          ///< by well name
   std::map<std::string, double> boundary_heads; ///< by boundary name, m
   std::optional<double> excavation_level_head;  ///< m
   std::vector<SurfaceLoad> loads;
@@ -140,15 +140,15 @@ struct Column {
 };
 
 struct Output {
-  std::vector<double> times;        ///< s, extra to the stage ends
-  unsigned int per_stage = 4;       ///< log-spaced output times inside each stage
+  std::vector<double> times;  ///< s, extra to the stage ends
+  unsigned int per_stage = 4; ///< log-spaced output times inside each stage
   std::vector<MonitoringPoint> points;
   std::vector<SectionLine> lines;
   std::vector<Column> columns;
 };
 
 struct Scenario {
-  std::string source_path;  ///< the file it was read from
+  std::string source_path; ///< the file it was read from
   std::string title;
   AnalysisType analysis = AnalysisType::plane_strain;
   double gamma_w = units::default_gamma_w;

@@ -12,8 +12,12 @@ class Progress {
 public:
   Progress(std::ostream& out, bool in_place, std::size_t total_steps, bool enabled);
 
-  void step(const std::string& stage, std::size_t stage_number, std::size_t n_stages,
-            double time_days, double dt_days, double solve_seconds);
+  void step(const std::string& stage,
+            std::size_t stage_number,
+            std::size_t n_stages,
+            double time_days,
+            double dt_days,
+            double solve_seconds);
   void finish();
 
 private:

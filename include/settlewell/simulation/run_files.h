@@ -14,7 +14,8 @@ namespace settlewell {
 class CsvFile {
 public:
   CsvFile(const std::string& path, const std::vector<std::string>& header, MPI_Comm comm);
-  void row(const std::vector<double>& values, const std::vector<std::string>& labels = {});
+  void row(const std::vector<double>& values,
+           const std::vector<std::string>& labels = {});
 
 private:
   std::unique_ptr<std::ofstream> out_;

@@ -53,7 +53,8 @@ private:
 };
 
 /// Writes the summary lines of a finished run.
-void print_summary(std::ostream& out, const RunSummary& summary,
+void print_summary(std::ostream& out,
+                   const RunSummary& summary,
                    const scenario::Scenario& scenario);
 
 /// Checks a scenario against its mesh without creating the Biot problem and
@@ -62,7 +63,8 @@ void check_scenario(const scenario::Scenario& scenario, MPI_Comm comm, std::ostr
 
 /// Writes the mesh of a scenario (.msh) and a VTU of its cells (region ids, with
 /// the names as field data) and of its lines. Collective.
-void write_scenario_mesh(const scenario::Scenario& scenario, const std::string& directory,
+void write_scenario_mesh(const scenario::Scenario& scenario,
+                         const std::string& directory,
                          MPI_Comm comm);
 
 } // namespace settlewell

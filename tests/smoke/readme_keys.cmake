@@ -1,0 +1,18 @@
+# Fails if the block between <!-- keys:begin --> and <!-- keys:end --> in the
+# README differs from `settlewell check --keys`.
+execute_process(COMMAND ${CMD} check --keys OUTPUT_VARIABLE printed RESULT_VARIABLE status)
+if(NOT status EQUAL 0)
+  message(FATAL_ERROR "settlewell check --keys failed")
+endif()
+file(READ ${README} readme)
+string(FIND "${readme}" "<!-- keys:begin -->\n```\n" begin)
+string(FIND "${readme}" "```\n<!-- keys:end -->" end)
+if(begin EQUAL -1 OR end EQUAL -1)
+  message(FATAL_ERROR "README has no key reference block")
+endif()
+math(EXPR begin "${begin} + 24")
+math(EXPR length "${end} - ${begin}")
+string(SUBSTRING "${readme}" ${begin} ${length} block)
+if(NOT block STREQUAL printed)
+  message(FATAL_ERROR "README key reference is out of date; paste `settlewell check --keys`")
+endif()
