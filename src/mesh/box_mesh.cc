@@ -59,6 +59,15 @@ Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm) {
                        std::to_string(cell->center()[1]) + " m without a region");
     cell->set_material_id(mesh.names.region_id(band->region));
   }
+  for (const auto& part : spec.parts) {
+    const auto side = mesh.names.boundary_id(part.side);
+    const auto id = mesh.names.add_boundary(part.name);
+    for (auto& cell : serial.active_cell_iterators())
+      for (const unsigned int f : cell->face_indices())
+        if (cell->at_boundary(f) && cell->face(f)->boundary_id() == side &&
+            part.where(cell->face(f)->center()))
+          cell->face(f)->set_boundary_id(id);
+  }
   mesh.triangulation->copy_triangulation(serial);
   return mesh;
 }

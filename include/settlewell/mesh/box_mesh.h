@@ -2,6 +2,7 @@
 
 #include "settlewell/mesh/mesh.h"
 
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -14,12 +15,21 @@ struct RegionBand {
   double top = 0.0;    ///< elevation of the band's top, m
 };
 
+/// A part of one of the box's sides that gets a name of its own: the faces of
+/// `side` whose centre satisfies `where`.
+struct BoxSidePart {
+  std::string side;
+  std::string name;
+  std::function<bool(const dealii::Point<2>&)> where;
+};
+
 /// A rectangle meshed by the given cell edges (graded as the caller likes), with
 /// boundaries named "left", "right", "bottom", "top" and regions in horizontal bands.
 struct BoxSpec {
   std::vector<double> x_edges;   ///< increasing x (or r) coordinates of cell edges, m
   std::vector<double> y_edges;   ///< increasing y (or z) coordinates of cell edges, m
   std::vector<RegionBand> bands; ///< empty: one region named "soil"
+  std::vector<BoxSidePart> parts;
 };
 
 /// Builds the box on `comm`. Throws InputError for edges that do not increase or

@@ -1,0 +1,35 @@
+// The meshes kept in meshes/ are those the examples generate: same cells, same
+// region, boundary and internal-line names. If an example changes, regenerate
+// with `settlewell mesh examples/<name>/scenario.toml -o DIR` and copy DIR/mesh.msh.
+#include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/scenario/parse.h"
+
+#include <gtest/gtest.h>
+
+class ExampleMesh : public ::testing::TestWithParam<std::string> {};
+
+TEST_P(ExampleMesh, KeptMeshMatchesTheGeneratedOne) {
+  const std::string root = SETTLEWELL_SOURCE_DIR;
+  const auto scenario = settlewell::scenario::read_scenario(
+      root + "/examples/" + GetParam() + "/scenario.toml");
+  const auto generated = settlewell::make_scenario_mesh(scenario, MPI_COMM_WORLD);
+  const auto kept =
+      settlewell::read_gmsh_file(root + "/meshes/" + GetParam() + ".msh", MPI_COMM_WORLD);
+  EXPECT_EQ(kept.triangulation->n_global_active_cells(),
+            generated.triangulation->n_global_active_cells());
+  EXPECT_EQ(kept.names.region_names(), generated.names.region_names());
+  EXPECT_EQ(kept.names.boundary_names(), generated.names.boundary_names());
+  ASSERT_EQ(kept.internal_lines.size(), generated.internal_lines.size());
+  for (const auto& [name, segments] : generated.internal_lines)
+    EXPECT_EQ(kept.internal_lines.at(name).size(), segments.size()) << name;
+}
+
+INSTANTIATE_TEST_SUITE_P(Examples,
+                         ExampleMesh,
+                         ::testing::Values("basement-pit", "shaft", "layered-column"),
+                         [](const auto& info) {
+                           std::string n = info.param;
+                           for (auto& c : n)
+                             c = c == '-' ? '_' : c;
+                           return n;
+                         });
