@@ -1,0 +1,49 @@
+#pragma once
+
+#include <string>
+#include <vector>
+
+/// The 1D hand estimate of settlement caused by a head change, built from a
+/// column of horizontal layers. Pure functions; m, kPa, s.
+namespace settlewell::checks {
+
+struct ColumnLayer {
+  std::string name;
+  double top = 0.0, bottom = 0.0; ///< elevations, m
+  double mv = 0.0;                ///< 1/kPa (1 / constrained modulus)
+  double cv = 0.0;                ///< m^2/s
+  bool consolidating = false;     ///< low permeability: drains slowly to its neighbours
+  double head_fall = 0.0;         ///< final fall of head in a draining layer, m
+};
+
+/// One layer's share of the estimate.
+struct LayerEstimate {
+  std::string name;
+  bool consolidating = false;
+  double settlement = 0.0;        ///< ultimate, m
+  double drainage_path = 0.0;     ///< Hdr, m (0 for a draining layer)
+  int drained_faces = 0;          ///< 0, 1 or 2
+  double t50 = 0.0, t90 = 0.0;    ///< s, from Tv = 0.197 and 0.848 (common practice)
+  double cv = 0.0;
+};
+
+struct OneDEstimate {
+  std::vector<LayerEstimate> layers;
+  double ultimate = 0.0; ///< m
+  /// Settlement at time t after an instantaneous head change (Terzaghi 1925) or
+  /// after one ramped linearly over `ramp` s (Olson 1977), draining layers
+  /// following the head change at once.
+  double settlement_at(double t, double ramp) const;
+  /// The time at which settlement_at reaches half of `ultimate`.
+  double t50(double ramp) const;
+};
+
+/// Layers top down. A consolidating layer drains through each face that touches a
+/// draining layer (its head fall applies there) and, at the top of the column,
+/// through the ground surface when `surface_drained` (no head change there).
+/// Its ultimate settlement is mv * gamma_w * H times the mean final head fall
+/// over its drained faces (both drained: linear; one: uniform).
+OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers, double gamma_w,
+                            bool surface_drained);
+
+} // namespace settlewell::checks

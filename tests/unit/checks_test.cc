@@ -1,0 +1,136 @@
+// The engineering checks' pure functions against hand calculations and the
+// check values of the verification references (sections 6 and 8).
+#include "settlewell/checks/damage.h"
+#include "settlewell/checks/one_d.h"
+#include "settlewell/checks/stability.h"
+#include "settlewell/verification/analytical.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+namespace c = settlewell::checks;
+
+// Synthetic trough s = 40 mm exp(-x^2 / (2 * 10^2)) with A, B, C at 5, 15, 25 m:
+// check values "computed here" in the references, section 8 (Burland & Wroth 1974
+// definitions).
+TEST(Damage, GaussianTroughMeasuresMatchTheReferenceValues) {
+  c::FoundationMovement m;
+  for (const double x : {5.0, 15.0, 25.0}) {
+    m.x.push_back(x);
+    m.settlement.push_back(0.040 * std::exp(-x * x / 200.0));
+    m.ux.push_back(0.0);
+  }
+  EXPECT_NEAR(m.settlement[0], 35.2999e-3, 1e-7);
+  const c::Distortion d = c::distortion(m);
+  EXPECT_NEAR(d.tilt, -1.67712e-3, 1e-8);
+  EXPECT_NEAR(d.angular_distortion, 5.54258e-4, 1e-9);
+  EXPECT_NEAR(d.deflection_ratio, 2.77129e-4, 1e-9);
+  EXPECT_TRUE(d.hogging);
+  EXPECT_NEAR(d.max_settlement, 35.2999e-3, 1e-7);
+  EXPECT_NEAR(d.differential, (35.2999 - 1.75748) * 1e-3, 1e-7);
+  EXPECT_DOUBLE_EQ(d.horizontal_strain, 0.0);
+}
+
+TEST(Damage, SaggingAndHorizontalStrain) {
+  c::FoundationMovement m{{0.0, 10.0, 20.0}, {0.0, 0.004, 0.0}, {0.0, 0.001, 0.002}};
+  const c::Distortion d = c::distortion(m);
+  EXPECT_FALSE(d.hogging);
+  EXPECT_NEAR(d.deflection_ratio, 0.004 / 20.0, 1e-15);
+  EXPECT_NEAR(d.horizontal_strain, 0.002 / 20.0, 1e-15);
+  EXPECT_NEAR(d.angular_distortion, 0.004 / 10.0, 1e-15);
+}
+
+// Limiting tensile strains of Boscardin & Cording (1989) and Burland (1995):
+// 0.05, 0.075, 0.15 and 0.3 %, checked at, just below and just above each.
+TEST(Damage, CategoriesChangeExactlyAtTheLimitingStrains) {
+  const double limits[] = {0.0005, 0.00075, 0.0015, 0.003};
+  for (int k = 0; k < 4; ++k) {
+    EXPECT_EQ(c::category_from_strain(limits[k] * (1 - 1e-9)).category, k) << limits[k];
+    EXPECT_EQ(c::category_from_strain(limits[k]).category, k + 1) << limits[k];
+    EXPECT_EQ(c::category_from_strain(limits[k] * (1 + 1e-9)).category, k + 1) << limits[k];
+  }
+  EXPECT_EQ(c::category_from_strain(0.0).degree, "negligible");
+  EXPECT_EQ(c::category_from_strain(0.01).degree, "severe to very severe");
+}
+
+// With no horizontal strain the principal strain is beta/2, so the category
+// boundaries in angular distortion are 1.0, 1.5, 3.0, 6.0 x 1e-3 (references §8).
+TEST(Damage, PrincipalStrainWithoutHorizontalStrainIsHalfTheDistortion) {
+  const double boundaries[] = {1.0e-3, 1.5e-3, 3.0e-3, 6.0e-3};
+  for (int k = 0; k < 4; ++k) {
+    EXPECT_NEAR(c::principal_tensile_strain(0.0, boundaries[k]), boundaries[k] / 2, 1e-15);
+    EXPECT_EQ(c::category_from_strain(c::principal_tensile_strain(0.0, 0.999 * boundaries[k])).category, k);
+    EXPECT_EQ(c::category_from_strain(c::principal_tensile_strain(0.0, 1.001 * boundaries[k])).category, k + 1);
+  }
+  // Pure horizontal tension is itself the principal strain; compression relieves.
+  EXPECT_NEAR(c::principal_tensile_strain(0.001, 0.0), 0.001, 1e-15);
+  EXPECT_NEAR(c::principal_tensile_strain(-0.001, 0.0), 0.0, 1e-15);
+}
+
+// Deep beam (Burland 1995) by hand for L = H = 10 m, sagging, dL = 1e-4, eh = 0:
+// I = 1000/12, t = 5: bending = 1e-4 / (10/60 + 3*I*2.6/(2*5*10*10)) = 1e-4/0.816667;
+// diagonal = 1e-4 / (1 + 10*100/(18*I*2.6)) = 1e-4/1.2564103.
+TEST(Damage, DeepBeamStrainsByHand) {
+  const c::BeamStrains s = c::deep_beam_strains(1e-4, false, 10.0, 10.0, 0.0);
+  EXPECT_NEAR(s.bending, 1e-4 / 0.8166667, 1e-10);
+  EXPECT_NEAR(s.diagonal, 1e-4 / 1.2564103, 1e-10);
+}
+
+// References section 6: Gs = 2.65, e = 0.65 give i_c = 1; the infinite-depth
+// example d = 6 m, h_a = 1.41584 m, gamma' = 10 kN/m^3 gives FS_heave = 4.31983;
+// 4 m of clay at 18 kN/m^3 over h_p = 10 m gives FS_uplift = 0.733945, and
+// FS = 1.1 at h_p = 6.67223 m.
+TEST(Stability, FactorsMatchTheReferenceHandCalculations) {
+  const double gw = 9.81;
+  const double gamma_sat = (2.65 + 0.65) / (1 + 0.65) * gw;
+  EXPECT_NEAR(c::critical_gradient(gamma_sat, gw), 1.0, 1e-12);
+  // The inputs are the references' 6-digit values, so the factors agree to about
+  // 3e-6 relative.
+  EXPECT_NEAR(c::piping_factor(1.0, 0.212207), 4.71239, 3e-5);
+  EXPECT_NEAR(c::heave_factor(10.0, 6.0, 1.41584, gw), 4.31983, 3e-5);
+  EXPECT_NEAR(c::uplift_factor(4 * 18.0, gw * 10.0), 0.733945, 1e-6);
+  EXPECT_NEAR(c::uplift_factor(4 * 18.0, gw * 6.67223), 1.1, 1e-6);
+  EXPECT_EQ(c::piping_factor(1.0, -0.1), c::unbounded);
+  EXPECT_EQ(c::heave_factor(10.0, 6.0, 0.0, gw), c::unbounded);
+  EXPECT_EQ(c::uplift_factor(72.0, -5.0), c::unbounded);
+}
+
+// A hand calculation with numbers of our own: 6 m of clay (mv 0.6 MPa^-1,
+// cv 2e-7 m^2/s) between an upper sand whose head stays and a lower sand 3 m thick
+// (mv 1.5e-5 1/kPa) whose head falls 5 m.
+//   clay: mv gw H (0 + 5)/2 = 0.6e-3 * 9.81 * 6 * 2.5 = 0.088290 m, Hdr = 3 m,
+//         t50 = 0.197 * 9 / 2e-7 = 8.865e6 s, t90 = 0.848 * 9 / 2e-7 = 3.816e7 s
+//   lower sand: 1.5e-5 * 9.81 * 5 * 3 = 0.0022073 m
+TEST(OneD, EstimateMatchesAHandCalculation) {
+  std::vector<c::ColumnLayer> layers{
+      {"upper_sand", 0.0, -2.0, 2e-5, 1.0, false, 0.0},
+      {"clay", -2.0, -8.0, 0.6e-3, 2e-7, true, 0.0},
+      {"lower_sand", -8.0, -11.0, 1.5e-5, 1.0, false, 5.0}};
+  const c::OneDEstimate e = c::estimate_one_d(layers, 9.81, true);
+  EXPECT_NEAR(e.layers[1].settlement, 0.088290, 1e-6);
+  EXPECT_NEAR(e.layers[1].drainage_path, 3.0, 1e-12);
+  EXPECT_EQ(e.layers[1].drained_faces, 2);
+  EXPECT_NEAR(e.layers[1].t50, 8.865e6, 1.0);
+  EXPECT_NEAR(e.layers[1].t90, 3.816e7, 1.0);
+  EXPECT_NEAR(e.layers[2].settlement, 0.0022073, 1e-7);
+  EXPECT_NEAR(e.ultimate, 0.088290 + 0.0022073, 1e-6);
+  // Instantaneous drop: at t50 of the clay, half the clay's share (Tv = 0.197
+  // gives U = 0.500338, Terzaghi 1925) plus all of the sand's.
+  EXPECT_NEAR(e.settlement_at(8.865e6, 0.0), 0.500338 * 0.088290 + 0.0022073, 1e-6);
+  // Ramped over Tc = 0.5: Olson (1977) U(0.5, 0.5) = 0.524667.
+  const double ramp = 0.5 * 9 / 2e-7;
+  EXPECT_NEAR(e.settlement_at(ramp, ramp), 0.524667 * 0.088290 + 0.0022073, 1e-6);
+  EXPECT_GT(e.t50(ramp), e.t50(0.0));
+}
+
+// A clay on an impermeable base drains through its top only: uniform stress
+// change and Hdr = H.
+TEST(OneD, SingleDrainageUsesTheWholeThickness) {
+  std::vector<c::ColumnLayer> layers{{"sand", 0.0, -3.0, 2e-5, 1.0, false, 4.0},
+                                     {"clay", -3.0, -7.0, 1e-3, 1e-7, true, 0.0}};
+  const c::OneDEstimate e = c::estimate_one_d(layers, 9.81, true);
+  EXPECT_EQ(e.layers[1].drained_faces, 1);
+  EXPECT_NEAR(e.layers[1].drainage_path, 4.0, 1e-12);
+  EXPECT_NEAR(e.layers[1].settlement, 1e-3 * 9.81 * 4.0 * 4.0, 1e-12);
+}
