@@ -20,7 +20,8 @@ Distortion distortion(const FoundationMovement& m) {
   double largest_deviation = 0.0;
   for (std::size_t i = 0; i < n; ++i) {
     if (i + 1 < n) {
-      const double slope = (m.settlement[i + 1] - m.settlement[i]) / (m.x[i + 1] - m.x[i]);
+      const double slope =
+          (m.settlement[i + 1] - m.settlement[i]) / (m.x[i + 1] - m.x[i]);
       d.angular_distortion = std::max(d.angular_distortion, std::abs(slope - d.tilt));
     }
     const double chord = m.settlement.front() + d.tilt * (m.x[i] - m.x.front());
@@ -50,8 +51,8 @@ double principal_tensile_strain(double eh, double beta) {
   return eh / 2.0 + std::sqrt(eh * eh / 4.0 + beta * beta / 4.0);
 }
 
-BeamStrains deep_beam_strains(double deflection_ratio, bool hogging, double L, double H,
-                              double eh) {
+BeamStrains
+deep_beam_strains(double deflection_ratio, bool hogging, double L, double H, double eh) {
   const double nu = 0.3, E_over_G = 2.6;
   // Per unit thickness: second moment and distance from the neutral axis to the
   // extreme fibre in tension.
@@ -59,11 +60,12 @@ BeamStrains deep_beam_strains(double deflection_ratio, bool hogging, double L, d
   const double t = hogging ? H : H / 2.0;
   const double bending_max =
       deflection_ratio / (L / (12.0 * t) + 3.0 * I * E_over_G / (2.0 * t * L * H));
-  const double diagonal_max = deflection_ratio / (1.0 + H * L * L / (18.0 * I * E_over_G));
+  const double diagonal_max =
+      deflection_ratio / (1.0 + H * L * L / (18.0 * I * E_over_G));
   BeamStrains s;
   s.bending = bending_max + eh;
-  s.diagonal = eh * (1.0 - nu) / 2.0 +
-               std::sqrt(eh * eh * std::pow((1.0 + nu) / 2.0, 2) + diagonal_max * diagonal_max);
+  s.diagonal = eh * (1.0 - nu) / 2.0 + std::sqrt(eh * eh * std::pow((1.0 + nu) / 2.0, 2) +
+                                                 diagonal_max * diagonal_max);
   return s;
 }
 

@@ -8,8 +8,10 @@ namespace settlewell::checks {
 
 namespace {
 
-LayerEstimate consolidating_layer(const std::vector<ColumnLayer>& layers, std::size_t k,
-                                  double gamma_w, bool surface_drained) {
+LayerEstimate consolidating_layer(const std::vector<ColumnLayer>& layers,
+                                  std::size_t k,
+                                  double gamma_w,
+                                  bool surface_drained) {
   const ColumnLayer& l = layers[k];
   LayerEstimate e{l.name, true, 0.0, 0.0, 0, 0.0, 0.0, l.cv};
   const double H = l.top - l.bottom;
@@ -33,7 +35,8 @@ LayerEstimate consolidating_layer(const std::vector<ColumnLayer>& layers, std::s
 
 } // namespace
 
-OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers, double gamma_w,
+OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
+                            double gamma_w,
                             bool surface_drained) {
   OneDEstimate out;
   for (std::size_t k = 0; k < layers.size(); ++k) {

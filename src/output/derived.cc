@@ -70,8 +70,9 @@ DerivedState Derivation::at(const Point<2>& x,
   d.deviator_stress = std::sqrt(1.5 * (s * s));
   d.vertical_effective_stress = -d.effective_stress[1][1];
 
-  Tensor<1, 2> head_gradient =
+  const Tensor<1, 2> head_gradient =
       initial_.head_gradient(x) + grad[FieldLayout::pressure] / gamma_w_;
+  d.head_gradient = head_gradient;
   d.darcy_flux[0] = -m.conductivity_x * head_gradient[0];
   d.darcy_flux[1] = -m.conductivity_y * head_gradient[1];
   return d;

@@ -97,6 +97,8 @@ std::vector<SampleValues> SamplePoints::evaluate(const BiotProblem& problem,
                                           &S::vertical_effective_stress,
                                           &S::mean_effective_stress,
                                           &S::deviator_stress,
+                                          &S::gradient_x,
+                                          &S::gradient_y,
                                           &S::flux_x,
                                           &S::flux_y};
   constexpr std::size_t n_fields = std::size(fields);
@@ -126,7 +128,9 @@ std::vector<SampleValues> SamplePoints::evaluate(const BiotProblem& problem,
                    d.mean_effective_stress,
                    d.deviator_stress,
                    d.darcy_flux[0],
-                   d.darcy_flux[1]};
+                   d.darcy_flux[1],
+                   d.head_gradient[0],
+                   d.head_gradient[1]};
     for (std::size_t f = 0; f < n_fields; ++f)
       local[i * n_fields + f] = sample.*fields[f];
   }

@@ -392,30 +392,88 @@ StepReport BiotProblem::advance_to(double t_new) {
   return report;
 }
 
+namespace {
+
+/// The prescribed pressure dofs of each active condition, a dof going to the first
+/// condition that constrains it (as in make_constraints).
+std::vector<std::set<types::global_dof_index>>
+active_pressure_dofs(const ResolvedConditions& conditions, const std::vector<LineDofs>& line_dofs,
+                     const DoFHandler<2>& dof_handler, const FieldLayout& layout, double t) {
+  std::vector<std::set<types::global_dof_index>> sets(conditions.pressures.size());
+  std::set<types::global_dof_index> claimed;
+  for (std::size_t k = 0; k < conditions.pressures.size(); ++k) {
+    const auto& bc = conditions.pressures[k];
+    if (!bc.window.contains(t))
+      continue;
+    std::vector<types::global_dof_index> dofs;
+    if (bc.line.internal) {
+      for (const auto& [dof, x] : line_dofs[k])
+        dofs.push_back(dof);
+    } else {
+      const IndexSet on = DoFTools::extract_boundary_dofs(
+          dof_handler, layout.mask_of(FieldLayout::pressure), {bc.line.id});
+      dofs.assign(on.begin(), on.end());
+    }
+    for (const auto d : dofs)
+      if (claimed.insert(d).second)
+        sets[k].insert(d);
+  }
+  return sets;
+}
+
+} // namespace
+
 double BiotProblem::outflow(const std::string& line) const {
   const Impl& m = *impl_;
   line_of_name_check(m.mesh, line);
   if (!(m.time > 0.0))
     return 0.0;
-  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k) {
-    const auto& bc = m.conditions.pressures[k];
-    if (bc.line.name != line || !bc.window.contains(m.time))
-      continue;
-    std::set<types::global_dof_index> dofs;
-    if (bc.line.internal) {
-      for (const auto& [dof, x] : m.pressure_line_dofs[k])
-        dofs.insert(dof);
-    } else {
-      const IndexSet on_boundary = DoFTools::extract_boundary_dofs(
-          m.dof_handler, m.layout.mask_of(FieldLayout::pressure), {bc.line.id});
-      dofs.insert(on_boundary.begin(), on_boundary.end());
-    }
-    return m.reaction_outflow(dofs);
-  }
+  const auto sets =
+      active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.dof_handler, m.layout, m.time);
+  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k)
+    if (m.conditions.pressures[k].line.name == line && m.conditions.pressures[k].window.contains(m.time))
+      return m.reaction_outflow(sets[k]);
   for (const auto& flux : m.conditions.fluxes)
     if (flux.line.name == line && flux.window.contains(m.time))
       return m.prescribed_outflow(flux);
   return 0.0;
+}
+
+double BiotProblem::net_outflow() const {
+  const Impl& m = *impl_;
+  if (!(m.time > 0.0))
+    return 0.0;
+  std::set<types::global_dof_index> all;
+  for (const auto& set :
+       active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.dof_handler, m.layout, m.time))
+    all.insert(set.begin(), set.end());
+  double total = m.reaction_outflow(all);
+  for (const auto& flux : m.conditions.fluxes)
+    if (flux.window.contains(m.time))
+      total += m.prescribed_outflow(flux);
+  return total;
+}
+
+double BiotProblem::storage_gain() const {
+  // add_old_state puts -(alpha eps_v + S p) phi_i into the p rows; the Q1 shape
+  // functions sum to one, so the rows sum to minus the stored volume.
+  const Impl& m = *impl_;
+  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
+  Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
+  double gain = 0.0;
+  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    kernel.reinit(cell);
+    now = 0.0;
+    before = 0.0;
+    const CellCoefficients& c = m.coefficients[cell->material_id()];
+    kernel.add_old_state(c, m.solution, now);
+    kernel.add_old_state(c, m.old_solution, before);
+    for (unsigned int i = 0; i < now.size(); ++i)
+      gain += before(i) - now(i);
+  }
+  return Utilities::MPI::sum(gain, m.comm);
 }
 
 double BiotProblem::time() const {

@@ -95,6 +95,21 @@ const std::vector<KeySpec>& all_keys() {
     {"output.lines[].samples", "integer", "", "101", "Sample points along the line"},
     {"output.columns[].name", "string", "", "required", "Column name"},
     {"output.columns[].x", "number", "m", "required", "x of a vertical column for the 1D comparison"},
+
+    {"neighbours[].name", "string", "", "required", "Neighbouring building"},
+    {"neighbours[].x_from", "number", "m", "required", "Start of its foundation"},
+    {"neighbours[].x_to", "number", "m", "required", "End of its foundation"},
+    {"neighbours[].foundation_level", "number", "m", "required", "Elevation of its foundation"},
+    {"neighbours[].height", "number", "m", "-", "Building height, for the deep-beam strains (Burland 1995)"},
+    {"neighbours[].samples", "integer", "", "21", "Points along the foundation"},
+
+    {"checks.piping_factor", "number", "", "1.5", "Least factor against piping at the excavation base before it is flagged"},
+    {"checks.heave_factor", "number", "", "1.5", "Least factor on Terzaghi's heave prism beside the wall toe"},
+    {"checks.uplift_factor", "number", "", "1.1", "Least factor against uplift of a low-permeability layer below the base"},
+    {"checks.low_permeability", "number", "m/s", "1e-7", "Layers with vertical conductivity at or below this confine (uplift) and consolidate (1D estimate)"},
+    {"checks.settlement_limit", "number", "m", "0.025", "Settlement of a neighbour above which it is flagged"},
+    {"checks.angular_distortion_limit", "number", "", "0.002", "Angular distortion of a neighbour above which it is flagged (1/500)"},
+    {"checks.mass_balance_tolerance", "number", "", "1e-6", "Relative water-balance error of a step above which a warning is given"},
   };
   return keys;
 }

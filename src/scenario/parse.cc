@@ -175,6 +175,7 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_boundaries(top, s);
   parse_stages(top, s);
   parse_output(top, s);
+  parse_checks(top, s);
   return s;
 }
 

@@ -15,6 +15,7 @@ void parse_groundwater(const TableReader& top, Scenario& s);
 void parse_boundaries(const TableReader& top, Scenario& s);
 void parse_stages(const TableReader& top, Scenario& s);
 void parse_output(const TableReader& top, Scenario& s);
+void parse_checks(const TableReader& top, Scenario& s);
 
 /// The layers (or mesh regions) by name, whichever geometry was given.
 std::vector<std::string> region_names(const Scenario& s);

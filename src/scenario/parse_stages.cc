@@ -200,3 +200,53 @@ void parse_output(const TableReader& top, Scenario& s) {
 }
 
 } // namespace settlewell::scenario
+
+namespace settlewell::scenario {
+
+namespace {
+
+double positive_or(const TableReader& r, const std::string& key, double fallback) {
+  return r.has(key) ? r.positive(key) : fallback;
+}
+
+} // namespace
+
+void parse_checks(const TableReader& top, Scenario& s) {
+  for_each_table(top, "neighbours", [&](const TableReader& r) {
+    Neighbour n;
+    n.name = r.text("name");
+    n.x_from = r.number("x_from");
+    n.x_to = r.number("x_to");
+    n.foundation_level = r.number("foundation_level");
+    if (!(n.x_to > n.x_from))
+      r.fail("x_to", "must be greater than x_from");
+    if (r.has("height"))
+      n.height = r.positive("height");
+    const long long samples = r.optional_integer("samples").value_or(21);
+    if (samples < 3 || samples > 10000)
+      r.fail("samples", "must lie in 3..10000");
+    n.samples = static_cast<unsigned int>(samples);
+    double x0, x1, y0, y1;
+    if (model_extent(s, x0, x1, y0, y1)) {
+      if (n.x_from < x0 - 1e-9 || n.x_to > x1 + 1e-9)
+        r.fail("x_from", "the foundation lies outside the model");
+      if (n.foundation_level < y0 || n.foundation_level > y1)
+        r.fail("foundation_level", "lies outside the model");
+    }
+    s.neighbours.push_back(n);
+  });
+  const toml::table* t = top.table("checks");
+  if (t == nullptr)
+    return;
+  const TableReader r(*t, "checks", "checks", top.file());
+  CheckLimits& l = s.limits;
+  l.piping_factor = positive_or(r, "piping_factor", l.piping_factor);
+  l.heave_factor = positive_or(r, "heave_factor", l.heave_factor);
+  l.uplift_factor = positive_or(r, "uplift_factor", l.uplift_factor);
+  l.low_permeability = positive_or(r, "low_permeability", l.low_permeability);
+  l.settlement = positive_or(r, "settlement_limit", l.settlement);
+  l.angular_distortion = positive_or(r, "angular_distortion_limit", l.angular_distortion);
+  l.mass_balance = positive_or(r, "mass_balance_tolerance", l.mass_balance);
+}
+
+} // namespace settlewell::scenario

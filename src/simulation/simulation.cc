@@ -1,6 +1,6 @@
 #include "settlewell/simulation/simulation.h"
 
-#include "run_extremes.h"
+#include "run_recorder.h"
 #include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
@@ -31,16 +31,6 @@ bool is_root(MPI_Comm comm) {
   return Utilities::MPI::this_mpi_process(comm) == 0;
 }
 
-InitialFields initial_fields(const model::InitialState& initial) {
-  InitialFields f;
-  f.head = [&initial](const Point<2>& x) { return initial.head(x); };
-  f.head_gradient = [&initial](const Point<2>& x) { return initial.head_gradient(x); };
-  f.effective_stress = [&initial](const Point<2>& x, types::material_id r) {
-    return initial.effective_stress(x, r);
-  };
-  return f;
-}
-
 std::vector<Point<2>> line_samples(const scenario::SectionLine& line) {
   // Evenly spaced along the polyline, ends included.
   std::vector<double> cumulative{0.0};
@@ -64,28 +54,22 @@ std::vector<Point<2>> line_samples(const scenario::SectionLine& line) {
   return samples;
 }
 
-const std::vector<std::string> sample_columns{"head_m",
-                                              "drawdown_m",
-                                              "settlement_m",
-                                              "ux_m",
-                                              "excess_pore_pressure_kPa",
-                                              "pore_pressure_kPa",
-                                              "vertical_effective_stress_kPa"};
-
-std::vector<double> sample_row(const SampleValues& v) {
-  return {v.head,
-          v.drawdown,
-          v.settlement,
-          v.ux,
-          v.excess_pore_pressure,
-          v.pore_pressure,
-          v.vertical_effective_stress};
-}
-
-std::vector<std::string> with(std::vector<std::string> head,
-                              const std::vector<std::string>& tail) {
-  head.insert(head.end(), tail.begin(), tail.end());
-  return head;
+/// Every section run has a ground-surface profile (the settlement trough), added
+/// when the scenario does not name one.
+void add_ground_surface_line(scenario::Scenario& s) {
+  if (!s.section)
+    return;
+  for (const auto& line : s.output.lines)
+    if (line.name == "ground_surface")
+      return;
+  const auto& sec = *s.section;
+  const double outer = sec.excavation_width / 2 + (sec.wall ? sec.wall->thickness : 0.0) +
+                       sec.far_distance;
+  double x0 = (sec.half_model || s.analysis == AnalysisType::axisymmetric) ? 0.0 : -outer;
+  if (s.analysis == AnalysisType::axisymmetric && !sec.wells.empty())
+    x0 = sec.wells.front().radius;
+  const double y = sec.ground_surface;
+  s.output.lines.push_back({"ground_surface", {{x0, y}, {outer, y}}, 201});
 }
 
 } // namespace
@@ -119,6 +103,7 @@ Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
     point_list.emplace_back(p.x, p.y);
   points.emplace(*problem, point_list,
                  scenario.location_of("output") + ": output.points");
+  add_ground_surface_line(scenario);
   for (const auto& line : scenario.output.lines)
     lines.emplace_back(*problem, line_samples(line),
                        scenario.location_of("output") + ": output.lines '" + line.name +
@@ -144,95 +129,31 @@ RunSummary Simulation::run(const RunOptions& options) {
   write_scenario_mesh(m.scenario, dir + "/mesh", m.comm);
 
   BiotProblem& problem = *m.problem;
-  FieldWriter fields(dir + "/fields", "fields", m.comm, initial_fields(m.initial));
-  std::vector<std::string> step_header{
-      "step",       "time_days",  "dt_days",         "stage",
-      "new_matrix", "assembly_s", "factorisation_s", "solve_s"};
-  for (const auto& p : m.model.pumped)
-    step_header.push_back("discharge_" + p.label + "_m3_per_day");
-  CsvFile steps(dir + "/steps.csv", step_header, m.comm);
-  CsvFile point_table(dir + "/points.csv",
-                      with({"time_days", "stage", "point", "x_m", "y_m"}, sample_columns),
-                      m.comm);
-  std::vector<CsvFile> profile_tables;
-  for (const auto& line : m.scenario.output.lines)
-    profile_tables.emplace_back(
-        dir + "/profiles/" + line.name + ".csv",
-        with({"time_days", "distance_m", "x_m", "y_m"}, sample_columns), m.comm);
-
-  RunExtremes extremes(problem, m.scenario);
-  RunSummary summary;
-  summary.run_directory = dir;
-  summary.cells = problem.mesh().triangulation->n_global_active_cells();
-  summary.dofs = problem.dof_handler().n_dofs();
-  for (const auto& p : m.model.pumped)
-    summary.pumped_volume[p.label] = 0.0;
-
-  auto write_samples = [&](const std::string& stage) {
-    const double t_days = units::to_days(problem.time());
-    const auto values = m.points->evaluate(problem, *m.derivation);
-    for (std::size_t i = 0; i < values.size(); ++i) {
-      const auto& p = m.scenario.output.points[i];
-      auto row = sample_row(values[i]);
-      row.insert(row.begin(), {p.x, p.y});
-      point_table.row(row, {std::to_string(t_days), stage, p.name});
-    }
-  };
-  auto write_profiles = [&]() {
-    for (std::size_t l = 0; l < m.lines.size(); ++l) {
-      const auto values = m.lines[l].evaluate(problem, *m.derivation);
-      const auto& pts = m.lines[l].points();
-      double distance = 0.0;
-      for (std::size_t i = 0; i < values.size(); ++i) {
-        if (i > 0)
-          distance += pts[i].distance(pts[i - 1]);
-        auto row = sample_row(values[i]);
-        row.insert(row.begin(),
-                   {units::to_days(problem.time()), distance, pts[i][0], pts[i][1]});
-        profile_tables[l].row(row);
-      }
-    }
-  };
-
-  fields.write(problem);
-  write_samples(m.schedule.stages().front().name);
-  write_profiles();
+  const RunContext context{m.scenario,    m.schedule, m.model, m.initial, problem,
+                           *m.derivation, *m.points,  m.lines, m.comm};
+  RunRecorder recorder(context, dir);
+  recorder.start();
   const auto& times = m.schedule.step_times();
   Progress progress(std::cerr, options.progress_in_place, times.size(),
                     options.show_progress && is_root(m.comm));
   for (std::size_t n = 0; n < times.size(); ++n) {
     const StepReport report = problem.advance_to(times[n]);
+    recorder.step(report, n + 1);
     const std::size_t k = m.schedule.stage_at(report.time);
-    const std::string& stage = m.schedule.stages()[k].name;
-    std::vector<double> row{double(n + 1),
-                            units::to_days(report.time),
-                            units::to_days(report.dt),
-                            double(k + 1),
-                            report.new_matrix ? 1.0 : 0.0,
-                            report.assembly_seconds,
-                            report.factorisation_seconds,
-                            report.solve_seconds};
-    for (const auto& p : m.model.pumped) {
-      const double q = problem.outflow(p.line);
-      summary.pumped_volume[p.label] += q * report.dt;
-      row.push_back(q * units::seconds_per_day);
-    }
-    steps.row(row);
-    extremes.update(problem);
-    write_samples(stage);
-    if (m.schedule.is_output_time(report.time)) {
-      fields.write(problem);
-      write_profiles();
-    }
-    progress.step(stage, k + 1, m.schedule.stages().size(), units::to_days(report.time),
-                  units::to_days(report.dt), report.solve_seconds);
+    progress.step(m.schedule.stages()[k].name, k + 1, m.schedule.stages().size(),
+                  units::to_days(report.time), units::to_days(report.dt),
+                  report.solve_seconds);
   }
   progress.finish();
+  RunSummary summary;
+  summary.run_directory = dir;
+  summary.cells = problem.mesh().triangulation->n_global_active_cells();
+  summary.dofs = problem.dof_handler().n_dofs();
   summary.steps = times.size();
-  extremes.fill(summary);
   summary.wall_seconds =
       std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start)
           .count();
+  recorder.finish(summary);
   write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started,
                  m.comm);
   return summary;

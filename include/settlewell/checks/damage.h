@@ -16,14 +16,14 @@ struct FoundationMovement {
 
 /// Burland & Wroth (1974) measures of a foundation's deformation.
 struct Distortion {
-  double max_settlement = 0.0;      ///< m
-  double differential = 0.0;        ///< largest minus smallest settlement, m
-  double tilt = 0.0;                ///< rigid rotation, end-to-end slope of settlement
-  double angular_distortion = 0.0;  ///< largest |slope - tilt| over the spans
-  double deflection_ratio = 0.0;    ///< largest deviation from the chord / length
-  bool hogging = false;             ///< the deviation is upward (the middle settles less)
-  double horizontal_strain = 0.0;   ///< average, tension positive
-  double length = 0.0;              ///< m
+  double max_settlement = 0.0;     ///< m
+  double differential = 0.0;       ///< largest minus smallest settlement, m
+  double tilt = 0.0;               ///< rigid rotation, end-to-end slope of settlement
+  double angular_distortion = 0.0; ///< largest |slope - tilt| over the spans
+  double deflection_ratio = 0.0;   ///< largest deviation from the chord / length
+  bool hogging = false;            ///< the deviation is upward (the middle settles less)
+  double horizontal_strain = 0.0;  ///< average, tension positive
+  double length = 0.0;             ///< m
 };
 
 Distortion distortion(const FoundationMovement& movement);
@@ -51,7 +51,10 @@ struct BeamStrains {
   double bending = 0.0;  ///< eps_bmax + eh
   double diagonal = 0.0; ///< eh (1 - nu)/2 + sqrt(eh^2 ((1 + nu)/2)^2 + eps_dmax^2)
 };
-BeamStrains deep_beam_strains(double deflection_ratio, bool hogging, double length,
-                              double height, double horizontal_strain);
+BeamStrains deep_beam_strains(double deflection_ratio,
+                              bool hogging,
+                              double length,
+                              double height,
+                              double horizontal_strain);
 
 } // namespace settlewell::checks

@@ -20,10 +20,10 @@ struct ColumnLayer {
 struct LayerEstimate {
   std::string name;
   bool consolidating = false;
-  double settlement = 0.0;        ///< ultimate, m
-  double drainage_path = 0.0;     ///< Hdr, m (0 for a draining layer)
-  int drained_faces = 0;          ///< 0, 1 or 2
-  double t50 = 0.0, t90 = 0.0;    ///< s, from Tv = 0.197 and 0.848 (common practice)
+  double settlement = 0.0;     ///< ultimate, m
+  double drainage_path = 0.0;  ///< Hdr, m (0 for a draining layer)
+  int drained_faces = 0;       ///< 0, 1 or 2
+  double t50 = 0.0, t90 = 0.0; ///< s, from Tv = 0.197 and 0.848 (common practice)
   double cv = 0.0;
 };
 
@@ -43,7 +43,8 @@ struct OneDEstimate {
 /// through the ground surface when `surface_drained` (no head change there).
 /// Its ultimate settlement is mv * gamma_w * H times the mean final head fall
 /// over its drained faces (both drained: linear; one: uniform).
-OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers, double gamma_w,
+OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
+                            double gamma_w,
                             bool surface_drained);
 
 } // namespace settlewell::checks

@@ -18,7 +18,9 @@ double piping_factor(double critical, double exit_gradient);
 
 /// Terzaghi's (1943) heave check on the prism of depth d and width d/2 beside the
 /// wall toe: FS = gamma' d / (gamma_w h_a), h_a the mean excess head on its base.
-double heave_factor(double submerged_unit_weight, double depth, double mean_excess_head,
+double heave_factor(double submerged_unit_weight,
+                    double depth,
+                    double mean_excess_head,
                     double gamma_w);
 
 /// Uplift of a low-permeability layer (common practice, e.g. Terzaghi, Peck &

@@ -23,6 +23,7 @@ struct SampleValues {
   double mean_effective_stress = 0.0;     ///< kPa, compression positive
   double deviator_stress = 0.0;           ///< kPa
   double flux_x = 0.0, flux_y = 0.0;      ///< Darcy flux, m/s
+  double gradient_x = 0.0, gradient_y = 0.0; ///< hydraulic gradient grad h
 };
 
 /// A fixed set of points (monitoring points, samples along a section line) located

@@ -46,6 +46,14 @@ public:
   /// heads. Collective.
   double outflow(const std::string& line) const;
 
+  /// Water leaving through every boundary and line with a condition during the
+  /// last step, each prescribed dof counted once, m^3/s. Collective.
+  double net_outflow() const;
+  /// Water taken into storage during the last step, the integral of
+  /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle). With
+  /// net_outflow() * dt it closes the water balance. Collective.
+  double storage_gain() const;
+
   double time() const;
   MPI_Comm communicator() const;
   const Mesh& mesh() const;

@@ -147,6 +147,26 @@ struct Output {
   std::vector<Column> columns;
 };
 
+/// A neighbouring building whose foundation movement is screened.
+struct Neighbour {
+  std::string name;
+  double x_from = 0.0, x_to = 0.0; ///< m
+  double foundation_level = 0.0;   ///< elevation, m
+  std::optional<double> height;    ///< m, for the deep-beam strains
+  unsigned int samples = 21;
+};
+
+/// The thresholds the checks flag against (defaults are common practice).
+struct CheckLimits {
+  double piping_factor = 1.5;
+  double heave_factor = 1.5;
+  double uplift_factor = 1.1;
+  double low_permeability = 1e-7;       ///< m/s: layers at or below consolidate / confine
+  double settlement = 0.025;            ///< m
+  double angular_distortion = 1.0 / 500.0;
+  double mass_balance = 1e-6;           ///< relative
+};
+
 struct Scenario {
   std::string source_path; ///< the file it was read from
   std::string title;
@@ -160,6 +180,8 @@ struct Scenario {
   std::map<std::string, BoundarySpec> boundaries;
   std::vector<Stage> stages;
   Output output;
+  std::vector<Neighbour> neighbours;
+  CheckLimits limits;
   /// Where keys were given, for messages after parsing: key path -> "FILE:LINE:COL".
   std::map<std::string, std::string> locations;
 

@@ -30,6 +30,12 @@ struct RunSummary {
   double drawdown_anywhere = 0.0;           ///< m
   /// Pumped volume per pumped line (m^3; per metre run in plane strain).
   std::map<std::string, double> pumped_volume;
+  /// The same per stage, in stage order.
+  std::map<std::string, std::vector<double>> stage_volume;
+  /// Discharge of each pumped line at the last step, m^3/s.
+  std::map<std::string, double> final_discharge;
+  /// Largest relative water-balance error of a step, and its tolerance.
+  double mass_balance = 0.0, mass_balance_tolerance = 0.0;
   std::string run_directory;
 };
 
