@@ -2,6 +2,7 @@
 // into one line and an exit status. All the work is in the library.
 #include "settlewell/core/errors.h"
 #include "settlewell/core/version.h"
+#include "settlewell/report/report.h"
 #include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
 #include "settlewell/simulation/simulation.h"
@@ -85,6 +86,7 @@ struct ScenarioOptions {
   bool overwrite = false;
   bool quiet = false;
   bool keys = false;
+  bool report = false;
 };
 
 std::string default_folder(const std::string& scenario, const std::string& suffix) {
@@ -104,6 +106,14 @@ int run_run(const ScenarioOptions& o) {
   if (is_root())
     settlewell::print_summary(std::cout, summary,
                               settlewell::scenario::read_scenario(o.scenario));
+  if (o.report && is_root())
+    settlewell::report::write_report(options.run_directory, std::cout);
+  return exit_ok;
+}
+
+int run_report(const std::string& folder) {
+  if (is_root())
+    settlewell::report::write_report(folder, std::cout);
   return exit_ok;
 }
 
@@ -159,6 +169,15 @@ int dispatch(int argc, char** argv) {
   run_cmd->add_flag("--overwrite", run.overwrite,
                     "Replace the results in an existing run folder");
   run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
+  run_cmd->add_flag("--report", run.report, "Write the report into the run folder at the end");
+
+  std::string report_folder;
+  auto* report_cmd = app.add_subcommand(
+      "report", "Write report.html (self-contained, plots embedded) and report.md into a "
+                "run folder.");
+  report_cmd->add_option("run_folder", report_folder, "A finished run folder")
+      ->required()
+      ->check(CLI::ExistingDirectory);
 
   auto* check_cmd = app.add_subcommand(
       "check", "Validate a scenario and print what it describes; writes nothing.");
@@ -202,8 +221,10 @@ int dispatch(int argc, char** argv) {
     return run_check(check);
   if (mesh_cmd->parsed())
     return run_mesh(mesh);
+  if (report_cmd->parsed())
+    return run_report(report_folder);
   if (is_root())
-    std::cerr << "settlewell: a command is required (run, check, mesh, verify); see "
+    std::cerr << "settlewell: a command is required (run, check, mesh, report, verify); see "
                  "settlewell --help\n";
   return exit_usage;
 }

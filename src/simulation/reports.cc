@@ -10,6 +10,7 @@
 #include "settlewell/model/model_builder.h"
 #include "settlewell/physics/resolved_conditions.h"
 #include "settlewell/simulation/run_files.h"
+#include "run_recorder.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/grid/grid_tools.h>
@@ -143,6 +144,102 @@ void check_scenario(const scenario::Scenario& s, MPI_Comm comm, std::ostream& ou
     describe_scenario(s, mesh, schedule, out);
     out << "The scenario is valid.\n";
   }
+}
+
+namespace {
+
+std::string stage_changes(const scenario::Stage& st) {
+  std::ostringstream os;
+  const char* sep = "";
+  for (const auto& [well, target] : st.wells)
+    os << sep << "well " << well << ": " << target_text(target), sep = "; ";
+  for (const auto& [b, head] : st.boundary_heads)
+    os << sep << b << " head " << head << " m", sep = "; ";
+  if (st.excavation_level_head)
+    os << sep << "excavation level head " << *st.excavation_level_head << " m", sep = "; ";
+  for (const auto& load : st.loads)
+    os << sep << load.pressure << " kPa on " << load.boundary << " (x " << load.x_from << " to "
+       << load.x_to << " m)",
+        sep = "; ";
+  const std::string text = os.str();
+  return text.empty() ? "no change (held)" : text;
+}
+
+std::vector<std::string> geometry_lines(const scenario::Scenario& s) {
+  std::vector<std::string> lines;
+  std::ostringstream os;
+  if (s.section) {
+    const auto& sec = *s.section;
+    os << "Parametric section: ground surface " << sec.ground_surface << " m, model base "
+       << sec.bottom << " m, excavation " << sec.excavation_width << " m wide to "
+       << sec.excavation_level() << " m, far boundary " << sec.far_distance
+       << " m beyond the wall" << (sec.half_model ? ", half model" : ", full model");
+    lines.push_back(os.str());
+    if (sec.wall) {
+      std::ostringstream w;
+      w << "Cutoff wall: " << sec.wall->thickness << " m thick, toe at " << sec.wall->toe
+        << " m, material " << sec.wall->material;
+      lines.push_back(w.str());
+    }
+    for (const auto& well : sec.wells) {
+      std::ostringstream w;
+      w << "Well " << well.name << ": x " << well.x << " m, screen " << well.screen_bottom
+        << " to " << well.screen_top << " m";
+      lines.push_back(w.str());
+    }
+    for (const auto& l : sec.layers) {
+      std::ostringstream w;
+      w << "Layer " << l.name << " (" << l.material << ") from " << l.top << " m";
+      lines.push_back(w.str());
+    }
+  } else if (s.box) {
+    os << "Layered box " << s.box->width << " m wide, base at " << s.box->bottom << " m";
+    lines.push_back(os.str());
+    for (const auto& l : s.box->layers)
+      lines.push_back("Layer " + l.name + " (" + l.material + ") from " +
+                      std::to_string(l.top) + " m");
+  } else {
+    lines.push_back("Mesh file " + s.mesh_file->path);
+  }
+  std::ostringstream gw;
+  gw << "Initial water table " << s.groundwater.water_table << " m";
+  for (const auto& [layer, head] : s.groundwater.layer_heads)
+    gw << "; head " << head << " m in " << layer;
+  lines.push_back(gw.str());
+  return lines;
+}
+
+} // namespace
+
+toml::table inputs_table(const scenario::Scenario& s, const Mesh& mesh,
+                         const model::Schedule& schedule) {
+  toml::array materials, boundaries, stages, geometry;
+  for (const auto& [region, name] : model::region_materials(s, mesh)) {
+    const auto& m = s.materials.at(name);
+    materials.push_back(toml::table{{"region", region},
+                                    {"material", name},
+                                    {"unit_weight", m.unit_weight},
+                                    {"youngs_modulus_kPa", m.poroelastic.youngs_modulus},
+                                    {"poisson_ratio", m.poroelastic.poisson_ratio},
+                                    {"mv_per_kPa", 1.0 / m.poroelastic.constrained_modulus()},
+                                    {"kx", m.poroelastic.conductivity_x},
+                                    {"ky", m.poroelastic.conductivity_y},
+                                    {"k0", m.k0}});
+  }
+  for (const auto& [name, role] : model::boundary_roles(s, mesh))
+    boundaries.push_back(toml::table{{"name", name}, {"role", role_text(role)}});
+  for (std::size_t k = 0; k < s.stages.size(); ++k)
+    stages.push_back(toml::table{{"name", s.stages[k].name},
+                                 {"start_days", units::to_days(schedule.stages()[k].start)},
+                                 {"end_days", units::to_days(schedule.stages()[k].end)},
+                                 {"ramp_days", units::to_days(s.stages[k].ramp)},
+                                 {"changes", stage_changes(s.stages[k])}});
+  for (const auto& line : geometry_lines(s))
+    geometry.push_back(line);
+  return toml::table{{"materials", materials},
+                     {"boundaries", boundaries},
+                     {"stages", stages},
+                     {"geometry", geometry}};
 }
 
 void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scenario& s) {

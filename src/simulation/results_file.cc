@@ -204,6 +204,11 @@ void write_results(const std::string& path,
     return;
   toml::table root{{"program", "settlewell"},
                    {"version", version_string},
+                   {"input", c.scenario.source_path},
+                   {"input_sha256", sha256_of_file(c.scenario.source_path)},
+                   {"started", c.started},
+                   {"finished", utc_now()},
+                   {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(c.comm))},
                    {"title", c.scenario.title},
                    {"analysis", c.scenario.analysis == AnalysisType::axisymmetric
                                     ? "axisymmetric"
@@ -221,6 +226,7 @@ void write_results(const std::string& path,
   if (r.drawdown_outside)
     summary.insert("drawdown_outside_m", *r.drawdown_outside);
   root.insert("summary", summary);
+  root.insert("inputs", inputs_table(c.scenario, c.problem.mesh(), c.schedule));
   toml::array stages;
   for (const auto& st : c.schedule.stages())
     stages.push_back(toml::table{{"name", st.name},

@@ -10,6 +10,8 @@
 #include "settlewell/output/samples.h"
 #include "settlewell/simulation/run_files.h"
 
+#include <toml++/toml.h>
+
 #include <memory>
 #include <optional>
 
@@ -29,6 +31,7 @@ struct RunContext {
   const SamplePoints& points;
   const std::vector<SamplePoints>& lines;
   MPI_Comm comm;
+  std::string started; ///< UTC, ISO 8601
 };
 
 /// Writes the run folder: fields and profiles at output times, points, steps,
@@ -65,6 +68,10 @@ void write_results(const std::string& path,
                    const RunContext& context,
                    const RunSummary& summary,
                    const checks::RunChecks& checks);
+
+/// The inputs as the report shows them: materials, geometry, boundaries, stages.
+toml::table inputs_table(const scenario::Scenario& s, const Mesh& mesh,
+                         const model::Schedule& schedule);
 
 /// one_d/<column>.csv: the 2D settlement and the 1D estimates over time.
 void write_column_tables(const std::string& folder,

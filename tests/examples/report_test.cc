@@ -1,0 +1,48 @@
+// The report of the basement-pit example, and the water balance of its run.
+#include "example_support.h"
+
+#include "settlewell/report/report.h"
+
+#include <gtest/gtest.h>
+
+#include <cstdlib>
+#include <iostream>
+
+using namespace example_support;
+
+namespace {
+
+void coarse(toml::table& s) { coarsen_section(s, 1.0, 25.0, 1.4); }
+
+} // namespace
+
+// With consistent fluxes and a direct solver the water balance of every step is an
+// identity of the discrete equations: what leaves plus what is stored is zero to
+// round-off (1e-8 relative leaves room for the factorisation's error).
+TEST(Checks, WaterBalanceClosesAtEveryStep) {
+  const auto run = run_example("basement-pit", "balance", coarse);
+  const Csv steps(run.folder / "steps.csv");
+  for (const double e : steps.column("water_balance_error_relative"))
+    EXPECT_LT(e, 1e-8);
+  const auto results = toml::parse_file((run.folder / "results.toml").string());
+  EXPECT_TRUE(results["water_balance"]["closes"].value_or(false));
+  // The checks of the example are all there.
+  EXPECT_TRUE(results["base_stability"]["piping"].is_table());
+  EXPECT_EQ(results["base_stability"]["uplift"].as_array()->size(), 1u);
+  EXPECT_EQ(results["neighbours"].as_array()->size(), 2u);
+  EXPECT_EQ(results["columns"].as_array()->size(), 2u);
+}
+
+// The HTML report opens in headless Chromium with every figure decoded and is not
+// blank (tests/report/check_report.py); the Markdown twin is written beside it.
+TEST(Report, OpensInHeadlessChromiumWithEveryFigure) {
+  const auto run = run_example("basement-pit", "report", coarse);
+  settlewell::report::write_report(run.folder.string(), std::cout);
+  ASSERT_TRUE(std::filesystem::exists(run.folder / "report.html"));
+  ASSERT_TRUE(std::filesystem::exists(run.folder / "report.md"));
+  ASSERT_TRUE(std::filesystem::exists(CHROMIUM)) << "install Debian's chromium";
+  const std::string command = "/usr/bin/python3 " + std::string(SETTLEWELL_SOURCE_DIR) +
+                              "/tests/report/check_report.py " + run.folder.string() + " " +
+                              CHROMIUM;
+  EXPECT_EQ(std::system(command.c_str()), 0);
+}
