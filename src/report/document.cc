@@ -39,11 +39,20 @@ std::string escape(const std::string& s) {
   std::string out;
   for (const char c : s) {
     switch (c) {
-    case '<': out += "&lt;"; break;
-    case '>': out += "&gt;"; break;
-    case '&': out += "&amp;"; break;
-    case '"': out += "&quot;"; break;
-    default: out += c;
+    case '<':
+      out += "&lt;";
+      break;
+    case '>':
+      out += "&gt;";
+      break;
+    case '&':
+      out += "&amp;";
+      break;
+    case '"':
+      out += "&quot;";
+      break;
+    default:
+      out += c;
     }
   }
   return out;
@@ -124,8 +133,8 @@ void html_block(std::ostringstream& out, const Block& b, const std::string& fold
       out << "<p class=\"note\">The figure " << escape(b.image) << " is missing.</p>\n";
       break;
     }
-    out << "<figure><img alt=\"" << escape(b.text) << "\" src=\"data:image/png;base64," << data
-        << "\"><figcaption>" << escape(b.text) << "</figcaption></figure>\n";
+    out << "<figure><img alt=\"" << escape(b.text) << "\" src=\"data:image/png;base64,"
+        << data << "\"><figcaption>" << escape(b.text) << "</figcaption></figure>\n";
     break;
   }
   }
@@ -144,8 +153,8 @@ std::string to_html(const Document& d, const std::string& folder) {
   std::ostringstream out;
   out << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>"
       << escape(d.title) << "</title>\n<style>" << style << "</style>\n</head>\n<body>\n";
-  out << "<h1>" << escape(d.title) << "</h1>\n<p class=\"subtitle\">" << escape(d.subtitle)
-      << "</p>\n";
+  out << "<h1>" << escape(d.title) << "</h1>\n<p class=\"subtitle\">"
+      << escape(d.subtitle) << "</p>\n";
   for (const auto& s : d.sections) {
     out << "<h2>" << escape(s.heading) << "</h2>\n";
     for (const auto& b : s.blocks)

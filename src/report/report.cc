@@ -65,7 +65,9 @@ std::string plot_python() {
     candidates.emplace_back(env);
   candidates.insert(candidates.end(), {"/usr/bin/python3", "python3"});
   for (const auto& py : candidates)
-    if (std::system((shell_quote(py) + " -c 'import vtk, matplotlib' >/dev/null 2>&1").c_str()) == 0)
+    if (std::system(
+            (shell_quote(py) + " -c 'import vtk, matplotlib' >/dev/null 2>&1").c_str()) ==
+        0)
       return py;
   return "";
 }
@@ -86,7 +88,8 @@ std::string make_plots(const std::string& run, std::ostream& log) {
     return "the plotting script " + plot_script() + " is missing";
   log << "making plots with " << py << " ...\n";
   const std::string command = shell_quote(py) + " " + shell_quote(plot_script()) + " " +
-                              shell_quote(run) + " > " + shell_quote(run + "/plots.log") + " 2>&1";
+                              shell_quote(run) + " > " + shell_quote(run + "/plots.log") +
+                              " 2>&1";
   if (std::system(command.c_str()) != 0)
     return "the plotting script failed; see plots.log in the run folder";
   return "";
@@ -96,22 +99,24 @@ std::string make_plots(const std::string& run, std::ostream& log) {
 
 void cautions(Document& d) {
   d.add("Read this first")
-      .note("These results come from a two-dimensional, linear poroelastic (Biot) model of "
-            "the ground. They are an aid to design, not a design. They must be reviewed by "
-            "a qualified geotechnical engineer before they are used, and checked against "
-            "field observations as the works proceed. Local codes of practice, the "
-            "applicable design standards and licensed professional practice govern; no "
-            "partial factors are applied here.")
-      .list({"Small strains, linear-elastic isotropic soil skeleton, Darcy flow with "
-             "constant conductivity, full saturation (capillary saturation retained above "
-             "the water table).",
-             "Dewatering only: the soil inside the walls stays in place; the base checks "
-             "are for the final excavation level as if the pit were dug to it at each "
-             "time.",
-             "A plane-strain section treats wells as rows (line sinks) and the pit as "
-             "infinitely long; corners and 3D flow are not modelled.",
-             "Damage categories are a preliminary screening and do not replace a "
-             "structural assessment of the buildings."});
+      .note(
+          "These results come from a two-dimensional, linear poroelastic (Biot) model of "
+          "the ground. They are an aid to design, not a design. They must be reviewed by "
+          "a qualified geotechnical engineer before they are used, and checked against "
+          "field observations as the works proceed. Local codes of practice, the "
+          "applicable design standards and licensed professional practice govern; no "
+          "partial factors are applied here.")
+      .list(
+          {"Small strains, linear-elastic isotropic soil skeleton, Darcy flow with "
+           "constant conductivity, full saturation (capillary saturation retained above "
+           "the water table).",
+           "Dewatering only: the soil inside the walls stays in place; the base checks "
+           "are for the final excavation level as if the pit were dug to it at each "
+           "time.",
+           "A plane-strain section treats wells as rows (line sinks) and the pit as "
+           "infinitely long; corners and 3D flow are not modelled.",
+           "Damage categories are a preliminary screening and do not replace a "
+           "structural assessment of the buildings."});
 }
 
 void run_section(Document& d, const toml::table& r) {
@@ -121,11 +126,15 @@ void run_section(Document& d, const toml::table& r) {
        {{{"scenario"}, {text(r["input"])}},
         {{"scenario SHA-256"}, {text(r["input_sha256"])}},
         {{"program"}, {"settlewell " + text(r["version"])}},
-        {{"started / finished (UTC)"}, {text(r["started"]) + " / " + text(r["finished"])}},
+        {{"started / finished (UTC)"},
+         {text(r["started"]) + " / " + text(r["finished"])}},
         {{"analysis"}, {text(r["analysis"])}},
-        {{"mesh"}, {num(get(r["cells"]), 8) + " cells, " + num(get(r["unknowns"]), 8) + " unknowns"}},
+        {{"mesh"},
+         {num(get(r["cells"]), 8) + " cells, " + num(get(r["unknowns"]), 8) +
+          " unknowns"}},
         {{"time steps"}, {num(get(r["steps"]), 8)}},
-        {{"processes, wall time"}, {num(get(r["processes"]), 4) + ", " + fixed(get(r["wall_time_s"]), 1) + " s"}},
+        {{"processes, wall time"},
+         {num(get(r["processes"]), 4) + ", " + fixed(get(r["wall_time_s"]), 1) + " s"}},
         {{"water balance, worst step (relative)"},
          {num(get(r["water_balance"]["largest_relative_error"]), 2) + " (tolerance " +
               num(get(r["water_balance"]["tolerance"]), 2) + ")",
@@ -139,31 +148,38 @@ void inputs_section(Document& d, const toml::table& r) {
     for (const auto& line : *g)
       geometry.push_back(std::string(line.value<std::string_view>().value_or("")));
   s.list(geometry);
-  Table materials{{"region", "material", "unit weight (kN/m³)", "E' (kPa)", "ν'", "mv (1/MPa)",
-                   "kx (m/s)", "ky (m/s)", "K0"},
+  Table materials{{"region", "material", "unit weight (kN/m³)", "E' (kPa)", "ν'",
+                   "mv (1/MPa)", "kx (m/s)", "ky (m/s)", "K0"},
                   {}};
   if (const auto* ms = r["inputs"]["materials"].as_array())
     for (const auto& node : *ms) {
       const auto& m = *node.as_table();
-      materials.rows.push_back({{text(m["region"])}, {text(m["material"])},
-                                {num(get(m["unit_weight"]))}, {num(get(m["youngs_modulus_kPa"]))},
-                                {num(get(m["poisson_ratio"]))}, {num(1000 * get(m["mv_per_kPa"]))},
-                                {num(get(m["kx"]))}, {num(get(m["ky"]))}, {num(get(m["k0"]))}});
+      materials.rows.push_back({{text(m["region"])},
+                                {text(m["material"])},
+                                {num(get(m["unit_weight"]))},
+                                {num(get(m["youngs_modulus_kPa"]))},
+                                {num(get(m["poisson_ratio"]))},
+                                {num(1000 * get(m["mv_per_kPa"]))},
+                                {num(get(m["kx"]))},
+                                {num(get(m["ky"]))},
+                                {num(get(m["k0"]))}});
     }
   s.table(materials);
   Table boundaries{{"boundary", "hydraulic, mechanical"}, {}};
   if (const auto* bs = r["inputs"]["boundaries"].as_array())
     for (const auto& node : *bs)
-      boundaries.rows.push_back({{text((*node.as_table())["name"])}, {text((*node.as_table())["role"])}});
+      boundaries.rows.push_back(
+          {{text((*node.as_table())["name"])}, {text((*node.as_table())["role"])}});
   s.table(boundaries);
   Table stages{{"stage", "days", "ramp (days)", "changes"}, {}};
   if (const auto* st = r["inputs"]["stages"].as_array())
     for (const auto& node : *st) {
       const auto& t = *node.as_table();
-      stages.rows.push_back({{text(t["name"])},
-                             {num(get(t["start_days"]), 6) + " to " + num(get(t["end_days"]), 6)},
-                             {num(get(t["ramp_days"]), 6)},
-                             {text(t["changes"])}});
+      stages.rows.push_back(
+          {{text(t["name"])},
+           {num(get(t["start_days"]), 6) + " to " + num(get(t["end_days"]), 6)},
+           {num(get(t["ramp_days"]), 6)},
+           {text(t["changes"])}});
     }
   s.table(stages);
 }
@@ -178,15 +194,18 @@ void glance_section(Document& d, const toml::table& r, const std::string& unit) 
   if (sum.contains("settlement_outside_m"))
     items.push_back("Largest settlement outside the wall (ground surface): " +
                     fixed(1000 * get(sum["settlement_outside_m"]), 1) + " mm");
-  items.push_back("Largest settlement anywhere: " + fixed(1000 * get(sum["settlement_anywhere_m"]), 1) + " mm");
+  items.push_back("Largest settlement anywhere: " +
+                  fixed(1000 * get(sum["settlement_anywhere_m"]), 1) + " mm");
   if (sum.contains("drawdown_outside_m"))
-    items.push_back("Largest drawdown outside the wall: " + fixed(get(sum["drawdown_outside_m"]), 2) + " m");
+    items.push_back("Largest drawdown outside the wall: " +
+                    fixed(get(sum["drawdown_outside_m"]), 2) + " m");
   if (const auto* q = r["discharge"].as_array())
     for (const auto& node : *q) {
       const auto& t = *node.as_table();
-      items.push_back("Pumped by " + text(t["line"]) + ": " + fixed(get(t["volume_m3"]), 0) +
-                      " m³ " + unit + " in all, " + fixed(get(t["final_m3_per_day"]), 2) +
-                      " m³/day " + unit + " at the end");
+      items.push_back("Pumped by " + text(t["line"]) + ": " +
+                      fixed(get(t["volume_m3"]), 0) + " m³ " + unit + " in all, " +
+                      fixed(get(t["final_m3_per_day"]), 2) + " m³/day " + unit +
+                      " at the end");
     }
   s.list(items);
 }
@@ -196,8 +215,10 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
   if (q == nullptr || q->empty())
     return;
   Section& s = d.add("Pumped discharge");
-  s.paragraph("Discharges are the consistent flux at the pumped lines (the residual of the "
-              "storage equation where heads are prescribed), in m³/day " + unit + ".");
+  s.paragraph(
+      "Discharges are the consistent flux at the pumped lines (the residual of the "
+      "storage equation where heads are prescribed), in m³/day " +
+      unit + ".");
   Table t{{"line", "rate at the end (m³/day)"}, {}};
   if (const auto* stages = r["stages"].as_array())
     for (const auto& st : *stages)
@@ -205,7 +226,8 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
   t.header.push_back("total volume (m³)");
   for (const auto& node : *q) {
     const auto& line = *node.as_table();
-    std::vector<Cell> row{{text(line["line"])}, {fixed(get(line["final_m3_per_day"]), 2)}};
+    std::vector<Cell> row{{text(line["line"])},
+                          {fixed(get(line["final_m3_per_day"]), 2)}};
     if (const auto* vs = line["stage_volumes_m3"].as_array())
       for (const auto& v : *vs)
         row.push_back({fixed(v.value<double>().value_or(0.0), 1)});
@@ -220,24 +242,30 @@ void base_section(Document& d, const toml::table& r) {
   if (b == nullptr)
     return;
   Section& s = d.add("Base stability");
-  s.paragraph("Each factor is for the final excavation level at each output time, as if the "
-              "pit were dug to it then. \"Holds from\" is the first day after which the "
-              "factor stays at or above its limit.");
+  s.paragraph(
+      "Each factor is for the final excavation level at each output time, as if the "
+      "pit were dug to it then. \"Holds from\" is the first day after which the "
+      "factor stays at or above its limit.");
   Table t{{"check", "method", "least", "at the end", "limit", "holds from (day)"}, {}};
-  auto row = [&](const std::string& name, const std::string& method, const toml::table& f) {
+  auto row = [&](const std::string& name, const std::string& method,
+                 const toml::table& f) {
     const double limit = get(f["limit"]);
     const double holds = get(f["holds_from_days"], -1.0);
-    t.rows.push_back({{name}, {method}, factor_cell(get(f["least"]), limit),
-                      factor_cell(get(f["at_end"]), limit), {fixed(limit, 2)},
-                      holds >= 0 ? Cell{num(holds, 6), Flag::ok} : Cell{"never", Flag::attention}});
+    t.rows.push_back(
+        {{name},
+         {method},
+         factor_cell(get(f["least"]), limit),
+         factor_cell(get(f["at_end"]), limit),
+         {fixed(limit, 2)},
+         holds >= 0 ? Cell{num(holds, 6), Flag::ok} : Cell{"never", Flag::attention}});
   };
   row("piping at the base (exit gradient " + num(get((*b)["exit_gradient_at_end"])) +
           " at the end, critical " + num(get((*b)["critical_gradient"])) + ")",
       "i_c / i_exit, i_c = γ'/γw (Terzaghi 1922, 1943)", *(*b)["piping"].as_table());
   if (const auto* heave = (*b)["heave"].as_array())
     for (const auto& h : *heave)
-      row("heave beside the " + text((*h.as_table())["side"]) + " wall toe (prism depth " +
-              num(get((*h.as_table())["depth_m"])) + " m)",
+      row("heave beside the " + text((*h.as_table())["side"]) +
+              " wall toe (prism depth " + num(get((*h.as_table())["depth_m"])) + " m)",
           "γ' d / (γw h_a) on the prism d × d/2 (Terzaghi 1943)", *h.as_table());
   if (const auto* uplift = (*b)["uplift"].as_array())
     for (const auto& u : *uplift)
@@ -259,7 +287,8 @@ void neighbours_section(Document& d, const toml::table& r) {
          "level (greenfield, without the buildings' stiffness). It does not replace a "
          "structural assessment of the buildings.");
   Table t{{"building", "foundation", "largest settlement (mm)", "angular distortion",
-           "deflection ratio", "horizontal strain", "tensile strain", "category", "at day"},
+           "deflection ratio", "horizontal strain", "tensile strain", "category",
+           "at day"},
           {}};
   for (const auto& node : *ns) {
     const auto& n = *node.as_table();
@@ -271,25 +300,28 @@ void neighbours_section(Document& d, const toml::table& r) {
          {"x " + num(get(n["x_from_m"])) + " to " + num(get(n["x_to_m"])) + " m at " +
           num(get(n["foundation_level_m"])) + " m"},
          {fixed(1000 * settlement, 1), settlement > s_limit ? Flag::attention : Flag::ok},
-         {"1/" + num(beta > 0 ? 1.0 / beta : 0.0, 4), beta > b_limit ? Flag::attention : Flag::ok},
-         {num(get(n["deflection_ratio"]), 2) + (n["hogging"].value_or(false) ? " hogging" : " sagging")},
+         {"1/" + num(beta > 0 ? 1.0 / beta : 0.0, 4),
+          beta > b_limit ? Flag::attention : Flag::ok},
+         {num(get(n["deflection_ratio"]), 2) +
+          (n["hogging"].value_or(false) ? " hogging" : " sagging")},
          {num(get(n["horizontal_strain"]), 2)},
          {fixed(100 * get(n["principal_strain"]), 3) + " %"},
-         {std::to_string(category) + (category == 4 ? "-5 " : " ") + text(n["degree"]) + " (" +
-              text(n["crack_width"]) + ")",
+         {std::to_string(category) + (category == 4 ? "-5 " : " ") + text(n["degree"]) +
+              " (" + text(n["crack_width"]) + ")",
           category >= 3 ? Flag::attention : Flag::ok},
          {num(get(n["time_days"]), 6)}});
   }
   s.table(t);
-  s.paragraph("Measures as defined by Burland & Wroth (1974): tilt from the ends, angular "
-              "distortion as the largest slope minus the tilt, deflection ratio from the "
-              "chord. Category from the limiting tensile strain (Burland et al. 1977; "
-              "Boscardin & Cording 1989; Burland 1995): the principal strain from the "
-              "horizontal strain and angular distortion, and, where a height is given, the "
-              "deep-beam bending and diagonal strains (Burland 1995; E/G = 2.6), whichever is "
-              "worse. Flagged: settlement above " + fixed(1000 * s_limit, 0) +
-              " mm, angular distortion above 1/" + num(1.0 / b_limit, 4) +
-              ", category 3 (moderate) or worse.");
+  s.paragraph(
+      "Measures as defined by Burland & Wroth (1974): tilt from the ends, angular "
+      "distortion as the largest slope minus the tilt, deflection ratio from the "
+      "chord. Category from the limiting tensile strain (Burland et al. 1977; "
+      "Boscardin & Cording 1989; Burland 1995): the principal strain from the "
+      "horizontal strain and angular distortion, and, where a height is given, the "
+      "deep-beam bending and diagonal strains (Burland 1995; E/G = 2.6), whichever is "
+      "worse. Flagged: settlement above " +
+      fixed(1000 * s_limit, 0) + " mm, angular distortion above 1/" +
+      num(1.0 / b_limit, 4) + ", category 3 (moderate) or worse.");
   s.image("plots/trough.png", "Settlement trough along the ground surface");
 }
 
@@ -298,34 +330,37 @@ void columns_section(Document& d, const toml::table& r) {
   if (cs == nullptr || cs->empty())
     return;
   Section& s = d.add("1D hand estimate against the 2D model");
-  s.paragraph("At each column the 1D method is applied to the scenario's own layers: the "
-              "effective stress rises by γw·Δh in the draining layers, linearly through a "
-              "clay drained at both faces; S = Σ mv·Δσ'·H; t50 and t90 from Tv = 0.197 and "
-              "0.848 (common practice) with each clay's own drainage path; U(t) from "
-              "Terzaghi (1925) for an instantaneous drop and Olson (1977) for the ramp. "
-              "\"Design\" uses the head falls the scenario sets (the wells' target heads); "
-              "\"2D heads\" uses the falls the 2D model computes at the column.");
+  s.paragraph(
+      "At each column the 1D method is applied to the scenario's own layers: the "
+      "effective stress rises by γw·Δh in the draining layers, linearly through a "
+      "clay drained at both faces; S = Σ mv·Δσ'·H; t50 and t90 from Tv = 0.197 and "
+      "0.848 (common practice) with each clay's own drainage path; U(t) from "
+      "Terzaghi (1925) for an instantaneous drop and Olson (1977) for the ramp. "
+      "\"Design\" uses the head falls the scenario sets (the wells' target heads); "
+      "\"2D heads\" uses the falls the 2D model computes at the column.");
   for (const auto& node : *cs) {
     const auto& c = *node.as_table();
     const std::string name = text(c["name"]);
     Table t{{"column " + name + " at x = " + num(get(c["x_m"])) + " m", "value"}, {}};
     t.rows.push_back({{"2D settlement at day " + num(get(c["end_days"]), 6)},
                       {fixed(1000 * get(c["settlement_2d_end_m"]), 1) + " mm"}});
-    t.rows.push_back({{"1D with the 2D heads, same day (ramped)"},
-                      {fixed(1000 * get(c["settlement_1d_computed_end_m"]), 1) + " mm; S2D/S1D = " +
-                       fixed(get(c["ratio_2d_to_1d_computed_end"]), 2)}});
+    t.rows.push_back(
+        {{"1D with the 2D heads, same day (ramped)"},
+         {fixed(1000 * get(c["settlement_1d_computed_end_m"]), 1) +
+          " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_computed_end"]), 2)}});
     if (c.contains("design"))
-      t.rows.push_back({{"1D with the design drawdown, same day (ramped)"},
-                        {fixed(1000 * get(c["settlement_1d_design_end_m"]), 1) +
-                         " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_design_end"]), 2)}});
+      t.rows.push_back(
+          {{"1D with the design drawdown, same day (ramped)"},
+           {fixed(1000 * get(c["settlement_1d_design_end_m"]), 1) +
+            " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_design_end"]), 2)}});
     t.rows.push_back({{"ultimate 1D settlement (2D heads)"},
                       {fixed(1000 * get(c["computed"]["ultimate_m"]), 1) + " mm"}});
     t.rows.push_back({{"t50: 2D (to half its final value) / 1D ramped"},
                       {num(get(c["t50_2d_days"]), 4) + " / " +
                        num(get(c["computed"]["t50_days_ramped"]), 4) + " days"}});
     s.table(t);
-    Table layers{{"layer", "drained faces", "Hdr (m)", "cv (m²/year)", "t50 (days)", "t90 (days)",
-                  "S, 2D heads (mm)"},
+    Table layers{{"layer", "drained faces", "Hdr (m)", "cv (m²/year)", "t50 (days)",
+                  "t90 (days)", "S, 2D heads (mm)"},
                  {}};
     if (const auto* ls = c["computed"]["layers"].as_array())
       for (const auto& ln : *ls) {
@@ -346,7 +381,8 @@ void columns_section(Document& d, const toml::table& r) {
       for (const auto& n : *ns)
         notes.push_back(std::string(n.value<std::string_view>().value_or("")));
     s.list(notes);
-    s.image("plots/one_d_" + name + ".png", "Column " + name + ": settlement against time");
+    s.image("plots/one_d_" + name + ".png",
+            "Column " + name + ": settlement against time");
   }
 }
 
@@ -370,16 +406,20 @@ void views_section(Document& d, const std::string& run) {
 
 void limits_section(Document& d) {
   d.add("Assumptions and limits")
-      .list({"Quasi-static Biot consolidation, Taylor-Hood elements, implicit Euler in time; "
-             "verified against published solutions (settlewell verify).",
-             "Conductivity is often uncertain by an order of magnitude; run bounding cases.",
-             "Initial heads hydrostatic below the water table or as given per layer; "
-             "geostatic stress from the saturated unit weights and K0.",
-             "Base checks are screening factors of common practice, without the partial "
-             "factors of a design code.",
-             "Ground movements are greenfield: the buildings' stiffness is not modelled."})
-      .note("Review by a qualified geotechnical engineer is required before these results "
-            "are used. Local codes and licensed practice govern.");
+      .list(
+          {"Quasi-static Biot consolidation, Taylor-Hood elements, implicit Euler in "
+           "time; "
+           "verified against published solutions (settlewell verify).",
+           "Conductivity is often uncertain by an order of magnitude; run bounding "
+           "cases.",
+           "Initial heads hydrostatic below the water table or as given per layer; "
+           "geostatic stress from the saturated unit weights and K0.",
+           "Base checks are screening factors of common practice, without the partial "
+           "factors of a design code.",
+           "Ground movements are greenfield: the buildings' stiffness is not modelled."})
+      .note(
+          "Review by a qualified geotechnical engineer is required before these results "
+          "are used. Local codes and licensed practice govern.");
 }
 
 } // namespace
@@ -392,7 +432,8 @@ void write_report(const std::string& run, std::ostream& log) {
   try {
     r = toml::parse_file(results_path);
   } catch (const toml::parse_error& e) {
-    throw InputError(results_path + ": cannot be read (" + std::string(e.description()) + ")");
+    throw InputError(results_path + ": cannot be read (" + std::string(e.description()) +
+                     ")");
   }
   const std::string plot_problem = make_plots(run, log);
   const std::string unit = text(r["discharge_unit"]);
@@ -402,7 +443,8 @@ void write_report(const std::string& run, std::ostream& log) {
                text(r["finished"]) + " (UTC)";
   cautions(d);
   if (!plot_problem.empty())
-    d.sections.front().note("Figures are missing from this report: " + plot_problem + ".");
+    d.sections.front().note("Figures are missing from this report: " + plot_problem +
+                            ".");
   glance_section(d, r, unit);
   run_section(d, r);
   inputs_section(d, r);

@@ -2,6 +2,7 @@
 // the manifest.
 #include "run_extremes.h"
 
+#include "run_recorder.h"
 #include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
@@ -10,7 +11,6 @@
 #include "settlewell/model/model_builder.h"
 #include "settlewell/physics/resolved_conditions.h"
 #include "settlewell/simulation/run_files.h"
-#include "run_recorder.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/grid/grid_tools.h>
@@ -156,10 +156,11 @@ std::string stage_changes(const scenario::Stage& st) {
   for (const auto& [b, head] : st.boundary_heads)
     os << sep << b << " head " << head << " m", sep = "; ";
   if (st.excavation_level_head)
-    os << sep << "excavation level head " << *st.excavation_level_head << " m", sep = "; ";
+    os << sep << "excavation level head " << *st.excavation_level_head << " m",
+        sep = "; ";
   for (const auto& load : st.loads)
-    os << sep << load.pressure << " kPa on " << load.boundary << " (x " << load.x_from << " to "
-       << load.x_to << " m)",
+    os << sep << load.pressure << " kPa on " << load.boundary << " (x " << load.x_from
+       << " to " << load.x_to << " m)",
         sep = "; ";
   const std::string text = os.str();
   return text.empty() ? "no change (held)" : text;
@@ -211,29 +212,32 @@ std::vector<std::string> geometry_lines(const scenario::Scenario& s) {
 
 } // namespace
 
-toml::table inputs_table(const scenario::Scenario& s, const Mesh& mesh,
+toml::table inputs_table(const scenario::Scenario& s,
+                         const Mesh& mesh,
                          const model::Schedule& schedule) {
   toml::array materials, boundaries, stages, geometry;
   for (const auto& [region, name] : model::region_materials(s, mesh)) {
     const auto& m = s.materials.at(name);
-    materials.push_back(toml::table{{"region", region},
-                                    {"material", name},
-                                    {"unit_weight", m.unit_weight},
-                                    {"youngs_modulus_kPa", m.poroelastic.youngs_modulus},
-                                    {"poisson_ratio", m.poroelastic.poisson_ratio},
-                                    {"mv_per_kPa", 1.0 / m.poroelastic.constrained_modulus()},
-                                    {"kx", m.poroelastic.conductivity_x},
-                                    {"ky", m.poroelastic.conductivity_y},
-                                    {"k0", m.k0}});
+    materials.push_back(
+        toml::table{{"region", region},
+                    {"material", name},
+                    {"unit_weight", m.unit_weight},
+                    {"youngs_modulus_kPa", m.poroelastic.youngs_modulus},
+                    {"poisson_ratio", m.poroelastic.poisson_ratio},
+                    {"mv_per_kPa", 1.0 / m.poroelastic.constrained_modulus()},
+                    {"kx", m.poroelastic.conductivity_x},
+                    {"ky", m.poroelastic.conductivity_y},
+                    {"k0", m.k0}});
   }
   for (const auto& [name, role] : model::boundary_roles(s, mesh))
     boundaries.push_back(toml::table{{"name", name}, {"role", role_text(role)}});
   for (std::size_t k = 0; k < s.stages.size(); ++k)
-    stages.push_back(toml::table{{"name", s.stages[k].name},
-                                 {"start_days", units::to_days(schedule.stages()[k].start)},
-                                 {"end_days", units::to_days(schedule.stages()[k].end)},
-                                 {"ramp_days", units::to_days(s.stages[k].ramp)},
-                                 {"changes", stage_changes(s.stages[k])}});
+    stages.push_back(
+        toml::table{{"name", s.stages[k].name},
+                    {"start_days", units::to_days(schedule.stages()[k].start)},
+                    {"end_days", units::to_days(schedule.stages()[k].end)},
+                    {"ramp_days", units::to_days(s.stages[k].ramp)},
+                    {"changes", stage_changes(s.stages[k])}});
   for (const auto& line : geometry_lines(s))
     geometry.push_back(line);
   return toml::table{{"materials", materials},

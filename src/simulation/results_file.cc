@@ -202,21 +202,21 @@ void write_results(const std::string& path,
                    const checks::RunChecks& checks) {
   if (dealii::Utilities::MPI::this_mpi_process(c.comm) != 0)
     return;
-  toml::table root{{"program", "settlewell"},
-                   {"version", version_string},
-                   {"input", c.scenario.source_path},
-                   {"input_sha256", sha256_of_file(c.scenario.source_path)},
-                   {"started", c.started},
-                   {"finished", utc_now()},
-                   {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(c.comm))},
-                   {"title", c.scenario.title},
-                   {"analysis", c.scenario.analysis == AnalysisType::axisymmetric
-                                    ? "axisymmetric"
-                                    : "plane_strain"},
-                   {"cells", int64_t(r.cells)},
-                   {"unknowns", int64_t(r.dofs)},
-                   {"steps", int64_t(r.steps)},
-                   {"wall_time_s", r.wall_seconds}};
+  toml::table root{
+      {"program", "settlewell"},
+      {"version", version_string},
+      {"input", c.scenario.source_path},
+      {"input_sha256", sha256_of_file(c.scenario.source_path)},
+      {"started", c.started},
+      {"finished", utc_now()},
+      {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(c.comm))},
+      {"title", c.scenario.title},
+      {"analysis", c.scenario.analysis == AnalysisType::axisymmetric ? "axisymmetric"
+                                                                     : "plane_strain"},
+      {"cells", int64_t(r.cells)},
+      {"unknowns", int64_t(r.dofs)},
+      {"steps", int64_t(r.steps)},
+      {"wall_time_s", r.wall_seconds}};
   toml::table summary{{"settlement_anywhere_m", r.settlement_anywhere},
                       {"drawdown_anywhere_m", r.drawdown_anywhere}};
   if (r.settlement_inside)

@@ -12,7 +12,9 @@ using namespace example_support;
 
 namespace {
 
-void coarse(toml::table& s) { coarsen_section(s, 1.0, 25.0, 1.4); }
+void coarse(toml::table& s) {
+  coarsen_section(s, 1.0, 25.0, 1.4);
+}
 
 } // namespace
 
@@ -42,7 +44,7 @@ TEST(Report, OpensInHeadlessChromiumWithEveryFigure) {
   ASSERT_TRUE(std::filesystem::exists(run.folder / "report.md"));
   ASSERT_TRUE(std::filesystem::exists(CHROMIUM)) << "install Debian's chromium";
   const std::string command = "/usr/bin/python3 " + std::string(SETTLEWELL_SOURCE_DIR) +
-                              "/tests/report/check_report.py " + run.folder.string() + " " +
-                              CHROMIUM;
+                              "/tests/report/check_report.py " + run.folder.string() +
+                              " " + CHROMIUM;
   EXPECT_EQ(std::system(command.c_str()), 0);
 }

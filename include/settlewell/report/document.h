@@ -24,7 +24,7 @@ struct Block {
   std::string text;               ///< paragraph, note, or image caption
   std::vector<std::string> items; ///< list
   Table table;
-  std::string image;              ///< path relative to the report's folder
+  std::string image; ///< path relative to the report's folder
 };
 
 struct Section {
