@@ -33,6 +33,19 @@ LAGRANGE_QUAD = 70  # VTK_LAGRANGE_QUADRILATERAL: corners, edge midpoints, centr
 LAGRANGE_LOOP = [0, 4, 1, 5, 2, 6, 3, 7]
 
 
+def finish(fig, ax, out, title, xlabel, ylabel, legend=True):
+    """Labels, grid and legend of a chart, then save and close it."""
+    ax.set_xlabel(xlabel)
+    ax.set_ylabel(ylabel)
+    ax.set_title(title)
+    ax.grid(alpha=0.3)
+    if legend:
+        ax.legend(fontsize=8)
+    fig.tight_layout()
+    fig.savefig(out, dpi=110)
+    plt.close(fig)
+
+
 def read_csv(path):
     with open(path, newline="") as f:
         rows = list(csv.DictReader(f))
@@ -137,14 +150,7 @@ def trough(run, out):
         at = [r for r in rows if float(r["time_days"]) == t]
         ax.plot(numbers(at, "x_m"), [1000 * v for v in numbers(at, "settlement_m")], label=f"day {t:.3g}")
     ax.invert_yaxis()
-    ax.set_xlabel("x (m)")
-    ax.set_ylabel("settlement (mm, down)")
-    ax.set_title("Settlement trough along the ground surface")
-    ax.grid(alpha=0.3)
-    ax.legend(fontsize=8)
-    fig.tight_layout()
-    fig.savefig(out, dpi=110)
-    plt.close(fig)
+    finish(fig, ax, out, "Settlement trough along the ground surface", "x (m)", "settlement (mm, down)")
     return True
 
 
@@ -184,14 +190,8 @@ def one_d(run, name, out):
     for key, label, style in curves:
         if key in rows[0]:
             ax.plot(t, [1000 * v for v in numbers(rows, key)], style, label=label)
-    ax.set_xlabel("time (days)")
-    ax.set_ylabel("settlement (mm)")
-    ax.set_title(f"Column {name}: 1D hand estimate against the 2D model")
-    ax.grid(alpha=0.3)
-    ax.legend(fontsize=8)
-    fig.tight_layout()
-    fig.savefig(out, dpi=110)
-    plt.close(fig)
+    finish(fig, ax, out, f"Column {name}: 1D hand estimate against the 2D model", "time (days)",
+           "settlement (mm)")
 
 
 def discharge(run, unit, out):
@@ -203,14 +203,7 @@ def discharge(run, unit, out):
     t = numbers(rows, "time_days")
     for k in keys:
         ax.step(t, numbers(rows, k), where="pre", label=k[len("discharge_"):-len("_m3_per_day")])
-    ax.set_xlabel("time (days)")
-    ax.set_ylabel(f"discharge (m³/day {unit})")
-    ax.set_title("Pumped discharge")
-    ax.grid(alpha=0.3)
-    ax.legend(fontsize=8)
-    fig.tight_layout()
-    fig.savefig(out, dpi=110)
-    plt.close(fig)
+    finish(fig, ax, out, "Pumped discharge", "time (days)", f"discharge (m³/day {unit})")
     return True
 
 
@@ -233,14 +226,8 @@ def base_factors(run, results, out):
     for group in ("heave", "uplift"):
         for entry in limits.get(group, [])[:1]:
             ax.axhline(entry["limit"], color="tab:red", lw=0.8, ls=":")
-    ax.set_xlabel("time (days)")
-    ax.set_ylabel("factor of safety")
-    ax.set_title("Base stability at the final excavation level (factors above 20 not shown)")
-    ax.grid(alpha=0.3)
-    ax.legend(fontsize=8)
-    fig.tight_layout()
-    fig.savefig(out, dpi=110)
-    plt.close(fig)
+    finish(fig, ax, out, "Base stability at the final excavation level (factors above 20 not shown)",
+           "time (days)", "factor of safety")
     return True
 
 

@@ -169,7 +169,8 @@ int dispatch(int argc, char** argv) {
   run_cmd->add_flag("--overwrite", run.overwrite,
                     "Replace the results in an existing run folder");
   run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
-  run_cmd->add_flag("--report", run.report, "Write the report into the run folder at the end");
+  run_cmd->add_flag("--report", run.report,
+                    "Write the report into the run folder at the end");
 
   std::string report_folder;
   auto* report_cmd = app.add_subcommand(
@@ -224,8 +225,9 @@ int dispatch(int argc, char** argv) {
   if (report_cmd->parsed())
     return run_report(report_folder);
   if (is_root())
-    std::cerr << "settlewell: a command is required (run, check, mesh, report, verify); see "
-                 "settlewell --help\n";
+    std::cerr
+        << "settlewell: a command is required (run, check, mesh, report, verify); see "
+           "settlewell --help\n";
   return exit_usage;
 }
 

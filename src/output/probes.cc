@@ -2,6 +2,7 @@
 
 #include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
+#include "settlewell/physics/internal_lines.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/quadrature_lib.h>
@@ -60,21 +61,14 @@ double boundary_mean(const BiotProblem& problem,
   std::vector<Vector<double>> values(fv.n_quadrature_points,
                                      Vector<double>(FieldLayout::n_components));
   double integral = 0.0, measure = 0.0;
-  for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
-      continue;
-    for (const unsigned int f : cell->face_indices()) {
-      if (!cell->face(f)->at_boundary() || cell->face(f)->boundary_id() != id)
-        continue;
-      fv.reinit(cell, f);
-      fv.get_function_values(problem.solution(), values);
-      for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
-        const double w =
-            fv.JxW(q) *
-            (axisymmetric ? 2.0 * units::pi * fv.quadrature_point(q)[0] : 1.0);
-        integral += values[q][component] * w;
-        measure += w;
-      }
+  for (const auto& [cell, f] : faces_on_boundary(dof_handler, id)) {
+    fv.reinit(cell, f);
+    fv.get_function_values(problem.solution(), values);
+    for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
+      const double w =
+          fv.JxW(q) * (axisymmetric ? 2.0 * units::pi * fv.quadrature_point(q)[0] : 1.0);
+      integral += values[q][component] * w;
+      measure += w;
     }
   }
   integral = Utilities::MPI::sum(integral, problem.communicator());

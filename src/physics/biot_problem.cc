@@ -333,20 +333,19 @@ double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
     for (unsigned int i = 0; i < face_rhs.size(); ++i)
       total += face_rhs(i);
   };
-  for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
-      continue;
-    if (flux.line.internal) {
-      const auto found = line_flux_faces.find(cell->active_cell_index());
+  if (flux.line.internal) {
+    for (const auto& cell : dof_handler.active_cell_iterators()) {
+      const auto found = cell->is_locally_owned()
+                             ? line_flux_faces.find(cell->active_cell_index())
+                             : line_flux_faces.end();
       if (found != line_flux_faces.end())
         for (const auto& [face, k] : found->second)
           if (&conditions.fluxes[k] == &flux)
             add(cell, face);
-      continue;
     }
-    for (const unsigned int f : cell->face_indices())
-      if (cell->at_boundary(f) && cell->face(f)->boundary_id() == flux.line.id)
-        add(cell, f);
+  } else {
+    for (const auto& [cell, f] : faces_on_boundary(dof_handler, flux.line.id))
+      add(cell, f);
   }
   return Utilities::MPI::sum(total, comm);
 }
@@ -397,8 +396,11 @@ namespace {
 /// The prescribed pressure dofs of each active condition, a dof going to the first
 /// condition that constrains it (as in make_constraints).
 std::vector<std::set<types::global_dof_index>>
-active_pressure_dofs(const ResolvedConditions& conditions, const std::vector<LineDofs>& line_dofs,
-                     const DoFHandler<2>& dof_handler, const FieldLayout& layout, double t) {
+active_pressure_dofs(const ResolvedConditions& conditions,
+                     const std::vector<LineDofs>& line_dofs,
+                     const DoFHandler<2>& dof_handler,
+                     const FieldLayout& layout,
+                     double t) {
   std::vector<std::set<types::global_dof_index>> sets(conditions.pressures.size());
   std::set<types::global_dof_index> claimed;
   for (std::size_t k = 0; k < conditions.pressures.size(); ++k) {
@@ -428,10 +430,11 @@ double BiotProblem::outflow(const std::string& line) const {
   line_of_name_check(m.mesh, line);
   if (!(m.time > 0.0))
     return 0.0;
-  const auto sets =
-      active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.dof_handler, m.layout, m.time);
+  const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs,
+                                         m.dof_handler, m.layout, m.time);
   for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k)
-    if (m.conditions.pressures[k].line.name == line && m.conditions.pressures[k].window.contains(m.time))
+    if (m.conditions.pressures[k].line.name == line &&
+        m.conditions.pressures[k].window.contains(m.time))
       return m.reaction_outflow(sets[k]);
   for (const auto& flux : m.conditions.fluxes)
     if (flux.line.name == line && flux.window.contains(m.time))
@@ -444,8 +447,8 @@ double BiotProblem::net_outflow() const {
   if (!(m.time > 0.0))
     return 0.0;
   std::set<types::global_dof_index> all;
-  for (const auto& set :
-       active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.dof_handler, m.layout, m.time))
+  for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
+                                              m.dof_handler, m.layout, m.time))
     all.insert(set.begin(), set.end());
   double total = m.reaction_outflow(all);
   for (const auto& flux : m.conditions.fluxes)

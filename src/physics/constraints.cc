@@ -1,4 +1,5 @@
 #include "settlewell/physics/constraints.h"
+#include "settlewell/physics/internal_lines.h"
 
 #include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
@@ -37,22 +38,16 @@ std::pair<Tensor<1, 2>, double> face_geometry(const DoFHandler<2>& dof_handler,
   Tensor<1, 2> normal;
   double area = 0.0;
   bool have_normal = false;
-  for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
-      continue;
-    for (const unsigned int f : cell->face_indices()) {
-      if (!cell->face(f)->at_boundary() || cell->face(f)->boundary_id() != id)
-        continue;
-      fv.reinit(cell, f);
-      for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
-        const double r = fv.quadrature_point(q)[0];
-        area += fv.JxW(q) *
-                (analysis == AnalysisType::axisymmetric ? 2 * units::pi * r : 1.0);
-        if (!have_normal)
-          normal = fv.normal_vector(q), have_normal = true;
-        else if ((normal - fv.normal_vector(q)).norm() > 1e-8)
-          curved = true;
-      }
+  for (const auto& [cell, f] : faces_on_boundary(dof_handler, id)) {
+    fv.reinit(cell, f);
+    for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
+      const double r = fv.quadrature_point(q)[0];
+      area +=
+          fv.JxW(q) * (analysis == AnalysisType::axisymmetric ? 2 * units::pi * r : 1.0);
+      if (!have_normal)
+        normal = fv.normal_vector(q), have_normal = true;
+      else if ((normal - fv.normal_vector(q)).norm() > 1e-8)
+        curved = true;
     }
   }
   return {normal, area};

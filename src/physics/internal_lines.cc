@@ -46,6 +46,17 @@ pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
   return dofs;
 }
 
+std::vector<LineFace> faces_on_boundary(const DoFHandler<2>& dof_handler,
+                                        types::boundary_id id) {
+  std::vector<LineFace> faces;
+  for (const auto& cell : dof_handler.active_cell_iterators())
+    if (cell->is_locally_owned())
+      for (const unsigned int f : cell->face_indices())
+        if (cell->at_boundary(f) && cell->face(f)->boundary_id() == id)
+          faces.push_back({cell, f});
+  return faces;
+}
+
 std::vector<LineFace> faces_on_line(const DoFHandler<2>& dof_handler,
                                     const std::vector<Segment>& line) {
   std::vector<LineFace> faces;

@@ -9,12 +9,6 @@ namespace settlewell::scenario {
 
 namespace {
 
-std::string fmt(double v) {
-  std::ostringstream os;
-  os << v;
-  return os.str();
-}
-
 std::vector<Layer>
 read_layers(const TableReader& r, const Scenario& s, double top, double bottom) {
   std::vector<Layer> layers;
@@ -27,12 +21,12 @@ read_layers(const TableReader& r, const Scenario& s, double top, double bottom) 
     if (!s.materials.count(layer.material))
       l.fail("material", "no material named '" + layer.material + "'");
     if (layers.empty() && std::abs(layer.top - top) > 1e-9)
-      l.fail("top",
-             "the first layer must start at the top of the model (" + fmt(top) + " m)");
+      l.fail("top", "the first layer must start at the top of the model (" +
+                        format_number(top) + " m)");
     if (!layers.empty() && !(layer.top < layers.back().top))
       l.fail("top", "layer tops must decrease downward");
     if (!(layer.top > bottom))
-      l.fail("top", "lies at or below the model base (" + fmt(bottom) + " m)");
+      l.fail("top", "lies at or below the model base (" + format_number(bottom) + " m)");
     if (!names.insert(layer.name).second)
       l.fail("name", "two layers are named '" + layer.name + "'; give them names");
     layers.push_back(layer);
@@ -52,7 +46,7 @@ Wall read_wall(const TableReader& w, const Scenario& s, const Section& section) 
   if (!(wall.toe < section.ground_surface))
     w.fail("toe", "must lie below the ground surface");
   if (!(wall.toe > section.bottom))
-    w.fail("toe", "lies at or below the model base (" + fmt(section.bottom) +
+    w.fail("toe", "lies at or below the model base (" + format_number(section.bottom) +
                       " m); deepen the model");
   const std::string sides = w.text_or("sides", section.half_model ? "right" : "both");
   if (sides != "left" && sides != "right" && sides != "both")
@@ -80,7 +74,7 @@ void check_well(const TableReader& r,
                                 : !(std::abs(well.x) < half_width)) {
     r.fail("x", "the well lies outside the pit (" +
                     std::string(section.half_model ? "0 < x < " : "|x| < ") +
-                    fmt(half_width) + " m)");
+                    format_number(half_width) + " m)");
   }
   if (!(well.screen_top > well.screen_bottom))
     r.fail("screen_top", "must lie above screen_bottom");

@@ -9,12 +9,6 @@ namespace settlewell::scenario {
 
 namespace {
 
-std::string fmt(double v) {
-  std::ostringstream os;
-  os << v;
-  return os.str();
-}
-
 double days(const TableReader& r, const std::string& key) {
   return units::days(r.number(key));
 }
@@ -106,8 +100,8 @@ void parse_stages(const TableReader& top, Scenario& s) {
     if (stage.ramp < 0.0)
       r.fail("ramp", "must not be negative");
     if (stage.ramp > stage.duration * (1 + 1e-12))
-      r.fail("ramp", "is longer than its stage (" + fmt(units::to_days(stage.duration)) +
-                         " days)");
+      r.fail("ramp", "is longer than its stage (" +
+                         format_number(units::to_days(stage.duration)) + " days)");
     read_stage_changes(r, s, stage);
     stage.steps = read_time_steps(r, stage.duration);
     s.locations["stages." + stage.name] = r.where("name");
@@ -126,9 +120,10 @@ void check_inside(
     return; // a mesh file: checked when the mesh is loaded
   const double tol = 1e-9 * std::max(1.0, x1 - x0);
   if (x < x0 - tol || x > x1 + tol || y < y0 - tol || y > y1 + tol)
-    r.fail(key, "the point (" + fmt(x) + ", " + fmt(y) + ") lies outside the model (x " +
-                    fmt(x0) + " to " + fmt(x1) + ", y " + fmt(y0) + " to " + fmt(y1) +
-                    ")");
+    r.fail(key, "the point (" + format_number(x) + ", " + format_number(y) +
+                    ") lies outside the model (x " + format_number(x0) + " to " +
+                    format_number(x1) + ", y " + format_number(y0) + " to " +
+                    format_number(y1) + ")");
 }
 
 std::pair<double, double> read_xy(const TableReader& r, const toml::node& node) {
@@ -188,7 +183,7 @@ void parse_output(const TableReader& top, Scenario& s) {
             position(r.file(), node) +
             ": output.times: each time must lie after 0 and not after the last "
             "stage ends (" +
-            fmt(units::to_days(s.end_time())) + " days)");
+            format_number(units::to_days(s.end_time())) + " days)");
       s.output.times.push_back(t_s);
     }
   }

@@ -9,6 +9,12 @@
 
 namespace settlewell::scenario {
 
+std::string format_number(double v) {
+  std::ostringstream os;
+  os << v;
+  return os.str();
+}
+
 std::string position(const std::string& file, const toml::node& node) {
   const auto& begin = node.source().begin;
   return file + ":" + std::to_string(begin.line) + ":" + std::to_string(begin.column);
@@ -89,9 +95,7 @@ double TableReader::number_or(const std::string& key, double fallback) const {
 double TableReader::positive(const std::string& key) const {
   const double value = number(key);
   if (!(value > 0.0)) {
-    std::ostringstream os;
-    os << "must be positive (got " << value << ")";
-    fail(key, os.str());
+    fail(key, "must be positive (got " + format_number(value) + ")");
   }
   return value;
 }

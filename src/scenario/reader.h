@@ -8,6 +8,9 @@
 
 namespace settlewell::scenario {
 
+/// A number as a message shows it (shortest form, "0.5", "1e-09").
+std::string format_number(double v);
+
 /// "FILE:LINE:COL" of a node.
 std::string position(const std::string& file, const toml::node& node);
 

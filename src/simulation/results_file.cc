@@ -58,22 +58,23 @@ toml::table base_table(const checks::RunChecks& checks,
                 {"exit_gradient_at_end", last.exit_gradient},
                 {"exit_x_at_end_m", last.exit_x},
                 {"critical_gradient", last.critical_gradient}};
-  toml::array heave, uplift;
-  for (std::size_t i = 0; i < last.heave.size(); ++i) {
+  // The history of the i-th entry of a per-time list (heave sides, uplift layers).
+  auto history_of = [&](auto member, std::size_t i, double limit) {
     std::vector<double> f;
     for (const auto& b : history)
-      f.push_back(b.heave[i].factor);
-    toml::table h = factor_history(times, f, limits.heave_factor);
+      f.push_back(((b.*member)[i]).factor);
+    return factor_history(times, f, limit);
+  };
+  toml::array heave, uplift;
+  for (std::size_t i = 0; i < last.heave.size(); ++i) {
+    toml::table h = history_of(&checks::BaseStability::heave, i, limits.heave_factor);
     h.insert("side", last.heave[i].side);
     h.insert("depth_m", last.heave[i].depth);
     h.insert("mean_excess_head_at_end_m", last.heave[i].mean_excess_head);
     heave.push_back(h);
   }
   for (std::size_t i = 0; i < last.uplift.size(); ++i) {
-    std::vector<double> f;
-    for (const auto& b : history)
-      f.push_back(b.uplift[i].factor);
-    toml::table u = factor_history(times, f, limits.uplift_factor);
+    toml::table u = history_of(&checks::BaseStability::uplift, i, limits.uplift_factor);
     u.insert("layer", last.uplift[i].layer);
     u.insert("underside_m", last.uplift[i].underside);
     u.insert("overburden_kPa", last.uplift[i].overburden);

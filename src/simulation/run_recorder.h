@@ -70,7 +70,8 @@ void write_results(const std::string& path,
                    const checks::RunChecks& checks);
 
 /// The inputs as the report shows them: materials, geometry, boundaries, stages.
-toml::table inputs_table(const scenario::Scenario& s, const Mesh& mesh,
+toml::table inputs_table(const scenario::Scenario& s,
+                         const Mesh& mesh,
                          const model::Schedule& schedule);
 
 /// one_d/<column>.csv: the 2D settlement and the 1D estimates over time.

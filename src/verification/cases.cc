@@ -18,7 +18,8 @@ const std::vector<VerificationCase>& all_cases() {
       {"thiem", "steady drawdown around a well, coupled run", run_thiem},
       {"theis", "transient drawdown around a well, rigid skeleton", run_theis},
       {"convergence", "observed orders in mesh size and time step", run_convergence},
-      {"harr", "steady seepage under a cutoff wall: discharge, exit gradient, heave prism",
+      {"harr",
+       "steady seepage under a cutoff wall: discharge, exit gradient, heave prism",
        run_harr},
   };
   return cases;

@@ -2,6 +2,8 @@
 // in days, every VTU holds every field, and the values are those of the CSV files.
 #include "example_support.h"
 
+#include "../test_support.h"
+
 #include <gtest/gtest.h>
 #include <vtkDataArray.h>
 #include <vtkPointData.h>
@@ -10,7 +12,6 @@
 #include <vtkXMLUnstructuredGridReader.h>
 
 #include <fstream>
-#include <regex>
 
 using namespace example_support;
 
@@ -18,14 +19,9 @@ TEST(RunFolder, SeriesOpensInVtkWithEveryFieldAndTimesInDays) {
   const auto run = run_example("basement-pit", "readback", [](toml::table& s) {
     coarsen_section(s, 1.5, 30.0, 1.5);
   });
-  std::ifstream pvd(run.folder / "fields" / "fields.pvd");
-  ASSERT_TRUE(pvd);
-  const std::string text((std::istreambuf_iterator<char>(pvd)), {});
-  const std::regex entry("timestep=\"([^\"]+)\"[^>]*file=\"([^\"]+)\"");
-  std::vector<std::pair<double, std::string>> series;
-  for (auto it = std::sregex_iterator(text.begin(), text.end(), entry);
-       it != std::sregex_iterator(); ++it)
-    series.emplace_back(std::stod((*it)[1]), (*it)[2]);
+  ASSERT_TRUE(std::filesystem::exists(run.folder / "fields" / "fields.pvd"))
+      << "no PVD series written";
+  const auto series = test_support::read_pvd(run.folder / "fields" / "fields.pvd");
   // t = 0, 4 log-spaced times and the end of each of the two stages, and the four
   // extra times of the example (7, 30, 120, 200 days).
   ASSERT_EQ(series.size(), 1u + 2 * 5 + 4);

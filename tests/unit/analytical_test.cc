@@ -105,9 +105,11 @@ TEST(Wells, TheisWellFunctionAndThiem) {
 // Harr (1962) single wall in a layer of finite depth: check values of the
 // verification references, section 5 (closed form and independent quadrature).
 TEST(Harr, DischargeAndExitGradientMatchTabulatedValues) {
-  const std::vector<std::tuple<double, double, double>> table{
-      {0.1, 1.02981, 3.17652}, {0.25, 0.734609, 1.25634}, {0.5, 0.500000, 0.599070},
-      {0.75, 0.340317, 0.354198}, {0.9, 0.242764, 0.244275}};
+  const std::vector<std::tuple<double, double, double>> table{{0.1, 1.02981, 3.17652},
+                                                              {0.25, 0.734609, 1.25634},
+                                                              {0.5, 0.500000, 0.599070},
+                                                              {0.75, 0.340317, 0.354198},
+                                                              {0.9, 0.242764, 0.244275}};
   for (const auto& [dT, q, i] : table) {
     EXPECT_NEAR(a::harr_discharge_ratio(dT), q, 1e-5) << "d/T = " << dT;
     EXPECT_NEAR(a::harr_exit_gradient_ratio(dT), i, 1e-5) << "d/T = " << dT;

@@ -48,7 +48,8 @@ TEST(Damage, CategoriesChangeExactlyAtTheLimitingStrains) {
   for (int k = 0; k < 4; ++k) {
     EXPECT_EQ(c::category_from_strain(limits[k] * (1 - 1e-9)).category, k) << limits[k];
     EXPECT_EQ(c::category_from_strain(limits[k]).category, k + 1) << limits[k];
-    EXPECT_EQ(c::category_from_strain(limits[k] * (1 + 1e-9)).category, k + 1) << limits[k];
+    EXPECT_EQ(c::category_from_strain(limits[k] * (1 + 1e-9)).category, k + 1)
+        << limits[k];
   }
   EXPECT_EQ(c::category_from_strain(0.0).degree, "negligible");
   EXPECT_EQ(c::category_from_strain(0.01).degree, "severe to very severe");
@@ -59,9 +60,16 @@ TEST(Damage, CategoriesChangeExactlyAtTheLimitingStrains) {
 TEST(Damage, PrincipalStrainWithoutHorizontalStrainIsHalfTheDistortion) {
   const double boundaries[] = {1.0e-3, 1.5e-3, 3.0e-3, 6.0e-3};
   for (int k = 0; k < 4; ++k) {
-    EXPECT_NEAR(c::principal_tensile_strain(0.0, boundaries[k]), boundaries[k] / 2, 1e-15);
-    EXPECT_EQ(c::category_from_strain(c::principal_tensile_strain(0.0, 0.999 * boundaries[k])).category, k);
-    EXPECT_EQ(c::category_from_strain(c::principal_tensile_strain(0.0, 1.001 * boundaries[k])).category, k + 1);
+    EXPECT_NEAR(c::principal_tensile_strain(0.0, boundaries[k]), boundaries[k] / 2,
+                1e-15);
+    EXPECT_EQ(
+        c::category_from_strain(c::principal_tensile_strain(0.0, 0.999 * boundaries[k]))
+            .category,
+        k);
+    EXPECT_EQ(
+        c::category_from_strain(c::principal_tensile_strain(0.0, 1.001 * boundaries[k]))
+            .category,
+        k + 1);
   }
   // Pure horizontal tension is itself the principal strain; compression relieves.
   EXPECT_NEAR(c::principal_tensile_strain(0.001, 0.0), 0.001, 1e-15);

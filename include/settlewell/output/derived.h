@@ -35,8 +35,8 @@ struct DerivedState {
   double deviator_stress = 0.0;           ///< q = sqrt(3/2 s:s), kPa
   double vertical_effective_stress = 0.0; ///< -sigma'_yy, kPa, compression positive
   double volumetric_strain = 0.0;         ///< tension positive
-  dealii::Tensor<1, 2> darcy_flux;    ///< m/s
-  dealii::Tensor<1, 2> head_gradient; ///< grad h, m/m
+  dealii::Tensor<1, 2> darcy_flux;        ///< m/s
+  dealii::Tensor<1, 2> head_gradient;     ///< grad h, m/m
 };
 
 /// Turns the primary unknowns at a point into the reported quantities.

@@ -13,16 +13,16 @@ namespace settlewell {
 
 /// The quantities sampled at a point (units and signs as in DerivedState).
 struct SampleValues {
-  double ux = 0.0;                        ///< m
-  double settlement = 0.0;                ///< m, positive down
-  double head = 0.0;                      ///< m
-  double drawdown = 0.0;                  ///< m
-  double pore_pressure = 0.0;             ///< kPa
-  double excess_pore_pressure = 0.0;      ///< kPa
-  double vertical_effective_stress = 0.0; ///< kPa, compression positive
-  double mean_effective_stress = 0.0;     ///< kPa, compression positive
-  double deviator_stress = 0.0;           ///< kPa
-  double flux_x = 0.0, flux_y = 0.0;      ///< Darcy flux, m/s
+  double ux = 0.0;                           ///< m
+  double settlement = 0.0;                   ///< m, positive down
+  double head = 0.0;                         ///< m
+  double drawdown = 0.0;                     ///< m
+  double pore_pressure = 0.0;                ///< kPa
+  double excess_pore_pressure = 0.0;         ///< kPa
+  double vertical_effective_stress = 0.0;    ///< kPa, compression positive
+  double mean_effective_stress = 0.0;        ///< kPa, compression positive
+  double deviator_stress = 0.0;              ///< kPa
+  double flux_x = 0.0, flux_y = 0.0;         ///< Darcy flux, m/s
   double gradient_x = 0.0, gradient_y = 0.0; ///< hydraulic gradient grad h
 };
 

@@ -21,6 +21,10 @@ struct LineFace {
   unsigned int face = 0;
 };
 
+/// The faces of locally owned cells that lie on a boundary.
+std::vector<LineFace> faces_on_boundary(const dealii::DoFHandler<2>& dof_handler,
+                                        dealii::types::boundary_id id);
+
 /// The faces on an internal line that this process integrates over: each face is
 /// taken once, from the locally owned cell of the two with the smaller id.
 std::vector<LineFace> faces_on_line(const dealii::DoFHandler<2>& dof_handler,

@@ -161,10 +161,10 @@ struct CheckLimits {
   double piping_factor = 1.5;
   double heave_factor = 1.5;
   double uplift_factor = 1.1;
-  double low_permeability = 1e-7;       ///< m/s: layers at or below consolidate / confine
-  double settlement = 0.025;            ///< m
+  double low_permeability = 1e-7; ///< m/s: layers at or below consolidate / confine
+  double settlement = 0.025;      ///< m
   double angular_distortion = 1.0 / 500.0;
-  double mass_balance = 1e-6;           ///< relative
+  double mass_balance = 1e-6; ///< relative
 };
 
 struct Scenario {
