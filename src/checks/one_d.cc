@@ -67,15 +67,16 @@ double OneDEstimate::settlement_at(double t, double ramp) const {
   return s;
 }
 
-double OneDEstimate::t50(double ramp) const {
-  if (!(ultimate > 0.0))
+double OneDEstimate::t50(double ramp, double target) const {
+  const double half = 0.5 * (target > 0.0 ? target : ultimate);
+  if (!(half > 0.0))
     return 0.0;
   double lo = 0.0, hi = 1.0;
-  while (settlement_at(hi, ramp) < 0.5 * ultimate && hi < 1e15)
+  while (settlement_at(hi, ramp) < half && hi < 1e15)
     hi *= 2.0;
   for (int i = 0; i < 100; ++i) {
     const double mid = 0.5 * (lo + hi);
-    (settlement_at(mid, ramp) < 0.5 * ultimate ? lo : hi) = mid;
+    (settlement_at(mid, ramp) < half ? lo : hi) = mid;
   }
   return 0.5 * (lo + hi);
 }

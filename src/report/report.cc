@@ -355,9 +355,13 @@ void columns_section(Document& d, const toml::table& r) {
             " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_design_end"]), 2)}});
     t.rows.push_back({{"ultimate 1D settlement (2D heads)"},
                       {fixed(1000 * get(c["computed"]["ultimate_m"]), 1) + " mm"}});
-    t.rows.push_back({{"t50: 2D (to half its final value) / 1D ramped"},
-                      {num(get(c["t50_2d_days"]), 4) + " / " +
-                       num(get(c["computed"]["t50_days_ramped"]), 4) + " days"}});
+    t.rows.push_back(
+        {{"time to half the settlement at the end: 2D / 1D (2D heads, ramped)"},
+         {num(get(c["t50_2d_days"]), 4) + " / " + num(get(c["t50_1d_days"]), 4) +
+          " days" +
+          (get(c["t50_1d_days"]) > 0.0
+               ? "; ratio " + fixed(get(c["t50_2d_days"]) / get(c["t50_1d_days"]), 2)
+               : std::string())}});
     s.table(t);
     Table layers{{"layer", "drained faces", "Hdr (m)", "cv (m²/year)", "t50 (days)",
                   "t90 (days)", "S, 2D heads (mm)"},

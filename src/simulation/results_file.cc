@@ -181,6 +181,7 @@ toml::array column_array(const checks::RunChecks& checks) {
                   {"ratio_2d_to_1d_computed_end",
                    s1d_end > 0 ? c.settlement_2d.back() / s1d_end : 0.0},
                   {"t50_2d_days", to_days(half_time(c))},
+                  {"t50_1d_days", to_days(c.computed.t50(c.ramp, s1d_end))},
                   {"computed", estimate_table(c.computed, c.ramp)},
                   {"notes", notes}};
     if (c.design_known) {

@@ -130,7 +130,7 @@ RunSummary Simulation::run(const RunOptions& options) {
 
   BiotProblem& problem = *m.problem;
   const RunContext context{m.scenario,    m.schedule, m.model, m.initial, problem,
-                           *m.derivation, *m.points,  m.lines, m.comm};
+                           *m.derivation, *m.points,  m.lines, m.comm,    started};
   RunRecorder recorder(context, dir);
   recorder.start();
   const auto& times = m.schedule.step_times();

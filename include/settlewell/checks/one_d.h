@@ -34,8 +34,9 @@ struct OneDEstimate {
   /// after one ramped linearly over `ramp` s (Olson 1977), draining layers
   /// following the head change at once.
   double settlement_at(double t, double ramp) const;
-  /// The time at which settlement_at reaches half of `ultimate`.
-  double t50(double ramp) const;
+  /// The time at which settlement_at reaches half of `target` (by default the
+  /// ultimate settlement).
+  double t50(double ramp, double target = -1.0) const;
 };
 
 /// Layers top down. A consolidating layer drains through each face that touches a
