@@ -189,6 +189,17 @@ Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
 Mesh make_scenario_mesh(const scenario::Scenario& s,
                         MPI_Comm comm,
                         const std::string& msh_path) {
+  Mesh mesh = coarse_scenario_mesh(s, comm, msh_path);
+  // The Gmsh mesh is the coarse mesh; refining keeps regions, boundary ids and
+  // (as geometry) the internal lines.
+  if (s.numerics.refinements > 0)
+    mesh.triangulation->refine_global(s.numerics.refinements);
+  return mesh;
+}
+
+Mesh coarse_scenario_mesh(const scenario::Scenario& s,
+                          MPI_Comm comm,
+                          const std::string& msh_path) {
   if (s.mesh_file)
     return read_gmsh_file(s.mesh_file->path, comm);
   GmshSession session;

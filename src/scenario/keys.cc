@@ -103,6 +103,11 @@ const std::vector<KeySpec>& all_keys() {
     {"neighbours[].height", "number", "m", "-", "Building height, for the deep-beam strains (Burland 1995)"},
     {"neighbours[].samples", "integer", "", "21", "Points along the foundation"},
 
+    {"numerics.refinements", "integer", "", "0", "Global refinements of the mesh (each multiplies the cells by 4)"},
+    {"numerics.solver", "string", "", "\"auto\"", "direct (MUMPS), iterative (FGMRES with a block preconditioner), or auto (by size)"},
+    {"numerics.tolerance", "number", "", "1e-10", "Relative residual at which the iterative solver stops"},
+    {"numerics.petsc_options", "string", "", "\"\"", "Extra PETSc options (for experts), e.g. \"-settlewell_direct_mat_mumps_icntl_14 60\""},
+
     {"checks.piping_factor", "number", "", "1.5", "Least factor against piping at the excavation base before it is flagged"},
     {"checks.heave_factor", "number", "", "1.5", "Least factor on Terzaghi's heave prism beside the wall toe"},
     {"checks.uplift_factor", "number", "", "1.1", "Least factor against uplift of a low-permeability layer below the base"},

@@ -230,6 +230,26 @@ void parse_checks(const TableReader& top, Scenario& s) {
     }
     s.neighbours.push_back(n);
   });
+  if (const toml::table* n = top.table("numerics")) {
+    const TableReader r(*n, "numerics", "numerics", top.file());
+    const long long refinements = r.optional_integer("refinements").value_or(0);
+    if (refinements < 0 || refinements > 8)
+      r.fail("refinements", "must lie in 0..8");
+    s.numerics.refinements = static_cast<unsigned int>(refinements);
+    const std::string solver = r.text_or("solver", "auto");
+    if (solver == "direct")
+      s.numerics.solver = Numerics::Solver::direct;
+    else if (solver == "iterative")
+      s.numerics.solver = Numerics::Solver::iterative;
+    else if (solver != "auto")
+      r.fail("solver", "must be auto, direct or iterative (got '" + solver + "')");
+    if (r.has("tolerance")) {
+      s.numerics.tolerance = r.positive("tolerance");
+      if (s.numerics.tolerance >= 1.0)
+        r.fail("tolerance", "must be below 1");
+    }
+    s.numerics.petsc_options = r.text_or("petsc_options", "");
+  }
   const toml::table* t = top.table("checks");
   if (t == nullptr)
     return;

@@ -112,7 +112,7 @@ void write_scenario_mesh(const scenario::Scenario& s,
   if (!root)
     return;
   const Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF)
-                                : make_scenario_mesh(s, MPI_COMM_SELF, msh);
+                                : coarse_scenario_mesh(s, MPI_COMM_SELF, msh);
   if (s.mesh_file)
     std::filesystem::copy_file(s.mesh_file->path, msh,
                                std::filesystem::copy_options::overwrite_existing);

@@ -20,8 +20,24 @@ fs::path write_variant(const std::string& example,
   const fs::path folder = fs::temp_directory_path() / "settlewell_examples";
   fs::create_directories(folder);
   const fs::path file = folder / (example + "-" + variant + ".toml");
-  std::ofstream(file) << scenario << '\n';
+  int rank = 0;
+  MPI_Comm_rank(MPI_COMM_WORLD, &rank);
+  if (rank == 0)
+    std::ofstream(file) << scenario << '\n';
+  MPI_Barrier(MPI_COMM_WORLD);
   return file;
+}
+
+ExampleRun run_scenario_file(const fs::path& file, const fs::path& folder, MPI_Comm comm) {
+  settlewell::Simulation simulation(settlewell::scenario::read_scenario(file.string()), comm);
+  settlewell::RunOptions options;
+  options.run_directory = folder.string();
+  options.overwrite = true;
+  options.show_progress = false;
+  ExampleRun run;
+  run.summary = simulation.run(options);
+  run.folder = folder;
+  return run;
 }
 
 ExampleRun run_example(const std::string& example,

@@ -25,6 +25,10 @@ ExampleRun run_example(const std::string& example,
                        const std::string& variant,
                        const std::function<void(toml::table&)>& change);
 
+/// Runs a scenario file into `folder` on `comm`, quietly.
+ExampleRun run_scenario_file(const std::filesystem::path& file,
+                             const std::filesystem::path& folder, MPI_Comm comm);
+
 /// The same scenario variant as run_example would write, without running it.
 std::filesystem::path write_variant(const std::string& example,
                                     const std::string& variant,

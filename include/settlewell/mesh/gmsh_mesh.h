@@ -36,11 +36,16 @@ struct MeshSummary {
 };
 
 /// Builds the section or box of a scenario with the Gmsh SDK and loads it, or
-/// loads the scenario's Gmsh file. When `msh_path` is not empty, rank 0 writes the
-/// generated mesh there. Collective on `comm`.
+/// loads the scenario's Gmsh file, then refines it `numerics.refinements` times.
+/// When `msh_path` is not empty, rank 0 writes the generated (coarse) mesh there.
+/// Collective on `comm`.
 Mesh make_scenario_mesh(const scenario::Scenario& s,
                         MPI_Comm comm,
                         const std::string& msh_path = "");
+/// The same without the refinement.
+Mesh coarse_scenario_mesh(const scenario::Scenario& s,
+                          MPI_Comm comm,
+                          const std::string& msh_path = "");
 
 /// Reads a Gmsh file whose physical groups name the regions (surfaces) and the
 /// boundaries or internal lines (curves). Collective.

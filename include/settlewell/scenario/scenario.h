@@ -167,6 +167,15 @@ struct CheckLimits {
   double mass_balance = 1e-6; ///< relative
 };
 
+/// How the equations are discretised and solved.
+struct Numerics {
+  unsigned int refinements = 0; ///< global refinements of the generated or read mesh
+  enum class Solver { automatic, direct, iterative };
+  Solver solver = Solver::automatic;
+  double tolerance = 1e-10;     ///< relative residual of the iterative solver
+  std::string petsc_options;    ///< extra PETSc options, for experts
+};
+
 struct Scenario {
   std::string source_path; ///< the file it was read from
   std::string title;
@@ -182,6 +191,7 @@ struct Scenario {
   Output output;
   std::vector<Neighbour> neighbours;
   CheckLimits limits;
+  Numerics numerics;
   /// Where keys were given, for messages after parsing: key path -> "FILE:LINE:COL".
   std::map<std::string, std::string> locations;
 
