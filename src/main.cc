@@ -14,6 +14,7 @@
 #include <petscversion.h>
 
 #include <chrono>
+#include <cstdlib>
 #include <filesystem>
 #include <iostream>
 #include <unistd.h>
@@ -87,15 +88,31 @@ struct ScenarioOptions {
   bool quiet = false;
   bool keys = false;
   bool report = false;
+  int refine = -1;
+  std::string solver;
 };
+
+/// Command-line overrides of the scenario's [numerics].
+void apply_overrides(const ScenarioOptions& o, settlewell::scenario::Scenario& s) {
+  using Solver = settlewell::scenario::Numerics::Solver;
+  if (o.refine >= 0)
+    s.numerics.refinements = static_cast<unsigned int>(o.refine);
+  if (o.solver == "direct")
+    s.numerics.solver = Solver::direct;
+  else if (o.solver == "iterative")
+    s.numerics.solver = Solver::iterative;
+  else if (o.solver == "auto")
+    s.numerics.solver = Solver::automatic;
+}
 
 std::string default_folder(const std::string& scenario, const std::string& suffix) {
   return std::filesystem::path(scenario).stem().string() + suffix;
 }
 
 int run_run(const ScenarioOptions& o) {
-  settlewell::Simulation simulation(settlewell::scenario::read_scenario(o.scenario),
-                                    MPI_COMM_WORLD);
+  auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  apply_overrides(o, scenario);
+  settlewell::Simulation simulation(std::move(scenario), MPI_COMM_WORLD);
   settlewell::RunOptions options;
   options.run_directory =
       o.output.empty() ? default_folder(o.scenario, "-run") : o.output;
@@ -171,6 +188,14 @@ int dispatch(int argc, char** argv) {
   run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
   run_cmd->add_flag("--report", run.report,
                     "Write the report into the run folder at the end");
+  run_cmd
+      ->add_option("--refine", run.refine,
+                   "Global refinements of the mesh (overrides numerics.refinements)")
+      ->check(CLI::Range(0, 8));
+  run_cmd
+      ->add_option("--solver", run.solver,
+                   "direct, iterative or auto (overrides numerics.solver)")
+      ->check(CLI::IsMember({"direct", "iterative", "auto"}));
 
   std::string report_folder;
   auto* report_cmd = app.add_subcommand(
@@ -234,6 +259,10 @@ int dispatch(int argc, char** argv) {
 } // namespace
 
 int main(int argc, char** argv) {
+  // One thread per MPI process unless the user says otherwise: hypre's and
+  // OpenBLAS's threads otherwise compete with the processes for the cores.
+  setenv("OMP_NUM_THREADS", "1", 0);
+  setenv("OPENBLAS_NUM_THREADS", "1", 0);
   // PETSc reads its own options from argv; give it only the program name so that
   // our options (--help among them) reach CLI11 alone. Experts can still pass
   // PETSc options through the PETSC_OPTIONS environment variable.

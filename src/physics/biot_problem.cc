@@ -8,6 +8,7 @@
 #include "settlewell/solvers/linear_solver.h"
 
 #include <deal.II/base/mpi.h>
+#include <deal.II/base/table.h>
 #include <deal.II/dofs/dof_tools.h>
 #include <deal.II/fe/mapping_q1.h>
 #include <deal.II/lac/affine_constraints.h>
@@ -18,6 +19,7 @@
 #include <chrono>
 #include <cmath>
 #include <limits>
+#include <map>
 #include <set>
 #include <unordered_map>
 
@@ -75,6 +77,7 @@ struct BiotProblem::Impl {
             setup.rigid_skeleton, owned,  relevant,   pressure_line_dofs};
   }
   void setup_dofs();
+  void choose_solver();
   void find_internal_lines();
   void add_line_fluxes(CellKernel& kernel,
                        const DoFHandler<2>::active_cell_iterator& cell,
@@ -109,6 +112,7 @@ struct BiotProblem::Impl {
   IndexSet owned, relevant;
   AffineConstraints<double> constraints;
   LA::MPI::SparseMatrix matrix;
+  LA::MPI::SparseMatrix schur; ///< pressure-block preconditioner (iterative solver only)
   LA::MPI::Vector rhs, owned_solution, solution, old_solution;
   std::unique_ptr<LinearSolver> solver;
   std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
@@ -126,8 +130,7 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     , comm(mesh_.triangulation->get_communicator())
     , dof_handler(*mesh_.triangulation)
     , conditions(resolve_conditions(setup, mesh_))
-    , coefficients(coefficients_by_region(setup, mesh_.names))
-    , solver(make_direct_solver(comm)) {
+    , coefficients(coefficients_by_region(setup, mesh_.names)) {
   if (!(setup.gamma_w > 0.0))
     throw InputError("the unit weight of water must be positive, kN/m^3");
   if (setup.analysis == AnalysisType::axisymmetric)
@@ -135,6 +138,42 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
   if (setup.rigid_skeleton && conditions.plate)
     throw InputError("a rigid plate cannot load a rigid skeleton");
   setup_dofs();
+  choose_solver();
+}
+
+void BiotProblem::Impl::choose_solver() {
+  const bool iterative = setup.solver == BiotSetup::Solver::iterative ||
+                         (setup.solver == BiotSetup::Solver::automatic &&
+                          dof_handler.n_dofs() > setup.direct_limit);
+  if (!iterative) {
+    solver = make_direct_solver(comm);
+    return;
+  }
+  const IndexSet u = DoFTools::extract_dofs(dof_handler, layout.displacement_mask());
+  const IndexSet p =
+      DoFTools::extract_dofs(dof_handler, layout.mask_of(FieldLayout::pressure));
+  std::map<types::global_dof_index, Point<2>> support;
+  DoFTools::map_dofs_to_support_points(mapping, dof_handler, support,
+                                       layout.displacement_mask());
+  std::vector<double> coordinates; // (x, y) per node: once for each ux, uy pair
+  bool first_of_pair = true;
+  for (const auto d : u) {
+    if (first_of_pair) {
+      const Point<2>& x = support.at(d);
+      coordinates.insert(coordinates.end(), {x[0], x[1]});
+    }
+    first_of_pair = !first_of_pair;
+  }
+  solver = make_iterative_solver(comm, u, p, coordinates, setup.solver_tolerance);
+  // The Schur approximation couples pressures only.
+  Table<2, DoFTools::Coupling> coupling(FieldLayout::n_components,
+                                        FieldLayout::n_components);
+  coupling.fill(DoFTools::none);
+  coupling(FieldLayout::pressure, FieldLayout::pressure) = DoFTools::always;
+  DynamicSparsityPattern dsp(relevant);
+  DoFTools::make_sparsity_pattern(dof_handler, coupling, dsp, constraints, true);
+  SparsityTools::distribute_sparsity_pattern(dsp, owned, comm, relevant);
+  schur.reinit(owned, owned, dsp, comm);
 }
 
 void BiotProblem::Impl::setup_dofs() {
@@ -175,7 +214,10 @@ void BiotProblem::Impl::find_internal_lines() {
 }
 
 void BiotProblem::Impl::assemble_matrix(double dt) {
+  const bool with_schur = solver->needs_schur_approximation();
   matrix = 0.0;
+  if (with_schur)
+    schur = 0.0;
   CellKernel kernel(layout, setup.analysis, mapping);
   FullMatrix<double> cell_matrix(kernel.dofs_per_cell(), kernel.dofs_per_cell());
   std::vector<types::global_dof_index> dofs(kernel.dofs_per_cell());
@@ -183,12 +225,20 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
     if (!cell->is_locally_owned())
       continue;
     kernel.reinit(cell);
-    cell_matrix = 0.0;
-    kernel.add_matrix(coefficients[cell->material_id()], dt, cell_matrix);
     cell->get_dof_indices(dofs);
+    const CellCoefficients& c = coefficients[cell->material_id()];
+    cell_matrix = 0.0;
+    kernel.add_matrix(c, dt, cell_matrix);
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
+    if (with_schur) {
+      cell_matrix = 0.0;
+      kernel.add_schur_approximation(c, dt, cell_matrix);
+      constraints.distribute_local_to_global(cell_matrix, dofs, schur);
+    }
   }
   matrix.compress(VectorOperation::add);
+  if (with_schur)
+    schur.compress(VectorOperation::add);
 }
 
 void BiotProblem::Impl::add_face_terms(CellKernel& kernel,
@@ -288,9 +338,9 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
 
 double
 BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
-  // The consistent flux: at a prescribed-pressure dof, the storage-equation row of
-  // the unconstrained system minus its right-hand side is dt times the water that
-  // leaves through that dof's share of the line.
+  // The consistent flux: at a prescribed-pressure dof, the right-hand side of the
+  // unconstrained storage-equation row minus the row times the solution is dt
+  // times the water that leaves through that dof's share of the line.
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
   FullMatrix<double> cell_matrix(n, n);
@@ -317,12 +367,12 @@ BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& lin
           line.count(dofs[i]))
         total += residual(i);
   }
-  return Utilities::MPI::sum(total, comm) / matrix_dt;
+  return -Utilities::MPI::sum(total, comm) / matrix_dt;
 }
 
 double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
-  // The p-rows of a face integral of q sum to the integral of q (the Q1 shape
-  // functions sum to one).
+  // The p-rows of a face integral of -q sum to minus the integral of q (the Q1
+  // shape functions sum to one).
   CellKernel kernel(layout, setup.analysis, mapping);
   Vector<double> face_rhs(kernel.dofs_per_cell());
   double total = 0.0;
@@ -347,7 +397,7 @@ double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
     for (const auto& [cell, f] : faces_on_boundary(dof_handler, flux.line.id))
       add(cell, f);
   }
-  return Utilities::MPI::sum(total, comm);
+  return -Utilities::MPI::sum(total, comm);
 }
 
 BiotProblem::BiotProblem(const Mesh& mesh, BiotSetup setup)
@@ -376,7 +426,8 @@ StepReport BiotProblem::advance_to(double t_new) {
   report.assembly_seconds = seconds_since(start);
   if (report.new_matrix) {
     const auto factor_start = std::chrono::steady_clock::now();
-    m.solver->set_matrix(m.matrix);
+    m.solver->set_matrix(m.matrix,
+                         m.solver->needs_schur_approximation() ? &m.schur : nullptr);
     m.matrix_dt = dt;
     m.matrix_pressures = pressures_now;
     report.factorisation_seconds = seconds_since(factor_start);
@@ -458,8 +509,8 @@ double BiotProblem::net_outflow() const {
 }
 
 double BiotProblem::storage_gain() const {
-  // add_old_state puts -(alpha eps_v + S p) phi_i into the p rows; the Q1 shape
-  // functions sum to one, so the rows sum to minus the stored volume.
+  // add_old_state puts (alpha eps_v + S p) phi_i into the p rows; the Q1 shape
+  // functions sum to one, so the rows sum to the stored volume.
   const Impl& m = *impl_;
   CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
   Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
@@ -474,7 +525,7 @@ double BiotProblem::storage_gain() const {
     kernel.add_old_state(c, m.solution, now);
     kernel.add_old_state(c, m.old_solution, before);
     for (unsigned int i = 0; i < now.size(); ++i)
-      gain += before(i) - now(i);
+      gain += now(i) - before(i);
   }
   return Utilities::MPI::sum(gain, m.comm);
 }

@@ -92,12 +92,32 @@ void CellKernel::add_matrix(const CellCoefficients& c,
         else if (ui)
           a = -c.alpha * divergence_[i] * phi_p_[j];
         else if (uj)
-          a = -c.alpha * phi_p_[i] * divergence_[j];
+          a = c.alpha * phi_p_[i] * divergence_[j];
         else
-          a = -(c.storage * phi_p_[i] * phi_p_[j] +
-                dt * (grad_p_[i] * (c.mobility * grad_p_[j])));
+          a = c.storage * phi_p_[i] * phi_p_[j] +
+              dt * (grad_p_[i] * (c.mobility * grad_p_[j]));
         out(i, j) += a * w;
       }
+    }
+  }
+}
+
+void CellKernel::add_schur_approximation(const CellCoefficients& c,
+                                         double dt,
+                                         FullMatrix<double>& out) {
+  const double fixed_stress = c.alpha * c.alpha / (c.lambda + c.mu);
+  const unsigned int n = component_.size();
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    const double w = weight(fe_values_, q);
+    for (unsigned int i = 0; i < n; ++i) {
+      if (layout_.is_displacement(component_[i]))
+        continue;
+      for (unsigned int j = 0; j < n; ++j)
+        if (!layout_.is_displacement(component_[j]))
+          out(i, j) += ((c.storage + fixed_stress) * phi_p_[i] * phi_p_[j] +
+                        dt * (grad_p_[i] * (c.mobility * grad_p_[j]))) *
+                       w;
     }
   }
 }
@@ -116,7 +136,7 @@ void CellKernel::add_old_state(const CellCoefficients& c,
     const double r = fe_values_.quadrature_point(q)[0];
     const double volumetric = div_u[q] + (axisymmetric ? u_old[q][0] / r : 0.0);
     const double source =
-        -(c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
+        (c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
     for (unsigned int i = 0; i < component_.size(); ++i)
       if (!layout_.is_displacement(component_[i]))
         out(i) += source * fe_values_[layout_.excess_pressure].value(i, q);
@@ -155,7 +175,7 @@ void CellKernel::add_face_outflow(unsigned int face,
   face_values_.reinit(cell_, face);
   for (unsigned int q = 0; q < face_values_.n_quadrature_points; ++q) {
     const double flux =
-        dt * q_out(face_values_.quadrature_point(q), t) * weight(face_values_, q);
+        -dt * q_out(face_values_.quadrature_point(q), t) * weight(face_values_, q);
     for (unsigned int i = 0; i < component_.size(); ++i)
       if (!layout_.is_displacement(component_[i]))
         out(i) += flux * face_values_[layout_.excess_pressure].value(i, q);

@@ -44,7 +44,8 @@ std::vector<std::string> with(std::vector<std::string> head,
 
 std::vector<std::string> step_header(const model::Model& model) {
   std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
-                             "new_matrix", "assembly_s", "factorisation_s", "solve_s"};
+                             "new_matrix", "assembly_s", "factorisation_s", "solve_s",
+                             "iterations"};
   for (const auto& p : model.pumped)
     h.push_back("discharge_" + p.label + "_m3_per_day");
   h.push_back("net_outflow_m3_per_day");
@@ -218,7 +219,8 @@ void RunRecorder::step(const StepReport& report, std::size_t number) {
                           report.new_matrix ? 1.0 : 0.0,
                           report.assembly_seconds,
                           report.factorisation_seconds,
-                          report.solve_seconds};
+                          report.solve_seconds,
+                          double(report.iterations)};
   const auto more = discharges_and_balance(report, k);
   row.insert(row.end(), more.begin(), more.end());
   steps_.row(row);

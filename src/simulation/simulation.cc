@@ -12,6 +12,7 @@
 #include "settlewell/output/samples.h"
 #include "settlewell/physics/biot_problem.h"
 #include "settlewell/simulation/progress.h"
+#include "settlewell/solvers/linear_solver.h"
 #include "settlewell/simulation/run_files.h"
 
 #include <deal.II/base/mpi.h>
@@ -92,7 +93,8 @@ struct Simulation::Impl {
 Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
     : scenario(std::move(s))
     , comm(comm_)
-    , mesh(make_scenario_mesh(scenario, comm))
+    , mesh((add_petsc_options(scenario.numerics.petsc_options),
+            make_scenario_mesh(scenario, comm)))
     , initial(scenario, mesh)
     , schedule(scenario)
     , model(model::build_model(scenario, mesh, initial, schedule)) {

@@ -1,4 +1,5 @@
-#include "settlewell/core/errors.h"
+#include "petsc_check.h"
+
 #include "settlewell/solvers/linear_solver.h"
 
 #include <petscksp.h>
@@ -7,41 +8,37 @@ namespace settlewell {
 
 namespace {
 
-void check(PetscErrorCode code, const char* what) {
-  if (code != 0)
-    throw SolverError(std::string("PETSc failed in ") + what + " (error code " +
-                      std::to_string(static_cast<int>(code)) + ")");
-}
-
 class MumpsSolver final : public LinearSolver {
 public:
   explicit MumpsSolver(MPI_Comm comm) {
-    check(KSPCreate(comm, &ksp_), "KSPCreate");
-    check(KSPSetType(ksp_, KSPPREONLY), "KSPSetType");
+    petsc_check(KSPCreate(comm, &ksp_), "KSPCreate");
+    petsc_check(KSPSetType(ksp_, KSPPREONLY), "KSPSetType");
     PC pc;
-    check(KSPGetPC(ksp_, &pc), "KSPGetPC");
-    check(PCSetType(pc, PCLU), "PCSetType");
-    check(PCFactorSetMatSolverType(pc, MATSOLVERMUMPS), "PCFactorSetMatSolverType");
-    check(KSPSetOptionsPrefix(ksp_, "settlewell_direct_"), "KSPSetOptionsPrefix");
-    check(KSPSetFromOptions(ksp_), "KSPSetFromOptions");
+    petsc_check(KSPGetPC(ksp_, &pc), "KSPGetPC");
+    petsc_check(PCSetType(pc, PCLU), "PCSetType");
+    petsc_check(PCFactorSetMatSolverType(pc, MATSOLVERMUMPS), "PCFactorSetMatSolverType");
+    petsc_check(KSPSetOptionsPrefix(ksp_, "settlewell_direct_"), "KSPSetOptionsPrefix");
+    petsc_check(KSPSetFromOptions(ksp_), "KSPSetFromOptions");
   }
   ~MumpsSolver() override { KSPDestroy(&ksp_); }
   MumpsSolver(const MumpsSolver&) = delete;
   MumpsSolver& operator=(const MumpsSolver&) = delete;
 
-  void set_matrix(const LA::MPI::SparseMatrix& matrix) override {
+  void set_matrix(const LA::MPI::SparseMatrix& matrix,
+                  const LA::MPI::SparseMatrix*) override {
     const Mat mat = matrix;
-    check(KSPSetOperators(ksp_, mat, mat), "KSPSetOperators");
+    petsc_check(KSPSetOperators(ksp_, mat, mat), "KSPSetOperators");
     // Factorise now, so that the cost is booked to the matrix and not to a solve.
-    check(KSPSetUp(ksp_), "the MUMPS factorisation (is the system singular? check "
-                          "that displacements are restrained and a pressure is fixed "
-                          "or storage is positive)");
+    petsc_check(KSPSetUp(ksp_),
+                "the MUMPS factorisation (is the system singular? check "
+                "that displacements are restrained and a pressure is fixed "
+                "or storage is positive)");
   }
 
   unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) override {
-    check(KSPSolve(ksp_, rhs, solution), "the MUMPS solve");
+    petsc_check(KSPSolve(ksp_, rhs, solution), "the MUMPS solve");
     KSPConvergedReason reason;
-    check(KSPGetConvergedReason(ksp_, &reason), "KSPGetConvergedReason");
+    petsc_check(KSPGetConvergedReason(ksp_, &reason), "KSPGetConvergedReason");
     if (reason < 0)
       throw SolverError("the direct solve failed (PETSc reason " +
                         std::to_string(static_cast<int>(reason)) + ")");
@@ -58,6 +55,12 @@ private:
 
 std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm) {
   return std::make_unique<MumpsSolver>(comm);
+}
+
+void add_petsc_options(const std::string& options) {
+  if (!options.empty())
+    petsc_check(PetscOptionsInsertString(nullptr, options.c_str()),
+                "reading the PETSc options");
 }
 
 } // namespace settlewell

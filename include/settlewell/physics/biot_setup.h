@@ -31,6 +31,12 @@ struct BiotSetup {
   /// Hold every displacement at zero: transient seepage with storage S alone
   /// (the uncoupled diffusion that Theis's solution assumes).
   bool rigid_skeleton = false;
+
+  enum class Solver { automatic, direct, iterative };
+  /// automatic: direct below `direct_limit` unknowns, iterative above.
+  Solver solver = Solver::automatic;
+  double solver_tolerance = 1e-10; ///< relative residual (iterative)
+  std::size_t direct_limit = 250000;
 };
 
 } // namespace settlewell

@@ -26,10 +26,11 @@ struct CellCoefficients {
   static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
 };
 
-/// Per-cell integrals of the implicit-Euler Biot system, written as the symmetric
-/// saddle-point form
-///   [ A       -alpha B^T       ] [u]   [ f                                  ]
-///   [ -alpha B  -(S M + dt H)  ] [p] = [ -alpha B u_n - S M p_n + dt q_out ]
+/// Per-cell integrals of the implicit-Euler Biot system,
+///   [ A        -alpha B^T ] [u]   [ f                                 ]
+///   [ alpha B  S M + dt H ] [p] = [ alpha B u_n + S M p_n - dt q_out ]
+/// (the storage equation times dt). Its Schur complement S M + dt H +
+/// alpha^2 B A^-1 B^T is positive definite, which the block preconditioner needs.
 /// Axisymmetric integrals carry the weight 2 pi r and the hoop strain u_r / r.
 class CellKernel {
 public:
@@ -41,7 +42,12 @@ public:
   unsigned int dofs_per_cell() const { return fe_values_.dofs_per_cell; }
 
   void add_matrix(const CellCoefficients& c, double dt, dealii::FullMatrix<double>& out);
-  /// Old-state part of the storage equation: -(alpha div u_n + S p_n) in the p rows.
+  /// The fixed-stress approximation of the Schur complement in the p-p entries:
+  /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
+  /// drained plane bulk modulus lambda + mu.
+  void add_schur_approximation(const CellCoefficients& c, double dt,
+                               dealii::FullMatrix<double>& out);
+  /// Old-state part of the storage equation: (alpha div u_n + S p_n) in the p rows.
   void add_old_state(const CellCoefficients& c,
                      const LA::MPI::Vector& old_solution,
                      dealii::Vector<double>& out);
@@ -52,7 +58,7 @@ public:
                          const std::function<dealii::Tensor<1, 2>(
                              const dealii::Point<2>&, const dealii::Tensor<1, 2>&)>& t,
                          dealii::Vector<double>& out);
-  /// dt times an outflow q.n (m/s) in the p rows, on face `face`.
+  /// Minus dt times an outflow q.n (m/s) in the p rows, on face `face`.
   void add_face_outflow(unsigned int face,
                         double dt,
                         const FieldFunction& q,

@@ -2,8 +2,11 @@
 
 #include "settlewell/core/linear_algebra.h"
 
+#include <deal.II/base/index_set.h>
+
 #include <memory>
 #include <string>
+#include <vector>
 
 namespace settlewell {
 
@@ -13,14 +16,37 @@ namespace settlewell {
 class LinearSolver {
 public:
   virtual ~LinearSolver() = default;
-  virtual void set_matrix(const LA::MPI::SparseMatrix& matrix) = 0;
+  /// `schur` is the pressure-block approximation of the Schur complement, given
+  /// only to solvers that ask for it (needs_schur_approximation()).
+  virtual void set_matrix(const LA::MPI::SparseMatrix& matrix,
+                          const LA::MPI::SparseMatrix* schur) = 0;
   /// Returns the number of iterations (1 for a direct solve).
   virtual unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) = 0;
   virtual std::string name() const = 0;
+  virtual bool needs_schur_approximation() const { return false; }
 };
 
 /// Sparse direct LU factorisation by MUMPS through PETSc, in serial and in parallel.
 /// Extra PETSc options may be given with the prefix `settlewell_direct_`.
 std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm);
+
+/// FGMRES with a block upper-triangular (Schur) preconditioner, PETSc's field
+/// split: CG preconditioned by hypre BoomerAMG to a loose tolerance (0.1) on the
+/// displacement block (block size 2; the rigid-body modes are attached for AMGs
+/// that use them) and one BoomerAMG cycle on a fixed-stress approximation of the
+/// Schur complement, (S + alpha^2/K) M_p + dt H. `displacement` and `pressure` are this
+/// process's owned dofs of each field; `coordinates` holds (x, y) for each owned
+/// displacement node, in dof order (each node's ux and uy are next to each other).
+/// Options with the prefix `settlewell_iterative_` (and the field splits'
+/// `settlewell_iterative_fieldsplit_u_`, `..._p_`) tune it.
+std::unique_ptr<LinearSolver>
+make_iterative_solver(MPI_Comm comm,
+                      const dealii::IndexSet& displacement,
+                      const dealii::IndexSet& pressure,
+                      const std::vector<double>& coordinates,
+                      double relative_tolerance);
+
+/// Passes a string of PETSc options (for experts) to PETSc's options database.
+void add_petsc_options(const std::string& options);
 
 } // namespace settlewell
