@@ -5,7 +5,9 @@
 #include "settlewell/report/report.h"
 #include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
+#include "settlewell/scenario/sweep_file.h"
 #include "settlewell/simulation/simulation.h"
+#include "settlewell/simulation/sweep.h"
 #include "settlewell/verification/cases.h"
 
 #include <CLI/CLI.hpp>
@@ -17,6 +19,7 @@
 #include <cstdlib>
 #include <filesystem>
 #include <iostream>
+#include <sstream>
 #include <unistd.h>
 
 namespace {
@@ -159,6 +162,23 @@ int run_mesh(const ScenarioOptions& o) {
   return exit_ok;
 }
 
+struct SweepCommand {
+  std::string file, output;
+  unsigned int group_size = 1;
+  bool overwrite = false;
+};
+
+int run_sweep_command(const SweepCommand& c) {
+  const auto sweep = settlewell::scenario::read_sweep(c.file);
+  settlewell::SweepOptions options;
+  options.folder = c.output.empty() ? sweep.output : c.output;
+  options.group_size = c.group_size;
+  options.overwrite = c.overwrite;
+  std::ostringstream log;
+  settlewell::run_sweep(sweep, options, MPI_COMM_WORLD, is_root() ? std::cout : log);
+  return exit_ok;
+}
+
 int dispatch(int argc, char** argv) {
   CLI::App app{
       "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
@@ -196,6 +216,20 @@ int dispatch(int argc, char** argv) {
       ->add_option("--solver", run.solver,
                    "direct, iterative or auto (overrides numerics.solver)")
       ->check(CLI::IsMember({"direct", "iterative", "auto"}));
+
+  SweepCommand sweep;
+  auto* sweep_cmd = app.add_subcommand(
+      "sweep",
+      "Run every variant of a parameter grid (each in its own run folder), spread "
+      "over groups of MPI processes, and summarise them in one CSV and a chart.");
+  sweep_cmd->add_option("sweep_file", sweep.file, "Sweep file (TOML)")
+      ->required()
+      ->check(CLI::ExistingFile);
+  sweep_cmd->add_option("-o,--output", sweep.output,
+                        "Sweep folder (default: from the file)");
+  sweep_cmd->add_option("--group-size", sweep.group_size, "Processes per variant")
+      ->check(CLI::Range(1, 100000));
+  sweep_cmd->add_flag("--overwrite", sweep.overwrite, "Replace an existing sweep folder");
 
   std::string report_folder;
   auto* report_cmd = app.add_subcommand(
@@ -249,10 +283,12 @@ int dispatch(int argc, char** argv) {
     return run_mesh(mesh);
   if (report_cmd->parsed())
     return run_report(report_folder);
+  if (sweep_cmd->parsed())
+    return run_sweep_command(sweep);
   if (is_root())
-    std::cerr
-        << "settlewell: a command is required (run, check, mesh, report, verify); see "
-           "settlewell --help\n";
+    std::cerr << "settlewell: a command is required (run, check, mesh, report, sweep, "
+                 "verify); see "
+                 "settlewell --help\n";
   return exit_usage;
 }
 

@@ -530,6 +530,18 @@ double BiotProblem::storage_gain() const {
   return Utilities::MPI::sum(gain, m.comm);
 }
 
+double BiotProblem::time_matrix_vector_product(unsigned int repeats) const {
+  const Impl& m = *impl_;
+  LA::MPI::Vector x(m.owned_solution), y(m.owned_solution);
+  x = 1.0;
+  MPI_Barrier(m.comm);
+  const auto start = std::chrono::steady_clock::now();
+  for (unsigned int i = 0; i < repeats; ++i)
+    m.matrix.vmult(y, x);
+  MPI_Barrier(m.comm);
+  return seconds_since(start) / repeats;
+}
+
 double BiotProblem::time() const {
   return impl_->time;
 }

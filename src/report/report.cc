@@ -72,27 +72,15 @@ std::string plot_python() {
   return "";
 }
 
-std::string plot_script() {
+std::string script_path(const std::string& script) {
   if (const char* env = std::getenv("SETTLEWELL_POSTPROCESS_DIR"))
-    return std::string(env) + "/plot_run.py";
-  return std::string(SETTLEWELL_SOURCE_DIR) + "/postprocess/plot_run.py";
+    return std::string(env) + "/" + script;
+  return std::string(SETTLEWELL_SOURCE_DIR) + "/postprocess/" + script;
 }
 
 /// Runs the plotting script; returns "" or the reason it could not.
 std::string make_plots(const std::string& run, std::ostream& log) {
-  const std::string py = plot_python();
-  if (py.empty())
-    return "no Python with VTK and matplotlib was found (Debian: python3-vtk9, "
-           "python3-matplotlib; or set SETTLEWELL_PYTHON)";
-  if (!fs::exists(plot_script()))
-    return "the plotting script " + plot_script() + " is missing";
-  log << "making plots with " << py << " ...\n";
-  const std::string command = shell_quote(py) + " " + shell_quote(plot_script()) + " " +
-                              shell_quote(run) + " > " + shell_quote(run + "/plots.log") +
-                              " 2>&1";
-  if (std::system(command.c_str()) != 0)
-    return "the plotting script failed; see plots.log in the run folder";
-  return "";
+  return run_postprocess("plot_run.py", {run}, run + "/plots.log", log);
 }
 
 // --------------------------------------------------------------- sections
@@ -427,6 +415,27 @@ void limits_section(Document& d) {
 }
 
 } // namespace
+
+std::string run_postprocess(const std::string& script,
+                            const std::vector<std::string>& arguments,
+                            const std::string& log_file,
+                            std::ostream& log) {
+  const std::string py = plot_python();
+  if (py.empty())
+    return "no Python with VTK and matplotlib was found (Debian: python3-vtk9, "
+           "python3-matplotlib; or set SETTLEWELL_PYTHON)";
+  const std::string path = script_path(script);
+  if (!fs::exists(path))
+    return "the script " + path + " is missing";
+  log << "running " << script << " with " << py << " ...\n";
+  std::string command = shell_quote(py) + " " + shell_quote(path);
+  for (const auto& a : arguments)
+    command += " " + shell_quote(a);
+  command += " > " + shell_quote(log_file) + " 2>&1";
+  if (std::system(command.c_str()) != 0)
+    return script + " failed; see " + log_file;
+  return "";
+}
 
 void write_report(const std::string& run, std::ostream& log) {
   const std::string results_path = run + "/results.toml";

@@ -54,6 +54,10 @@ public:
   /// net_outflow() * dt it closes the water balance. Collective.
   double storage_gain() const;
 
+  /// Seconds for one product of the system matrix with a vector, averaged over
+  /// `repeats` products (for benchmarks; the matrix must be assembled). Collective.
+  double time_matrix_vector_product(unsigned int repeats) const;
+
   double time() const;
   MPI_Comm communicator() const;
   const Mesh& mesh() const;

@@ -1,0 +1,29 @@
+#pragma once
+
+#include "settlewell/scenario/sweep_file.h"
+
+#include <mpi.h>
+
+#include <iosfwd>
+#include <string>
+
+namespace settlewell {
+
+struct SweepOptions {
+  std::string folder;          ///< the sweep's folder (one run folder per variant)
+  unsigned int group_size = 1; ///< processes per variant
+  bool overwrite = false;
+};
+
+/// Runs every variant of a sweep, each in its own run folder
+/// (<folder>/variant_NNN/run), spreading them over groups of `group_size`
+/// processes of `world` (MPI sub-communicators; variant i goes to group
+/// i mod groups). Then rank 0 writes <folder>/sweep_summary.csv (the parameter
+/// values and the headline results of each variant) and, if the sweep names a
+/// chart, <folder>/sweep_chart.png. Collective on `world`.
+void run_sweep(const scenario::SweepSpec& sweep,
+               const SweepOptions& options,
+               MPI_Comm world,
+               std::ostream& log);
+
+} // namespace settlewell

@@ -1,0 +1,45 @@
+#!/usr/bin/env python3
+"""One result of a Settlewell sweep against one swept parameter, as a PNG.
+
+    python3 postprocess/plot_sweep.py SWEEP_SUMMARY.csv X_COLUMN Y_COLUMN OUT.png
+
+When the sweep has other parameters, one line is drawn for each combination of
+their values.
+"""
+
+import csv
+import sys
+from collections import defaultdict
+
+import matplotlib
+
+matplotlib.use("Agg")
+import matplotlib.pyplot as plt  # noqa: E402
+
+
+def main():
+    path, x_key, y_key, out = sys.argv[1:5]
+    with open(path, newline="") as f:
+        rows = list(csv.DictReader(f))
+    others = [k for k in rows[0] if k not in (x_key, "variant") and "." in k]
+    lines = defaultdict(list)
+    for r in rows:
+        label = ", ".join(f"{k} = {float(r[k]):g}" for k in others)
+        lines[label].append((float(r[x_key]), float(r[y_key])))
+    fig, ax = plt.subplots(figsize=(7, 4))
+    for label, points in sorted(lines.items()):
+        points.sort()
+        ax.plot([p[0] for p in points], [p[1] for p in points], marker="o", label=label or None)
+    ax.set_xlabel(x_key)
+    ax.set_ylabel(y_key.replace("_", " "))
+    ax.set_title(f"{y_key.replace('_', ' ')} against {x_key}")
+    ax.grid(alpha=0.3)
+    if others:
+        ax.legend(fontsize=8)
+    fig.tight_layout()
+    fig.savefig(out, dpi=110)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

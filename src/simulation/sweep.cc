@@ -1,0 +1,147 @@
+#include "settlewell/simulation/sweep.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/report/report.h"
+#include "settlewell/scenario/parse.h"
+#include "settlewell/simulation/run_files.h"
+#include "settlewell/simulation/simulation.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <toml++/toml.h>
+
+#include <filesystem>
+#include <fstream>
+#include <iomanip>
+#include <ostream>
+#include <sstream>
+
+namespace settlewell {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+std::string variant_folder(const std::string& sweep_folder, std::size_t i) {
+  std::ostringstream name;
+  name << sweep_folder << "/variant_" << std::setw(3) << std::setfill('0') << i;
+  return name.str();
+}
+
+/// The least of a factor over a list of check tables (-1 in results.toml means
+/// "not applicable" and is skipped; none applicable gives -1).
+double least_factor(const toml::array* list, const char* key) {
+  double least = -1.0;
+  if (list != nullptr)
+    for (const auto& node : *list) {
+      const double f = (*node.as_table())[key].value_or(-1.0);
+      if (f >= 0.0 && (least < 0.0 || f < least))
+        least = f;
+    }
+  return least;
+}
+
+/// The headline results of one variant, in the order of sweep_result_columns().
+std::vector<double> variant_results(const std::string& run_folder) {
+  const toml::table r = toml::parse_file(run_folder + "/results.toml");
+  double neighbour_settlement = 0.0, category = 0.0, discharge = 0.0, volume = 0.0;
+  if (const auto* ns = r["neighbours"].as_array())
+    for (const auto& n : *ns) {
+      neighbour_settlement = std::max(
+          neighbour_settlement, (*n.as_table())["largest_settlement_m"].value_or(0.0));
+      category = std::max(category, (*n.as_table())["category"].value_or(0.0));
+    }
+  if (const auto* qs = r["discharge"].as_array())
+    for (const auto& q : *qs) {
+      discharge += (*q.as_table())["final_m3_per_day"].value_or(0.0);
+      volume += (*q.as_table())["volume_m3"].value_or(0.0);
+    }
+  const auto base = r["base_stability"];
+  return {neighbour_settlement,
+          category,
+          base["piping"]["least"].value_or(-1.0),
+          least_factor(base["heave"].as_array(), "least"),
+          least_factor(base["uplift"].as_array(), "at_end"),
+          discharge,
+          volume,
+          r["summary"]["settlement_outside_m"].value_or(0.0),
+          r["summary"]["drawdown_outside_m"].value_or(0.0)};
+}
+
+void write_summary(const scenario::SweepSpec& sweep,
+                   const std::string& folder,
+                   std::ostream& log) {
+  std::vector<std::string> header{"variant"};
+  for (const auto& p : sweep.parameters)
+    header.push_back(p.key);
+  for (const auto& c : scenario::sweep_result_columns())
+    header.push_back(c);
+  CsvFile table(folder + "/sweep_summary.csv", header, MPI_COMM_SELF);
+  for (std::size_t i = 0; i < scenario::variant_count(sweep); ++i) {
+    std::vector<double> row{double(i)};
+    for (const double v : scenario::variant_values(sweep, i))
+      row.push_back(v);
+    for (const double v : variant_results(variant_folder(folder, i) + "/run"))
+      row.push_back(v);
+    table.row(row);
+  }
+  log << "wrote " << folder << "/sweep_summary.csv\n";
+  if (sweep.chart_x.empty())
+    return;
+  const std::string problem =
+      report::run_postprocess("plot_sweep.py",
+                              {folder + "/sweep_summary.csv", sweep.chart_x,
+                               sweep.chart_y, folder + "/sweep_chart.png"},
+                              folder + "/sweep_chart.log", log);
+  log << (problem.empty() ? "wrote " + folder + "/sweep_chart.png"
+                          : "no chart: " + problem)
+      << '\n';
+}
+
+} // namespace
+
+void run_sweep(const scenario::SweepSpec& sweep,
+               const SweepOptions& options,
+               MPI_Comm world,
+               std::ostream& log) {
+  const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(world);
+  const unsigned int size = dealii::Utilities::MPI::n_mpi_processes(world);
+  if (options.group_size == 0 || options.group_size > size)
+    throw InputError("--group-size must lie in 1.." + std::to_string(size));
+  prepare_run_folder(options.folder, options.overwrite, world);
+  const std::size_t n = scenario::variant_count(sweep);
+  if (rank == 0)
+    for (std::size_t i = 0; i < n; ++i) {
+      fs::create_directories(variant_folder(options.folder, i));
+      std::ofstream(variant_folder(options.folder, i) + "/scenario.toml")
+          << scenario::variant_scenario_text(sweep, i);
+    }
+  MPI_Barrier(world);
+
+  const unsigned int groups = size / options.group_size;
+  const unsigned int group = rank / options.group_size;
+  MPI_Comm comm;
+  MPI_Comm_split(world, group < groups ? int(group) : MPI_UNDEFINED, int(rank), &comm);
+  if (comm != MPI_COMM_NULL) {
+    const bool group_root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
+    for (std::size_t i = group; i < n; i += groups) {
+      const std::string folder = variant_folder(options.folder, i);
+      Simulation simulation(scenario::read_scenario(folder + "/scenario.toml"), comm);
+      RunOptions run;
+      run.run_directory = folder + "/run";
+      run.show_progress = false;
+      const RunSummary summary = simulation.run(run);
+      if (group_root)
+        log << "variant " << i << " of " << n << " done in " << std::fixed
+            << std::setprecision(1) << summary.wall_seconds << " s (processes " << rank
+            << ".." << rank + options.group_size - 1 << ")\n"
+            << std::flush;
+    }
+    MPI_Comm_free(&comm);
+  }
+  MPI_Barrier(world);
+  if (rank == 0)
+    write_summary(sweep, options.folder, log);
+}
+
+} // namespace settlewell

@@ -1,0 +1,28 @@
+#!/usr/bin/env bash
+# Refinement series of the basement-pit example with both solvers on one and two
+# processes, and the demo's end-to-end time. Prints a Markdown table.
+#   bash tests/performance/run_benchmarks.sh [BUILD_DIR] [MAX_LEVEL]
+# Build first: cmake --build build --target settlewell_benchmark
+set -euo pipefail
+build=${1:-build}
+max_level=${2:-3}
+scenario=examples/basement-pit/scenario.toml
+mpi=(mpirun --allow-run-as-root --oversubscribe)
+echo "| solver | processes | level | cells | unknowns | setup s | factor/PC s | assembly s/step | solve s/step | iterations/step | matvec s | step / matvec | peak MB | bytes/unknown |"
+echo "| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- |"
+for level in $(seq 0 "$max_level"); do
+  for solver in direct iterative; do
+    for np in 1 2; do
+      line=$("${mpi[@]}" -np "$np" "$build/tests/settlewell_benchmark" "$scenario" --refine "$level" \
+             --solver "$solver" --steps 3 2>/dev/null | grep '^solver=') || { echo "| $solver | $np | $level | failed |"; continue; }
+      declare -A v=()
+      for kv in $line; do v[${kv%%=*}]=${kv#*=}; done
+      echo "| ${v[solver]} | ${v[processes]} | ${v[refine]} | ${v[cells]} | ${v[dofs]} | ${v[setup_s]} | ${v[factor_s]} | ${v[assembly_s]} | ${v[solve_s]} | ${v[iterations]} | ${v[matvec_s]} | ${v[step_over_matvec]} | ${v[peak_memory_MB]} | ${v[bytes_per_dof]} |"
+    done
+  done
+done
+start=$(date +%s.%N)
+"$build/settlewell" run "$scenario" -o /tmp/settlewell-demo-timing --overwrite -q > /dev/null
+end=$(date +%s.%N)
+echo
+echo "Demo (examples/basement-pit, one process, mesh + all steps + output): $(awk -v a="$start" -v b="$end" 'BEGIN{printf "%.1f", b - a}') s"

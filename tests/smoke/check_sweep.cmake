@@ -1,0 +1,28 @@
+# Runs a sweep on two processes (two groups of one) and checks its summary.
+execute_process(COMMAND ${MPIEXEC} --allow-run-as-root --oversubscribe -np 2 ${CMD} sweep
+                        ${SWEEP} -o ${FOLDER} --overwrite
+                RESULT_VARIABLE status OUTPUT_VARIABLE out ERROR_VARIABLE err)
+if(NOT status EQUAL 0)
+  message(FATAL_ERROR "sweep failed (${status}):\n${out}\n${err}")
+endif()
+file(STRINGS ${FOLDER}/sweep_summary.csv lines)
+list(LENGTH lines n)
+if(NOT n EQUAL 3)
+  message(FATAL_ERROR "expected a header and two variants, got ${n} lines")
+endif()
+foreach(f variant_000/run/results.toml variant_001/run/results.toml sweep_chart.png)
+  if(NOT EXISTS ${FOLDER}/${f})
+    message(FATAL_ERROR "missing ${f}")
+  endif()
+endforeach()
+# A deeper wall must not give a larger settlement behind it.
+list(GET lines 1 shallow)
+list(GET lines 2 deep)
+string(REPLACE "," ";" shallow "${shallow}")
+string(REPLACE "," ";" deep "${deep}")
+list(GET shallow 5 s_shallow)
+list(GET deep 5 s_deep)
+if(s_deep GREATER s_shallow)
+  message(FATAL_ERROR "deeper wall gave more settlement: ${s_deep} > ${s_shallow}")
+endif()
+message(STATUS "${out}")
