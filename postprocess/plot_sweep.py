@@ -17,11 +17,20 @@ matplotlib.use("Agg")
 import matplotlib.pyplot as plt  # noqa: E402
 
 
+def _swept_keys(rows):
+    """Columns before the first result column are the swept parameters."""
+    keys = list(rows[0])
+    first_result = keys.index("largest_neighbour_settlement_m")
+    return keys[1:first_result]
+
+
 def main():
     path, x_key, y_key, out = sys.argv[1:5]
     with open(path, newline="") as f:
         rows = list(csv.DictReader(f))
-    others = [k for k in rows[0] if k not in (x_key, "variant") and "." in k]
+    # The other swept keys that take more than one value label the lines.
+    swept = [k for k in rows[0] if k != "variant" and k in _swept_keys(rows)]
+    others = [k for k in swept if k != x_key and len({r[k] for r in rows}) > 1]
     lines = defaultdict(list)
     for r in rows:
         label = ", ".join(f"{k} = {float(r[k]):g}" for k in others)
@@ -31,8 +40,8 @@ def main():
         points.sort()
         ax.plot([p[0] for p in points], [p[1] for p in points], marker="o", label=label or None)
     ax.set_xlabel(x_key)
-    ax.set_ylabel(y_key.replace("_", " "))
-    ax.set_title(f"{y_key.replace('_', ' ')} against {x_key}")
+    ax.set_ylabel(y_key)
+    ax.set_title(f"Sweep: {y_key} against {x_key}")
     ax.grid(alpha=0.3)
     if others:
         ax.legend(fontsize=8)

@@ -1,24 +1,28 @@
 // Run under mpirun -np 2: the basement-pit example on two processes gives the
-// heads and displacements of the same run on one process, to 1e-8 relative (the
-// direct solver's round-off: the discrete problem is the same, only its
-// partition differs).
+// heads and displacements of the same run on one process. With the direct
+// solver to 1e-8 relative (round-off: the discrete problem is the same, only its
+// partition differs); with the iterative solver to its stopping tolerance.
 #include "example_support.h"
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
+#include <iostream>
 
 using namespace example_support;
 
 namespace {
 
-void coarse_short(toml::table& s) {
+void coarse_short(toml::table& s, const std::string& solver, double tolerance) {
   coarsen_section(s, 1.0, 25.0, 1.4);
   auto* stages = s["stages"].as_array();
   stages->get(0)->as_table()->insert_or_assign("duration", 20.0);
   stages->get(0)->as_table()->insert_or_assign("ramp", 20.0);
   stages->get(1)->as_table()->insert_or_assign("duration", 20.0);
   s["output"].as_table()->insert_or_assign("times", toml::array{10.0});
+  s.insert_or_assign("numerics",
+                     toml::table{{"solver", solver}, {"tolerance", tolerance}});
 }
 
 /// Largest difference between two numeric columns, relative to the larger values.
@@ -33,33 +37,65 @@ double relative_difference(const Csv& a, const Csv& b, const std::string& column
   return scale > 0.0 ? difference / scale : difference;
 }
 
-} // namespace
-
-TEST(Parallel, TwoProcessesGiveTheOneProcessResults) {
-  int size = 0, rank = 0;
-  MPI_Comm_size(MPI_COMM_WORLD, &size);
+/// Runs the shortened pit with `solver` on one and on two processes and returns
+/// the largest relative difference of any compared column (rank 0; 0 elsewhere).
+double largest_difference_one_vs_two(const std::string& solver, double tolerance) {
+  int rank = 0;
   MPI_Comm_rank(MPI_COMM_WORLD, &rank);
-  ASSERT_EQ(size, 2) << "run this test with mpirun -np 2";
-  const auto file = write_variant("basement-pit", "parallel", coarse_short);
+  const auto file =
+      write_variant("basement-pit", "parallel-" + solver,
+                    [&](toml::table& s) { coarse_short(s, solver, tolerance); });
   const auto base = file.parent_path();
-  const auto parallel = run_scenario_file(file, base / "pit-two-processes", MPI_COMM_WORLD);
+  const auto parallel =
+      run_scenario_file(file, base / "pit-two-processes", MPI_COMM_WORLD);
+  double largest = 0.0;
   if (rank == 0) {
     const auto serial = run_scenario_file(file, base / "pit-one-process", MPI_COMM_SELF);
     const Csv a(serial.folder / "points.csv"), b(parallel.folder / "points.csv");
-    ASSERT_EQ(a.rows(), b.rows());
+    EXPECT_EQ(a.rows(), b.rows());
     for (const char* c : {"head_m", "drawdown_m", "settlement_m", "ux_m",
                           "excess_pore_pressure_kPa", "vertical_effective_stress_kPa"})
-      EXPECT_LT(relative_difference(a, b, c), 1e-8) << "points.csv " << c;
-    for (const char* line : {"ground_surface", "aquifer_mid", "vertical_20m_behind_wall"}) {
+      largest = std::max(largest, relative_difference(a, b, c));
+    for (const char* line :
+         {"ground_surface", "aquifer_mid", "vertical_20m_behind_wall"}) {
       const Csv pa(serial.folder / "profiles" / (std::string(line) + ".csv"));
       const Csv pb(parallel.folder / "profiles" / (std::string(line) + ".csv"));
-      ASSERT_EQ(pa.rows(), pb.rows()) << line;
+      EXPECT_EQ(pa.rows(), pb.rows()) << line;
       for (const char* c : {"head_m", "settlement_m", "ux_m"})
-        EXPECT_LT(relative_difference(pa, pb, c), 1e-8) << line << " " << c;
+        largest = std::max(largest, relative_difference(pa, pb, c));
     }
-    EXPECT_NEAR(parallel.summary.pumped_volume.at("W1"), serial.summary.pumped_volume.at("W1"),
-                1e-8 * serial.summary.pumped_volume.at("W1"));
+    const double v1 = serial.summary.pumped_volume.at("W1");
+    largest =
+        std::max(largest, std::abs(parallel.summary.pumped_volume.at("W1") - v1) / v1);
     EXPECT_EQ(parallel.summary.dofs, serial.summary.dofs);
+    std::cout << solver << " solver: largest relative difference, 2 vs 1 process "
+              << largest << "\n";
   }
   MPI_Barrier(MPI_COMM_WORLD);
+  return largest;
+}
+
+} // namespace
+
+TEST(Parallel, DirectSolverTwoProcessesGiveTheOneProcessResults) {
+  int size = 0;
+  MPI_Comm_size(MPI_COMM_WORLD, &size);
+  ASSERT_EQ(size, 2) << "run this test with mpirun -np 2";
+  EXPECT_LT(largest_difference_one_vs_two("direct", 1e-10), 1e-8);
+}
+
+// The iterative solver stops on residuals (each field's below the tolerance
+// relative to its right-hand side), which bound the error only up to the
+// condition number: on this section (wall 1000 times stiffer than the soil,
+// conductivities 3e-4 to 1e-11 m/s) two partitions differed by about 450 times
+// the tolerance (measured: 4.0e-6 at 1e-8, 4.5e-8 at 1e-10, largest in ux). The
+// bound is 1000 times the default tolerance of 1e-10, i.e. 1e-7: it allows that
+// amplification, and an error in the distributed assembly or gathering (the
+// kind of fault this test is for) would be far larger.
+TEST(Parallel, IterativeSolverTwoProcessesAgreeToItsTolerance) {
+  int size = 0;
+  MPI_Comm_size(MPI_COMM_WORLD, &size);
+  ASSERT_EQ(size, 2) << "run this test with mpirun -np 2";
+  const double tolerance = 1e-10;
+  EXPECT_LT(largest_difference_one_vs_two("iterative", tolerance), 1000 * tolerance);
 }

@@ -1,11 +1,14 @@
 #!/usr/bin/env bash
 # Refinement series of the basement-pit example with both solvers on one and two
-# processes, and the demo's end-to-end time. Prints a Markdown table.
-#   bash tests/performance/run_benchmarks.sh [BUILD_DIR] [MAX_LEVEL]
+# processes, the iterative solver's iterations across time steps from 1e-4 to
+# 1e3 days (levels up to DT_MAX_LEVEL), and the demo's end-to-end time. Prints
+# Markdown tables.
+#   bash tests/performance/run_benchmarks.sh [BUILD_DIR] [MAX_LEVEL] [DT_MAX_LEVEL]
 # Build first: cmake --build build --target settlewell_benchmark
 set -euo pipefail
 build=${1:-build}
 max_level=${2:-3}
+dt_max_level=${3:-2}
 scenario=examples/basement-pit/scenario.toml
 mpi=(mpirun --allow-run-as-root --oversubscribe)
 echo "| solver | processes | level | cells | unknowns | setup s | factor/PC s | assembly s/step | solve s/step | iterations/step | matvec s | step / matvec | peak MB | bytes/unknown |"
@@ -20,6 +23,24 @@ for level in $(seq 0 "$max_level"); do
       echo "| ${v[solver]} | ${v[processes]} | ${v[refine]} | ${v[cells]} | ${v[dofs]} | ${v[setup_s]} | ${v[factor_s]} | ${v[assembly_s]} | ${v[solve_s]} | ${v[iterations]} | ${v[matvec_s]} | ${v[step_over_matvec]} | ${v[peak_memory_MB]} | ${v[bytes_per_dof]} |"
     done
   done
+done
+echo
+echo "Iterative solver, one process: FGMRES iterations per step (3 steps at each dt)"
+echo
+echo "| level | unknowns | dt = 1e-4 d | 1e-2 d | 1 d | 1e3 d |"
+echo "| --- | --- | --- | --- | --- | --- |"
+for level in $(seq 0 "$dt_max_level"); do
+  row="| $level |"
+  dofs=""
+  for dt in 1e-4 1e-2 1 1e3; do
+    line=$("$build/tests/settlewell_benchmark" "$scenario" --refine "$level" --solver iterative \
+           --steps 3 --dt-days "$dt" 2>/dev/null | grep '^solver=') || { row="$row failed |"; continue; }
+    declare -A v=()
+    for kv in $line; do v[${kv%%=*}]=${kv#*=}; done
+    dofs=${v[dofs]}
+    row="$row ${v[iterations]} |"
+  done
+  echo "${row/| $level |/| $level | $dofs |}"
 done
 start=$(date +%s.%N)
 "$build/settlewell" run "$scenario" -o /tmp/settlewell-demo-timing --overwrite -q > /dev/null
