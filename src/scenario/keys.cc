@@ -105,7 +105,7 @@ const std::vector<KeySpec>& all_keys() {
 
     {"numerics.refinements", "integer", "", "0", "Global refinements of the mesh (each multiplies the cells by 4)"},
     {"numerics.solver", "string", "", "\"auto\"", "direct (MUMPS), iterative (FGMRES with a block preconditioner), or auto (by size)"},
-    {"numerics.tolerance", "number", "", "1e-10", "Iterative solver: stop when the residual of each field (equilibrium, storage) is below this fraction of its right-hand side"},
+    {"numerics.tolerance", "number", "", "1e-10", "Relative residual at which the iterative solver stops"},
     {"numerics.petsc_options", "string", "", "\"\"", "Extra PETSc options (for experts), e.g. \"-settlewell_direct_mat_mumps_icntl_14 60\""},
 
     {"checks.piping_factor", "number", "", "1.5", "Least factor against piping at the excavation base before it is flagged"},

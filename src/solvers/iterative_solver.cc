@@ -26,16 +26,6 @@ IS petsc_index_set(const dealii::IndexSet& dofs, MPI_Comm comm, PetscInt block_s
   return is;
 }
 
-/// The 2-norm of the entries of `v` in `is`.
-double block_norm(Vec v, IS is) {
-  Vec part;
-  PetscReal norm = 0.0;
-  petsc_check(VecGetSubVector(v, is, &part), "VecGetSubVector");
-  petsc_check(VecNorm(part, NORM_2, &norm), "VecNorm");
-  petsc_check(VecRestoreSubVector(v, is, &part), "VecRestoreSubVector");
-  return norm;
-}
-
 /// Defaults for the field splits; options already in PETSc's database (the
 /// user's) win.
 void set_default(const char* name, const char* value) {
@@ -53,8 +43,7 @@ public:
               const dealii::IndexSet& p,
               const std::vector<double>& coordinates,
               double tolerance)
-      : comm_(comm)
-      , tolerance_(tolerance) {
+      : comm_(comm) {
     // Each displacement node has its two components next to each other in the
     // dof numbering: block size 2, and rigid-body modes from the node coordinates
     // for the smoothed aggregation (the field split hands them to the block).
@@ -88,8 +77,6 @@ public:
     petsc_check(KSPSetTolerances(ksp_, tolerance, 1e-300, PETSC_DEFAULT, 1000),
                 "KSPSetTolerances");
     petsc_check(KSPSetNormType(ksp_, KSP_NORM_UNPRECONDITIONED), "KSPSetNormType");
-    petsc_check(KSPSetConvergenceTest(ksp_, &BlockSolver::fieldwise_test, this, nullptr),
-                "KSPSetConvergenceTest");
     PC pc;
     petsc_check(KSPGetPC(ksp_, &pc), "KSPGetPC");
     petsc_check(PCSetType(pc, PCFIELDSPLIT), "PCSetType");
@@ -118,30 +105,7 @@ public:
     VecDestroy(&xy);
   }
 
-  /// Converged when the residual of each field, equilibrium rows and storage
-  /// rows, is below the tolerance relative to that field's right-hand side. The
-  /// storage rows are orders of magnitude smaller than the equilibrium rows, so
-  /// a test on the whole residual alone would stop with pressures (and through
-  /// them displacements) far less accurate than the tolerance suggests. The true
-  /// residual is built only once the cheap estimate of the whole has passed.
-  static PetscErrorCode fieldwise_test(
-      KSP ksp, PetscInt, PetscReal estimate, KSPConvergedReason* reason, void* context) {
-    auto& self = *static_cast<BlockSolver*>(context);
-    *reason = KSP_CONVERGED_ITERATING;
-    if (!(estimate <= self.tolerance_ * self.rhs_norm_))
-      return 0;
-    Vec residual = nullptr;
-    PetscCall(KSPBuildResidual(ksp, self.work_, self.residual_, &residual));
-    const double ru = block_norm(residual, self.is_u_),
-                 rp = block_norm(residual, self.is_p_);
-    if (ru <= self.tolerance_ * self.rhs_u_ && rp <= self.tolerance_ * self.rhs_p_)
-      *reason = KSP_CONVERGED_RTOL;
-    return 0;
-  }
-
   ~BlockSolver() override {
-    VecDestroy(&work_);
-    VecDestroy(&residual_);
     KSPDestroy(&ksp_);
     MatDestroy(&schur_);
     ISDestroy(&is_u_);
@@ -165,22 +129,10 @@ public:
     petsc_check(PCFieldSplitSetSchurPre(pc, PC_FIELDSPLIT_SCHUR_PRE_USER, schur_),
                 "PCFieldSplitSetSchurPre");
     petsc_check(KSPSetOperators(ksp_, system, system), "KSPSetOperators");
-    VecDestroy(&work_);
-    VecDestroy(&residual_);
-    petsc_check(MatCreateVecs(system, &work_, &residual_), "MatCreateVecs");
     petsc_check(KSPSetUp(ksp_), "setting up the block preconditioner");
   }
 
   unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) override {
-    // Each field's reference is its own right-hand side; a field whose
-    // right-hand side vanishes is measured against the whole one.
-    rhs_norm_ = rhs.l2_norm();
-    rhs_u_ = block_norm(rhs, is_u_);
-    rhs_p_ = block_norm(rhs, is_p_);
-    if (rhs_u_ == 0.0)
-      rhs_u_ = rhs_norm_;
-    if (rhs_p_ == 0.0)
-      rhs_p_ = rhs_norm_;
     petsc_check(KSPSolve(ksp_, rhs, solution), "the iterative solve");
     KSPConvergedReason reason;
     petsc_check(KSPGetConvergedReason(ksp_, &reason), "KSPGetConvergedReason");
@@ -205,9 +157,6 @@ private:
   KSP ksp_ = nullptr;
   IS is_u_ = nullptr, is_p_ = nullptr;
   Mat schur_ = nullptr;
-  Vec work_ = nullptr, residual_ = nullptr; ///< for building the true residual
-  double tolerance_;
-  double rhs_norm_ = 0.0, rhs_u_ = 0.0, rhs_p_ = 0.0;
 };
 
 } // namespace

@@ -84,18 +84,18 @@ TEST(Parallel, DirectSolverTwoProcessesGiveTheOneProcessResults) {
   EXPECT_LT(largest_difference_one_vs_two("direct", 1e-10), 1e-8);
 }
 
-// The iterative solver stops on residuals (each field's below the tolerance
-// relative to its right-hand side), which bound the error only up to the
+// The iterative solver stops when the whole residual is below the tolerance
+// relative to the right-hand side, which bounds the error only up to the
 // condition number: on this section (wall 1000 times stiffer than the soil,
-// conductivities 3e-4 to 1e-11 m/s) two partitions differed by about 450 times
-// the tolerance (measured: 4.0e-6 at 1e-8, 4.5e-8 at 1e-10, largest in ux). The
-// bound is 1000 times the default tolerance of 1e-10, i.e. 1e-7: it allows that
-// amplification, and an error in the distributed assembly or gathering (the
-// kind of fault this test is for) would be far larger.
-TEST(Parallel, IterativeSolverTwoProcessesAgreeToItsTolerance) {
+// conductivities 3e-4 to 1e-11 m/s) two partitions differed by 640 to 1760 times
+// the tolerance (measured: 1.76e-5 at 1e-8, largest in ux; 6.4e-8 at 1e-10). The
+// bound is 2000 times the default tolerance of 1e-10, i.e. 2e-7: above the
+// largest amplification measured; an error in the distributed assembly or
+// gathering (the fault this test is for) is expected to give far more.
+TEST(Parallel, IterativeSolverTwoProcessesAgreeWithinItsErrorBound) {
   int size = 0;
   MPI_Comm_size(MPI_COMM_WORLD, &size);
   ASSERT_EQ(size, 2) << "run this test with mpirun -np 2";
   const double tolerance = 1e-10;
-  EXPECT_LT(largest_difference_one_vs_two("iterative", tolerance), 1000 * tolerance);
+  EXPECT_LT(largest_difference_one_vs_two("iterative", tolerance), 2000 * tolerance);
 }
