@@ -61,7 +61,8 @@ void build_grid_model(const GridPlan& plan, const std::string& model_name) {
     for (std::size_t i = 0; i + 1 < nx; ++i) {
       const int loop = geo::addCurveLoop({H(i, j), V(i + 1, j), -H(i, j + 1), -V(i, j)});
       const int surface = geo::addPlaneSurface({loop});
-      surfaces.push_back({surface, {P(i, j), P(i + 1, j), P(i + 1, j + 1), P(i, j + 1)}});
+      surfaces.push_back(
+          {surface, {{P(i, j), P(i + 1, j), P(i + 1, j + 1), P(i, j + 1)}}});
       regions[plan.region(i, j)].push_back(surface);
     }
   geo::synchronize();

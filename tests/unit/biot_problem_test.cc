@@ -112,7 +112,7 @@ TEST(BiotProblem, BodyForceChangeGivesTheOedometricSettlement) {
   BiotSetup setup = column_setup();
   const double dg = 2.5; // kN/m^3 heavier
   setup.conditions.body_forces.push_back(
-      {"soil", {[](double) { return 0.0; }, step_at_start(-dg)}});
+      {"soil", {{[](double) { return 0.0; }, step_at_start(-dg)}}});
   BiotProblem problem(mesh, setup);
   // After the undrained first step, long steps drain it: the excess left after a
   // step dt is about 1/(cv pi^2 dt / (4 H^2)) of the one before (1e-5 at 1e12 s).
