@@ -78,6 +78,11 @@ struct BiotProblem::Impl {
   }
   void setup_dofs();
   void choose_solver();
+  /// (x, y) of each displacement node, in the order of the owned dofs `u`.
+  std::vector<double> displacement_node_coordinates(const IndexSet& u) const;
+  /// `target` sized to the owned dofs with the couplings `coupling` allows.
+  void reinit_distributed(LA::MPI::SparseMatrix& target,
+                          const Table<2, DoFTools::Coupling>& coupling) const;
   void find_internal_lines();
   void add_line_fluxes(CellKernel& kernel,
                        const DoFHandler<2>::active_cell_iterator& cell,
@@ -152,6 +157,18 @@ void BiotProblem::Impl::choose_solver() {
   const IndexSet u = DoFTools::extract_dofs(dof_handler, layout.displacement_mask());
   const IndexSet p =
       DoFTools::extract_dofs(dof_handler, layout.mask_of(FieldLayout::pressure));
+  solver = make_iterative_solver(comm, u, p, displacement_node_coordinates(u),
+                                 setup.solver_tolerance);
+  // The Schur approximation couples pressures only.
+  Table<2, DoFTools::Coupling> coupling(FieldLayout::n_components,
+                                        FieldLayout::n_components);
+  coupling.fill(DoFTools::none);
+  coupling(FieldLayout::pressure, FieldLayout::pressure) = DoFTools::always;
+  reinit_distributed(schur, coupling);
+}
+
+std::vector<double>
+BiotProblem::Impl::displacement_node_coordinates(const IndexSet& u) const {
   std::map<types::global_dof_index, Point<2>> support;
   DoFTools::map_dofs_to_support_points(mapping, dof_handler, support,
                                        layout.displacement_mask());
@@ -164,16 +181,15 @@ void BiotProblem::Impl::choose_solver() {
     }
     first_of_pair = !first_of_pair;
   }
-  solver = make_iterative_solver(comm, u, p, coordinates, setup.solver_tolerance);
-  // The Schur approximation couples pressures only.
-  Table<2, DoFTools::Coupling> coupling(FieldLayout::n_components,
-                                        FieldLayout::n_components);
-  coupling.fill(DoFTools::none);
-  coupling(FieldLayout::pressure, FieldLayout::pressure) = DoFTools::always;
+  return coordinates;
+}
+
+void BiotProblem::Impl::reinit_distributed(
+    LA::MPI::SparseMatrix& target, const Table<2, DoFTools::Coupling>& coupling) const {
   DynamicSparsityPattern dsp(relevant);
   DoFTools::make_sparsity_pattern(dof_handler, coupling, dsp, constraints, true);
   SparsityTools::distribute_sparsity_pattern(dsp, owned, comm, relevant);
-  schur.reinit(owned, owned, dsp, comm);
+  target.reinit(owned, owned, dsp, comm);
 }
 
 void BiotProblem::Impl::setup_dofs() {
@@ -189,10 +205,9 @@ void BiotProblem::Impl::setup_dofs() {
   // The pattern keeps the rows of prescribed pressures, so that conditions can be
   // switched on and off (wells that start pumping) without a new pattern.
   make_constraints(constraint_inputs(), 0.0, constraints, false);
-  DynamicSparsityPattern dsp(relevant);
-  DoFTools::make_sparsity_pattern(dof_handler, dsp, constraints, true);
-  SparsityTools::distribute_sparsity_pattern(dsp, owned, comm, relevant);
-  matrix.reinit(owned, owned, dsp, comm);
+  Table<2, DoFTools::Coupling> all(FieldLayout::n_components, FieldLayout::n_components);
+  all.fill(DoFTools::always);
+  reinit_distributed(matrix, all);
   rhs.reinit(owned, comm);
   owned_solution.reinit(owned, comm);
   solution.reinit(owned, relevant, comm);

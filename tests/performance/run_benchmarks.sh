@@ -11,15 +11,22 @@ max_level=${2:-3}
 dt_max_level=${3:-2}
 scenario=examples/basement-pit/scenario.toml
 mpi=(mpirun --allow-run-as-root --oversubscribe)
+declare -A v=()
+# measure NP ARGS...: one benchmark run on NP processes; its key=value figures in v.
+measure() {
+  local np=$1 line kv
+  shift
+  line=$("${mpi[@]}" -np "$np" "$build/tests/settlewell_benchmark" "$scenario" --steps 3 "$@" \
+         2>/dev/null | grep '^solver=') || return 1
+  v=()
+  for kv in $line; do v[${kv%%=*}]=${kv#*=}; done
+}
 echo "| solver | processes | level | cells | unknowns | setup s | factor/PC s | assembly s/step | solve s/step | iterations/step | matvec s | step / matvec | peak MB | bytes/unknown |"
 echo "| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- |"
 for level in $(seq 0 "$max_level"); do
   for solver in direct iterative; do
     for np in 1 2; do
-      line=$("${mpi[@]}" -np "$np" "$build/tests/settlewell_benchmark" "$scenario" --refine "$level" \
-             --solver "$solver" --steps 3 2>/dev/null | grep '^solver=') || { echo "| $solver | $np | $level | failed |"; continue; }
-      declare -A v=()
-      for kv in $line; do v[${kv%%=*}]=${kv#*=}; done
+      measure "$np" --refine "$level" --solver "$solver" || { echo "| $solver | $np | $level | failed |"; continue; }
       echo "| ${v[solver]} | ${v[processes]} | ${v[refine]} | ${v[cells]} | ${v[dofs]} | ${v[setup_s]} | ${v[factor_s]} | ${v[assembly_s]} | ${v[solve_s]} | ${v[iterations]} | ${v[matvec_s]} | ${v[step_over_matvec]} | ${v[peak_memory_MB]} | ${v[bytes_per_dof]} |"
     done
   done
@@ -33,10 +40,7 @@ for level in $(seq 0 "$dt_max_level"); do
   row="| $level |"
   dofs=""
   for dt in 1e-4 1e-2 1 1e3; do
-    line=$("$build/tests/settlewell_benchmark" "$scenario" --refine "$level" --solver iterative \
-           --steps 3 --dt-days "$dt" 2>/dev/null | grep '^solver=') || { row="$row failed |"; continue; }
-    declare -A v=()
-    for kv in $line; do v[${kv%%=*}]=${kv#*=}; done
+    measure 1 --refine "$level" --solver iterative --dt-days "$dt" || { row="$row failed |"; continue; }
     dofs=${v[dofs]}
     row="$row ${v[iterations]} |"
   done
