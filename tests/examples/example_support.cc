@@ -28,8 +28,10 @@ fs::path write_variant(const std::string& example,
   return file;
 }
 
-ExampleRun run_scenario_file(const fs::path& file, const fs::path& folder, MPI_Comm comm) {
-  settlewell::Simulation simulation(settlewell::scenario::read_scenario(file.string()), comm);
+ExampleRun
+run_scenario_file(const fs::path& file, const fs::path& folder, MPI_Comm comm) {
+  settlewell::Simulation simulation(settlewell::scenario::read_scenario(file.string()),
+                                    comm);
   settlewell::RunOptions options;
   options.run_directory = folder.string();
   options.overwrite = true;
@@ -63,9 +65,11 @@ Csv::Csv(const fs::path& path) {
     throw std::runtime_error("cannot read " + path.string());
   std::string line;
   std::getline(in, line);
-  std::vector<std::string> header;
   for (std::stringstream ss(line); std::getline(ss, line, ',');)
-    header.push_back(line);
+    header_.push_back(line);
+  const auto& header = header_;
+  for (const auto& name : header) // a table without rows still has its columns
+    numbers_[name], texts_[name];
   while (std::getline(in, line)) {
     std::stringstream ss(line);
     std::string cell;
@@ -109,6 +113,17 @@ void coarsen_section(toml::table& scenario, double near, double far, double grow
   mesh->insert_or_assign("size_near_well", near);
   mesh->insert_or_assign("size_far", far);
   mesh->insert_or_assign("growth", growth);
+}
+
+void shorten_pit(toml::table& s, const std::string& solver, double tolerance) {
+  coarsen_section(s, 1.0, 25.0, 1.4);
+  auto* stages = s["stages"].as_array();
+  stages->get(0)->as_table()->insert_or_assign("duration", 20.0);
+  stages->get(0)->as_table()->insert_or_assign("ramp", 20.0);
+  stages->get(1)->as_table()->insert_or_assign("duration", 20.0);
+  s["output"].as_table()->insert_or_assign("times", toml::array{10.0});
+  s.insert_or_assign("numerics",
+                     toml::table{{"solver", solver}, {"tolerance", tolerance}});
 }
 
 } // namespace example_support

@@ -27,7 +27,8 @@ ExampleRun run_example(const std::string& example,
 
 /// Runs a scenario file into `folder` on `comm`, quietly.
 ExampleRun run_scenario_file(const std::filesystem::path& file,
-                             const std::filesystem::path& folder, MPI_Comm comm);
+                             const std::filesystem::path& folder,
+                             MPI_Comm comm);
 
 /// The same scenario variant as run_example would write, without running it.
 std::filesystem::path write_variant(const std::string& example,
@@ -41,8 +42,10 @@ public:
   const std::vector<double>& column(const std::string& name) const;
   const std::vector<std::string>& text(const std::string& name) const;
   std::size_t rows() const { return n_rows_; }
+  const std::vector<std::string>& header() const { return header_; }
 
 private:
+  std::vector<std::string> header_;
   std::map<std::string, std::vector<double>> numbers_;
   std::map<std::string, std::vector<std::string>> texts_;
   std::size_t n_rows_ = 0;
@@ -53,5 +56,9 @@ std::vector<std::size_t> rows_at(const Csv& csv, double time_days);
 
 /// Coarser mesh sizes for a section example (tests run at a coarse setting).
 void coarsen_section(toml::table& scenario, double near, double far, double growth);
+
+/// The basement pit coarsened and shortened to two 20-day stages (an output at
+/// day 10), solved with `solver` ("direct" or "iterative") to `tolerance`.
+void shorten_pit(toml::table& scenario, const std::string& solver, double tolerance);
 
 } // namespace example_support

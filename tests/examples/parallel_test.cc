@@ -14,17 +14,6 @@ using namespace example_support;
 
 namespace {
 
-void coarse_short(toml::table& s, const std::string& solver, double tolerance) {
-  coarsen_section(s, 1.0, 25.0, 1.4);
-  auto* stages = s["stages"].as_array();
-  stages->get(0)->as_table()->insert_or_assign("duration", 20.0);
-  stages->get(0)->as_table()->insert_or_assign("ramp", 20.0);
-  stages->get(1)->as_table()->insert_or_assign("duration", 20.0);
-  s["output"].as_table()->insert_or_assign("times", toml::array{10.0});
-  s.insert_or_assign("numerics",
-                     toml::table{{"solver", solver}, {"tolerance", tolerance}});
-}
-
 /// Largest difference between two numeric columns, relative to the larger values.
 double relative_difference(const Csv& a, const Csv& b, const std::string& column) {
   const auto& x = a.column(column);
@@ -44,7 +33,7 @@ double largest_difference_one_vs_two(const std::string& solver, double tolerance
   MPI_Comm_rank(MPI_COMM_WORLD, &rank);
   const auto file =
       write_variant("basement-pit", "parallel-" + solver,
-                    [&](toml::table& s) { coarse_short(s, solver, tolerance); });
+                    [&](toml::table& s) { shorten_pit(s, solver, tolerance); });
   const auto base = file.parent_path();
   const auto parallel =
       run_scenario_file(file, base / "pit-two-processes", MPI_COMM_WORLD);
