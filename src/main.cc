@@ -97,7 +97,7 @@ struct ScenarioOptions {
 
 /// Command-line overrides of the scenario's [numerics].
 void apply_overrides(const ScenarioOptions& o, settlewell::scenario::Scenario& s) {
-  using Solver = settlewell::scenario::Numerics::Solver;
+  using Solver = settlewell::SolverChoice;
   if (o.refine >= 0)
     s.numerics.refinements = static_cast<unsigned int>(o.refine);
   if (o.solver == "direct")

@@ -1,6 +1,7 @@
 #include "settlewell/checks/one_d.h"
 
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
+#include "settlewell/analytical/roots.h"
 
 #include <cmath>
 
@@ -71,14 +72,11 @@ double OneDEstimate::t50(double ramp, double target) const {
   const double half = 0.5 * (target > 0.0 ? target : ultimate);
   if (!(half > 0.0))
     return 0.0;
-  double lo = 0.0, hi = 1.0;
+  double hi = 1.0;
   while (settlement_at(hi, ramp) < half && hi < 1e15)
     hi *= 2.0;
-  for (int i = 0; i < 100; ++i) {
-    const double mid = 0.5 * (lo + hi);
-    (settlement_at(mid, ramp) < half ? lo : hi) = mid;
-  }
-  return 0.5 * (lo + hi);
+  return analytical::bracketed_root(
+      [&](double t) { return settlement_at(t, ramp) - half; }, 0.0, hi);
 }
 
 } // namespace settlewell::checks

@@ -25,10 +25,6 @@ double PoroelasticMaterial::constrained_modulus() const {
   return lame_lambda() + 2.0 * shear_modulus();
 }
 
-double PoroelasticMaterial::drained_bulk_modulus() const {
-  return lame_lambda() + 2.0 / 3.0 * shear_modulus();
-}
-
 double PoroelasticMaterial::consolidation_coefficient(double conductivity,
                                                       double gamma_w) const {
   const double s1d = storage + biot_alpha * biot_alpha / constrained_modulus();

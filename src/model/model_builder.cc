@@ -288,10 +288,7 @@ Model build_model(const Scenario& s,
   for (const auto& [region, material] : region_materials(s, mesh))
     setup.materials[region] = s.materials.at(material).poroelastic;
   setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
-  using Solver = scenario::Numerics::Solver;
-  setup.solver = s.numerics.solver == Solver::direct      ? BiotSetup::Solver::direct
-                 : s.numerics.solver == Solver::iterative ? BiotSetup::Solver::iterative
-                                                          : BiotSetup::Solver::automatic;
+  setup.solver = s.numerics.solver;
   setup.solver_tolerance = s.numerics.tolerance;
   const auto roles = boundary_roles(s, mesh);
   const auto items = hydraulic_items(s, mesh, initial, roles, model.pumped);

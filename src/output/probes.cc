@@ -50,32 +50,4 @@ PointValues probe(const BiotProblem& problem, const Point<2>& x) {
   return {total[0] / total[3], total[1] / total[3], total[2] / total[3]};
 }
 
-double boundary_mean(const BiotProblem& problem,
-                     const std::string& boundary,
-                     unsigned int component) {
-  const auto id = problem.mesh().names.boundary_id(boundary);
-  const auto& dof_handler = problem.dof_handler();
-  FEFaceValues<2> fv(problem.mapping(), dof_handler.get_fe(), QGauss<1>(3),
-                     update_values | update_JxW_values | update_quadrature_points);
-  const bool axisymmetric = problem.setup().analysis == AnalysisType::axisymmetric;
-  std::vector<Vector<double>> values(fv.n_quadrature_points,
-                                     Vector<double>(FieldLayout::n_components));
-  double integral = 0.0, measure = 0.0;
-  for (const auto& [cell, f] : faces_on_boundary(dof_handler, id)) {
-    fv.reinit(cell, f);
-    fv.get_function_values(problem.solution(), values);
-    for (unsigned int q = 0; q < fv.n_quadrature_points; ++q) {
-      const double w =
-          fv.JxW(q) * (axisymmetric ? 2.0 * units::pi * fv.quadrature_point(q)[0] : 1.0);
-      integral += values[q][component] * w;
-      measure += w;
-    }
-  }
-  integral = Utilities::MPI::sum(integral, problem.communicator());
-  measure = Utilities::MPI::sum(measure, problem.communicator());
-  if (!(measure > 0.0))
-    throw InputError("boundary '" + boundary + "' has no faces");
-  return integral / measure;
-}
-
 } // namespace settlewell

@@ -147,8 +147,8 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
 }
 
 void BiotProblem::Impl::choose_solver() {
-  const bool iterative = setup.solver == BiotSetup::Solver::iterative ||
-                         (setup.solver == BiotSetup::Solver::automatic &&
+  const bool iterative = setup.solver == SolverChoice::iterative ||
+                         (setup.solver == SolverChoice::automatic &&
                           dof_handler.n_dofs() > setup.direct_limit);
   if (!iterative) {
     solver = make_direct_solver(comm);
@@ -580,9 +580,6 @@ const DoFHandler<2>& BiotProblem::dof_handler() const {
 }
 const LA::MPI::Vector& BiotProblem::solution() const {
   return impl_->solution;
-}
-std::string BiotProblem::solver_name() const {
-  return impl_->solver->name();
 }
 
 } // namespace settlewell

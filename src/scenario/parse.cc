@@ -4,6 +4,7 @@
 #include "settlewell/core/errors.h"
 #include "settlewell/scenario/keys.h"
 
+#include <algorithm>
 #include <fstream>
 #include <sstream>
 

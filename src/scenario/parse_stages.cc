@@ -238,9 +238,9 @@ void parse_checks(const TableReader& top, Scenario& s) {
     s.numerics.refinements = static_cast<unsigned int>(refinements);
     const std::string solver = r.text_or("solver", "auto");
     if (solver == "direct")
-      s.numerics.solver = Numerics::Solver::direct;
+      s.numerics.solver = SolverChoice::direct;
     else if (solver == "iterative")
-      s.numerics.solver = Numerics::Solver::iterative;
+      s.numerics.solver = SolverChoice::iterative;
     else if (solver != "auto")
       r.fail("solver", "must be auto, direct or iterative (got '" + solver + "')");
     if (r.has("tolerance")) {

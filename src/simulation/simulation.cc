@@ -161,8 +161,4 @@ RunSummary Simulation::run(const RunOptions& options) {
   return summary;
 }
 
-void Simulation::describe(std::ostream& out) const {
-  describe_scenario(impl_->scenario, impl_->mesh, impl_->schedule, out);
-}
-
 } // namespace settlewell

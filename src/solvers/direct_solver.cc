@@ -45,7 +45,6 @@ public:
     return 1;
   }
 
-  std::string name() const override { return "direct (MUMPS LU)"; }
 
 private:
   KSP ksp_ = nullptr;

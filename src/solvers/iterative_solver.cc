@@ -146,10 +146,6 @@ public:
     return static_cast<unsigned int>(iterations);
   }
 
-  std::string name() const override {
-    return "iterative (FGMRES, Schur field split: CG with BoomerAMG on displacements, "
-           "BoomerAMG on pressures)";
-  }
   bool needs_schur_approximation() const override { return true; }
 
 private:

@@ -7,7 +7,7 @@
 // Terzaghi's exact series: implicit Euler is first order.
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
 #include "settlewell/verification/case_support.h"
 #include "settlewell/verification/column_model.h"
 

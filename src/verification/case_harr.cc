@@ -14,7 +14,7 @@
 #include "settlewell/output/derived.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/output/samples.h"
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/cutoff_wall.h"
 #include "settlewell/verification/case_support.h"
 
 #include <cmath>

@@ -6,7 +6,7 @@
 // (alpha = 1, S = 0; Skempton 1954).
 #include "settlewell/core/units.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
 #include "settlewell/verification/case_support.h"
 #include "settlewell/verification/column_model.h"
 

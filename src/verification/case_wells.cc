@@ -7,7 +7,7 @@
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/wells.h"
 #include "settlewell/verification/case_support.h"
 
 #include <map>

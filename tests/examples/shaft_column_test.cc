@@ -4,7 +4,8 @@
 
 #include "settlewell/core/units.h"
 #include "settlewell/scenario/parse.h"
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
+#include "settlewell/analytical/wells.h"
 
 #include <gtest/gtest.h>
 

@@ -65,7 +65,7 @@ int main(int argc, char** argv) {
   const model::Schedule schedule(scenario);
   auto model = model::build_model(scenario, mesh, initial, schedule);
   model.setup.solver =
-      solver == "direct" ? BiotSetup::Solver::direct : BiotSetup::Solver::iterative;
+      solver == "direct" ? SolverChoice::direct : SolverChoice::iterative;
   BiotProblem problem(mesh, model.setup);
   const double setup_s = since(start);
 

@@ -1,7 +1,10 @@
 // The analytical solutions against the check values tabulated in the project's
 // verification references (computed there two independent ways). Each block names
 // the published source of the solution.
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
+#include "settlewell/analytical/mandel.h"
+#include "settlewell/analytical/wells.h"
+#include "settlewell/analytical/cutoff_wall.h"
 
 #include <gtest/gtest.h>
 

@@ -3,7 +3,6 @@
 #include "settlewell/checks/damage.h"
 #include "settlewell/checks/one_d.h"
 #include "settlewell/checks/stability.h"
-#include "settlewell/verification/analytical.h"
 
 #include <gtest/gtest.h>
 

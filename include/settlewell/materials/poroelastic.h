@@ -22,7 +22,6 @@ struct PoroelasticMaterial {
   double shear_modulus() const;
   /// Constrained (oedometer) modulus K + 4G/3 = 1/mv, kPa.
   double constrained_modulus() const;
-  double drained_bulk_modulus() const;
   /// Generalised coefficient of consolidation k/(gamma_w (S + alpha^2/M_oed)), m^2/s,
   /// for the conductivity of the given direction.
   double consolidation_coefficient(double conductivity, double gamma_w) const;

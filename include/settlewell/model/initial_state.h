@@ -27,11 +27,6 @@ public:
   dealii::SymmetricTensor<2, 3> effective_stress(const dealii::Point<2>& x,
                                                  dealii::types::material_id region) const;
 
-  /// Knots (elevation, head) of the head profile, top down (for reports).
-  const std::vector<std::pair<double, double>>& head_profile() const {
-    return head_knots_;
-  }
-
 private:
   double gamma_w_;
   std::vector<std::pair<double, double>> head_knots_;   ///< (y, h), y decreasing

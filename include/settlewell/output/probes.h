@@ -19,10 +19,4 @@ struct PointValues {
 /// every process gets the same values. Throws InputError if no cell holds `x`.
 PointValues probe(const BiotProblem& problem, const dealii::Point<2>& x);
 
-/// The mean of one solution component over a named boundary (weighted as the
-/// analysis integrates: by length, or by 2 pi r in axisymmetric). Collective.
-double boundary_mean(const BiotProblem& problem,
-                     const std::string& boundary,
-                     unsigned int component);
-
 } // namespace settlewell

@@ -67,7 +67,6 @@ public:
   const dealii::DoFHandler<2>& dof_handler() const;
   /// Displacement (m) and excess pore pressure (kPa) at time(), with ghost values.
   const LA::MPI::Vector& solution() const;
-  std::string solver_name() const;
 
 private:
   struct Impl;

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "settlewell/boundary/conditions.h"
+#include "settlewell/core/types.h"
 #include "settlewell/core/units.h"
 #include "settlewell/materials/poroelastic.h"
 
@@ -11,11 +12,6 @@
 #include <string>
 
 namespace settlewell {
-
-enum class AnalysisType {
-  plane_strain, ///< x horizontal, y up, per metre run
-  axisymmetric  ///< x is the radius r >= 0, y is z up; integrals over the full circle
-};
 
 /// Everything the Biot core needs besides the mesh. Plain data, no parsing.
 struct BiotSetup {
@@ -32,12 +28,11 @@ struct BiotSetup {
   /// (the uncoupled diffusion that Theis's solution assumes).
   bool rigid_skeleton = false;
 
-  enum class Solver { automatic, direct, iterative };
   /// automatic: direct up to `direct_limit` unknowns, iterative above. MUMPS
   /// with a reused factorisation beat the iterative solver at every size
   /// measured (up to 1.4 M unknowns, about 4.7 KB per unknown), so the limit is
   /// where its memory, not its speed, becomes the concern.
-  Solver solver = Solver::automatic;
+  SolverChoice solver = SolverChoice::automatic;
   double solver_tolerance = 1e-10; ///< relative residual (iterative)
   std::size_t direct_limit = 1500000;
 };

@@ -1,7 +1,8 @@
 #pragma once
 
 #include "settlewell/materials/poroelastic.h"
-#include "settlewell/physics/biot_setup.h"
+#include "settlewell/core/types.h"
+#include "settlewell/core/units.h"
 
 #include <map>
 #include <optional>
@@ -170,8 +171,7 @@ struct CheckLimits {
 /// How the equations are discretised and solved.
 struct Numerics {
   unsigned int refinements = 0; ///< global refinements of the generated or read mesh
-  enum class Solver { automatic, direct, iterative };
-  Solver solver = Solver::automatic;
+  SolverChoice solver = SolverChoice::automatic;
   double tolerance = 1e-10;     ///< relative residual of the iterative solver
   std::string petsc_options;    ///< extra PETSc options, for experts
 };

@@ -50,9 +50,6 @@ public:
   /// Runs every stage, writing the run folder. Collective.
   RunSummary run(const RunOptions& options);
 
-  /// The summary `settlewell check` prints: regions, boundaries, stages, mesh, dofs.
-  void describe(std::ostream& out) const;
-
 private:
   struct Impl;
   std::unique_ptr<Impl> impl_;

@@ -22,7 +22,6 @@ public:
                           const LA::MPI::SparseMatrix* schur) = 0;
   /// Returns the number of iterations (1 for a direct solve).
   virtual unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) = 0;
-  virtual std::string name() const = 0;
   virtual bool needs_schur_approximation() const { return false; }
 };
 

@@ -1,5 +1,6 @@
-#include "settlewell/verification/analytical.h"
+#include "settlewell/analytical/consolidation.h"
 
+#include "settlewell/analytical/roots.h"
 #include "settlewell/core/units.h"
 
 #include <cmath>
@@ -61,12 +62,8 @@ double terzaghi_excess_ratio_backward_euler(double Z, double dT, unsigned int n_
 double terzaghi_time_factor(double U) {
   if (!(U > 0.0 && U < 1.0))
     throw std::domain_error("U must lie in (0, 1)");
-  double lo = 1e-12, hi = 10.0;
-  for (int i = 0; i < 200; ++i) {
-    const double mid = std::sqrt(lo * hi);
-    (terzaghi_average_degree(mid) < U ? lo : hi) = mid;
-  }
-  return std::sqrt(lo * hi);
+  return bracketed_root([U](double T) { return terzaghi_average_degree(T) - U; }, 1e-12,
+                        10.0);
 }
 
 // Closed forms of the algebraic tails, so that only fast-decaying terms are summed:
@@ -107,76 +104,6 @@ double olson_excess_ratio(double Z, double T, double Tc) {
         2.0 / (M2 * M) * std::sin(M * Z) * (std::exp(-M2 * (T - Tc)) - std::exp(-M2 * T));
   }
   return sum / Tc;
-}
-
-MandelSolution::MandelSolution(double nu, double nu_u, unsigned int n_terms)
-    : nu_(nu)
-    , nu_u_(nu_u) {
-  // Roots of tan(a) = c a with c = (1 - nu)/(nu_u - nu), one in each interval
-  // ((n-1) pi, (n - 1/2) pi); bisection on g(a) = sin a - c a cos a.
-  const double c = (1.0 - nu) / (nu_u - nu);
-  for (unsigned int n = 1; n <= n_terms; ++n) {
-    double lo = (n - 1) * pi + 1e-12, hi = (n - 0.5) * pi;
-    auto g = [c](double a) { return std::sin(a) - c * a * std::cos(a); };
-    const double g_lo = g(lo);
-    for (int i = 0; i < 200; ++i) {
-      const double mid = 0.5 * (lo + hi);
-      ((g(mid) < 0.0) == (g_lo < 0.0) ? lo : hi) = mid;
-    }
-    roots_.push_back(0.5 * (lo + hi));
-  }
-}
-
-double MandelSolution::pressure_ratio(double x_over_a, double t_star) const {
-  double sum = 0.0;
-  for (const double a : roots_) {
-    const double D = a - std::sin(a) * std::cos(a);
-    sum += std::sin(a) / D * (std::cos(a * x_over_a) - std::cos(a)) *
-           std::exp(-a * a * t_star);
-  }
-  return 2.0 * sum;
-}
-
-double MandelSolution::sum_sin_cos(double t_star) const {
-  double sum = 0.0;
-  for (const double a : roots_) {
-    const double D = a - std::sin(a) * std::cos(a);
-    sum += std::sin(a) * std::cos(a) / D * std::exp(-a * a * t_star);
-  }
-  return sum;
-}
-
-double MandelSolution::plate_displacement_ratio(double t_star) const {
-  return -(1.0 - nu_) + 2.0 * (1.0 - nu_u_) * sum_sin_cos(t_star);
-}
-
-double MandelSolution::side_displacement_ratio(double t_star) const {
-  // nu - 2 nu_u S + 2 S, with S the sum of sin cos / D terms.
-  return nu_ + 2.0 * (1.0 - nu_u_) * sum_sin_cos(t_star);
-}
-
-double theis_well_function(double u) {
-  return -std::expint(-u);
-}
-
-double theis_drawdown(double Q, double T, double S, double r, double t) {
-  const double u = r * r * S / (4.0 * T * t);
-  return Q / (4.0 * pi * T) * theis_well_function(u);
-}
-
-double thiem_drawdown_difference(double Q, double T, double r1, double r2) {
-  return Q / (2.0 * pi * T) * std::log(r2 / r1);
-}
-
-double harr_discharge_ratio(double d_over_T) {
-  const double l = std::sin(pi * d_over_T / 2.0);
-  const double l_complement = std::cos(pi * d_over_T / 2.0);
-  return std::comp_ellint_1(l_complement) / (2.0 * std::comp_ellint_1(l));
-}
-
-double harr_exit_gradient_ratio(double d_over_T) {
-  const double l = std::sin(pi * d_over_T / 2.0);
-  return pi / (4.0 * l * std::comp_ellint_1(l));
 }
 
 } // namespace settlewell::analytical
