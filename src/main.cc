@@ -44,6 +44,7 @@ struct VerifyOptions {
   std::vector<std::string> cases;
   std::string vtk_directory;
   bool list = false;
+  bool markdown = false;
 };
 
 int run_verify(const VerifyOptions& options) {
@@ -75,7 +76,12 @@ int run_verify(const VerifyOptions& options) {
                        .count()
                 << " s\n";
   }
-  if (is_root()) {
+  if (is_root() && options.markdown) {
+    std::vector<v::CaseDescription> descriptions;
+    for (const auto* c : selected)
+      descriptions.push_back({c->name, c->summary});
+    v::print_markdown(std::cout, descriptions, rows);
+  } else if (is_root()) {
     v::print_table(std::cout, rows);
     if (!options.vtk_directory.empty())
       std::cout << "Fields of each case: " << options.vtk_directory
@@ -193,6 +199,9 @@ int dispatch(int argc, char** argv) {
   verify_cmd->add_option("--vtk", verify.vtk_directory,
                          "Also write each case's fields (VTU + PVD) into this folder");
   verify_cmd->add_flag("--list", verify.list, "List the cases and exit");
+  verify_cmd->add_flag("--markdown", verify.markdown,
+                       "Print a Markdown summary per case and the full table (the "
+                       "README's verification section)");
 
   ScenarioOptions run, check, mesh;
   auto* run_cmd = app.add_subcommand(

@@ -1,18 +1,33 @@
 #include "settlewell/scenario/keys.h"
 
+#include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
+
 #include <algorithm>
+#include <cstdlib>
 #include <iomanip>
 #include <ostream>
 #include <set>
+#include <sstream>
 
 namespace settlewell::scenario {
+
+namespace {
+
+std::string number_text(double v) {
+  std::ostringstream os;
+  os << v;
+  return os.str();
+}
+
+} // namespace
 
 // clang-format off
 const std::vector<KeySpec>& all_keys() {
   static const std::vector<KeySpec> keys{
     {"title", "string", "", "\"\"", "A title for the run folder and reports"},
     {"analysis", "string", "", "\"plane_strain\"", "plane_strain (a section, per metre run) or axisymmetric (a shaft or single well about x = 0)"},
-    {"unit_weight_water", "number", "kN/m3", "9.81", "Unit weight of water"},
+    {"unit_weight_water", "number", "kN/m3", number_text(units::default_gamma_w), "Unit weight of water"},
 
     {"materials.<name>.unit_weight", "number", "kN/m3", "required", "Saturated unit weight"},
     {"materials.<name>.youngs_modulus", "number", "kPa", "-", "Drained Young's modulus E' (give this, constrained_modulus or mv)"},
@@ -41,7 +56,7 @@ const std::vector<KeySpec>& all_keys() {
     {"section.wall.thickness", "number", "m", "required", "Cutoff wall thickness"},
     {"section.wall.toe", "number", "m", "required", "Elevation of the wall toe"},
     {"section.wall.material", "string", "", "required", "Material of the wall"},
-    {"section.wall.sides", "string", "", "\"both\"", "left, right or both (a half model has its wall on the right)"},
+    {"section.wall.sides", "string", "", "both (right in a half model or a shaft)", "left, right or both"},
     {"section.wells[].name", "string", "", "required", "Well name, used by stages and outputs"},
     {"section.wells[].x", "number", "m", "required", "Position (plane strain: a row of wells seen in section; axisymmetric: 0 = the axis)"},
     {"section.wells[].radius", "number", "m", "0.15", "Well radius (axisymmetric only: the model starts there)"},
@@ -119,6 +134,31 @@ const std::vector<KeySpec>& all_keys() {
   return keys;
 }
 // clang-format on
+
+bool KeySpec::has_literal_default() const {
+  const std::string t = type;
+  const std::string& d = default_value;
+  if (d.empty() || d == "required" || d == "-")
+    return false;
+  if (t == "string")
+    return d.size() >= 2 && d.front() == '"' && d.back() == '"';
+  if (t == "boolean")
+    return d == "true" || d == "false";
+  if (t == "number" || t == "integer") {
+    char* end = nullptr;
+    std::strtod(d.c_str(), &end);
+    return *end == '\0' &&
+           (t == "number" || d.find_first_not_of("0123456789") == std::string::npos);
+  }
+  return false;
+}
+
+const KeySpec& key_spec(const std::string& path) {
+  for (const auto& key : all_keys())
+    if (path == key.path)
+      return key;
+  throw InternalError("the scenario key '" + path + "' is not declared in keys.cc");
+}
 
 namespace {
 

@@ -53,7 +53,7 @@ Material read_material(const std::string& name, const TableReader& r) {
     p.conductivity_x = r.positive("conductivity_x");
     p.conductivity_y = r.positive("conductivity_y");
   }
-  p.biot_alpha = r.number_or("biot_alpha", 1.0);
+  p.biot_alpha = r.number("biot_alpha");
   if (!(p.biot_alpha > 0.0 && p.biot_alpha <= 1.0))
     r.fail("biot_alpha", "must lie in (0, 1]");
   if (r.has("storage") && r.has("porosity"))
@@ -62,7 +62,7 @@ Material read_material(const std::string& name, const TableReader& r) {
     const double n = r.number("porosity");
     if (!(n > 0.0 && n < 1.0))
       r.fail("porosity", "must lie in (0, 1)");
-    const double Kw = r.number_or("water_bulk_modulus", 2.2e6);
+    const double Kw = r.number("water_bulk_modulus");
     if (!(Kw > 0.0))
       r.fail("water_bulk_modulus", "must be positive");
     const double inverse_Ks =
@@ -71,11 +71,11 @@ Material read_material(const std::string& name, const TableReader& r) {
     if (p.storage < 0.0)
       r.fail("porosity", "gives a negative storage (alpha < n with finite Ks)");
   } else {
-    p.storage = r.number_or("storage", 0.0);
+    p.storage = r.number("storage");
     if (p.storage < 0.0)
       r.fail("storage", "must not be negative");
   }
-  m.k0 = r.number_or("earth_pressure_at_rest", 0.5);
+  m.k0 = r.number("earth_pressure_at_rest");
   if (!(m.k0 > 0.0))
     r.fail("earth_pressure_at_rest", "must be positive");
   return m;
@@ -121,7 +121,7 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
 void parse_boundaries(const TableReader& top, Scenario& s) {
   for_each_named(top, "boundaries", [&](const std::string& name, const TableReader& r) {
     BoundarySpec b;
-    const std::string hydraulic = r.text_or("hydraulic", "");
+    const std::string hydraulic = r.optional_text("hydraulic").value_or("");
     if (hydraulic == "no_flow")
       b.hydraulic = BoundarySpec::Hydraulic::no_flow;
     else if (hydraulic == "fixed_head")
@@ -134,7 +134,7 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
       b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
       b.head = r.number("head");
     }
-    const std::string mechanical = r.text_or("mechanical", "");
+    const std::string mechanical = r.optional_text("mechanical").value_or("");
     if (mechanical == "free")
       b.mechanical = BoundarySpec::Mechanical::free;
     else if (mechanical == "fixed")
@@ -161,13 +161,13 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   Scenario s;
   s.source_path = name;
   const TableReader top(root, "", "", name);
-  s.title = top.text_or("title", "");
-  const std::string analysis = top.text_or("analysis", "plane_strain");
+  s.title = top.text("title");
+  const std::string analysis = top.text("analysis");
   if (analysis == "axisymmetric")
     s.analysis = AnalysisType::axisymmetric;
   else if (analysis != "plane_strain")
     top.fail("analysis", "must be plane_strain or axisymmetric (got '" + analysis + "')");
-  s.gamma_w = top.number_or("unit_weight_water", units::default_gamma_w);
+  s.gamma_w = top.number("unit_weight_water");
   if (!(s.gamma_w > 0.0))
     top.fail("unit_weight_water", "must be positive");
   parse_materials(top, s);

@@ -17,7 +17,7 @@ read_layers(const TableReader& r, const Scenario& s, double top, double bottom) 
     Layer layer;
     layer.top = l.number("top");
     layer.material = l.text("material");
-    layer.name = l.text_or("name", layer.material);
+    layer.name = l.optional_text("name").value_or(layer.material);
     if (!s.materials.count(layer.material))
       l.fail("material", "no material named '" + layer.material + "'");
     if (layers.empty() && std::abs(layer.top - top) > 1e-9)
@@ -48,7 +48,8 @@ Wall read_wall(const TableReader& w, const Scenario& s, const Section& section) 
   if (!(wall.toe > section.bottom))
     w.fail("toe", "lies at or below the model base (" + format_number(section.bottom) +
                       " m); deepen the model");
-  const std::string sides = w.text_or("sides", section.half_model ? "right" : "both");
+  const std::string sides =
+      w.optional_text("sides").value_or(section.half_model ? "right" : "both");
   if (sides != "left" && sides != "right" && sides != "both")
     w.fail("sides", "must be left, right or both");
   wall.left = sides != "right";
@@ -92,7 +93,7 @@ read_wells(const TableReader& r, const Scenario& s, const Section& section) {
     Well well;
     well.name = w.text("name");
     well.x = w.number("x");
-    well.radius = w.number_or("radius", 0.15);
+    well.radius = w.number("radius");
     well.screen_top = w.number("screen_top");
     well.screen_bottom = w.number("screen_bottom");
     check_well(w, well, s, section);
@@ -107,14 +108,11 @@ read_wells(const TableReader& r, const Scenario& s, const Section& section) {
 
 MeshSizes read_mesh_sizes(const TableReader& section) {
   MeshSizes m;
-  const toml::table* t = section.table("mesh");
-  if (t == nullptr)
-    return m;
-  const TableReader r(*t, "section.mesh", "section.mesh", section.file());
-  m.near_wall = r.has("size_near_wall") ? r.positive("size_near_wall") : m.near_wall;
-  m.near_well = r.has("size_near_well") ? r.positive("size_near_well") : m.near_well;
-  m.far = r.has("size_far") ? r.positive("size_far") : m.far;
-  m.growth = r.number_or("growth", m.growth);
+  const TableReader r = sub_table(section, "mesh", "section.mesh");
+  m.near_wall = r.positive("size_near_wall");
+  m.near_well = r.positive("size_near_well");
+  m.far = r.positive("size_far");
+  m.growth = r.number("growth");
   if (!(m.growth >= 1.0 && m.growth <= 2.0))
     r.fail("growth", "must lie in [1, 2]");
   if (m.far < std::max(m.near_wall, m.near_well))
@@ -128,7 +126,7 @@ Section read_section(const TableReader& r, const Scenario& s) {
   section.bottom = r.number("bottom");
   if (!(section.bottom < section.ground_surface))
     r.fail("bottom", "must lie below the ground surface");
-  section.half_model = r.boolean_or("half_model", true);
+  section.half_model = r.boolean("half_model");
   if (s.analysis == AnalysisType::axisymmetric) {
     if (r.has("half_model"))
       r.fail("half_model", "does not apply to an axisymmetric model");
@@ -152,7 +150,7 @@ Section read_section(const TableReader& r, const Scenario& s) {
 
 Box read_box(const TableReader& r, const Scenario& s) {
   Box box;
-  box.width = r.has("width") ? r.positive("width") : 1.0;
+  box.width = r.positive("width");
   box.bottom = r.number("bottom");
   const toml::array* layers = r.array("layers");
   if (layers == nullptr || layers->empty() || !(*layers)[0].is_table())
@@ -163,11 +161,11 @@ Box read_box(const TableReader& r, const Scenario& s) {
   if (!(box.bottom < top))
     r.fail("bottom", "must lie below the top of the first layer");
   box.layers = read_layers(r, s, top, box.bottom);
-  const long long cells = r.optional_integer("cells_x").value_or(1);
+  const long long cells = r.integer("cells_x");
   if (cells < 1 || cells > 10000)
     r.fail("cells_x", "must lie in 1..10000");
   box.cells_x = static_cast<unsigned int>(cells);
-  box.cell_height = r.has("cell_height") ? r.positive("cell_height") : 0.5;
+  box.cell_height = r.positive("cell_height");
   return box;
 }
 

@@ -35,17 +35,13 @@ Target read_target(const TableReader& r, const std::string& what) {
 
 TimeSteps read_time_steps(const TableReader& stage, double duration) {
   TimeSteps steps;
-  const toml::table* t = stage.table("time_steps");
-  if (t == nullptr)
-    return steps;
-  const TableReader r(*t, "stages[].time_steps", stage.label() + ".time_steps",
-                      stage.file());
+  const TableReader r = sub_table(stage, "time_steps", "stages[].time_steps");
   if (r.has("first")) {
     steps.first = units::days(r.positive("first"));
     if (steps.first > duration)
       r.fail("first", "is longer than the stage");
   }
-  steps.growth = r.number_or("growth", steps.growth);
+  steps.growth = r.number("growth");
   if (!(steps.growth >= 1.0 && steps.growth <= 10.0))
     r.fail("growth", "must lie in [1, 10]");
   if (r.has("largest"))
@@ -72,7 +68,7 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
   }
   for_each_table(r, "loads", [&](const TableReader& l) {
     SurfaceLoad load;
-    load.boundary = l.text_or("boundary", "ground_surface");
+    load.boundary = l.text("boundary");
     load.pressure = l.number("pressure");
     load.x_from = l.number("x_from");
     load.x_to = l.number("x_to");
@@ -96,7 +92,7 @@ void parse_stages(const TableReader& top, Scenario& s) {
     stage.duration = days(r, "duration");
     if (!(stage.duration > 0.0))
       r.fail("duration", "must be positive");
-    stage.ramp = units::days(r.number_or("ramp", 0.0));
+    stage.ramp = units::days(r.number("ramp"));
     if (stage.ramp < 0.0)
       r.fail("ramp", "must not be negative");
     if (stage.ramp > stage.duration * (1 + 1e-12))
@@ -150,7 +146,7 @@ void read_output_sites(const TableReader& r, const Scenario& s, Output& out) {
       line.points.push_back(read_xy(l, node));
       check_inside(l, s, line.points.back().first, line.points.back().second, "points");
     }
-    const long long n = l.optional_integer("samples").value_or(101);
+    const long long n = l.integer("samples");
     if (n < 2 || n > 100000)
       l.fail("samples", "must lie in 2..100000");
     line.samples = static_cast<unsigned int>(n);
@@ -168,10 +164,7 @@ void read_output_sites(const TableReader& r, const Scenario& s, Output& out) {
 } // namespace
 
 void parse_output(const TableReader& top, Scenario& s) {
-  const toml::table* t = top.table("output");
-  if (t == nullptr)
-    return;
-  const TableReader r(*t, "output", "output", top.file());
+  const TableReader r = sub_table(top, "output", "output");
   if (const toml::array* times = r.array("times")) {
     for (const auto& node : *times) {
       if (!node.is_number())
@@ -187,7 +180,7 @@ void parse_output(const TableReader& top, Scenario& s) {
       s.output.times.push_back(t_s);
     }
   }
-  const long long per_stage = r.optional_integer("per_stage").value_or(4);
+  const long long per_stage = r.integer("per_stage");
   if (per_stage < 0 || per_stage > 1000)
     r.fail("per_stage", "must lie in 0..1000");
   s.output.per_stage = static_cast<unsigned int>(per_stage);
@@ -197,14 +190,6 @@ void parse_output(const TableReader& top, Scenario& s) {
 } // namespace settlewell::scenario
 
 namespace settlewell::scenario {
-
-namespace {
-
-double positive_or(const TableReader& r, const std::string& key, double fallback) {
-  return r.has(key) ? r.positive(key) : fallback;
-}
-
-} // namespace
 
 void parse_checks(const TableReader& top, Scenario& s) {
   for_each_table(top, "neighbours", [&](const TableReader& r) {
@@ -217,7 +202,7 @@ void parse_checks(const TableReader& top, Scenario& s) {
       r.fail("x_to", "must be greater than x_from");
     if (r.has("height"))
       n.height = r.positive("height");
-    const long long samples = r.optional_integer("samples").value_or(21);
+    const long long samples = r.integer("samples");
     if (samples < 3 || samples > 10000)
       r.fail("samples", "must lie in 3..10000");
     n.samples = static_cast<unsigned int>(samples);
@@ -230,38 +215,33 @@ void parse_checks(const TableReader& top, Scenario& s) {
     }
     s.neighbours.push_back(n);
   });
-  if (const toml::table* n = top.table("numerics")) {
-    const TableReader r(*n, "numerics", "numerics", top.file());
-    const long long refinements = r.optional_integer("refinements").value_or(0);
+  {
+    const TableReader r = sub_table(top, "numerics", "numerics");
+    const long long refinements = r.integer("refinements");
     if (refinements < 0 || refinements > 8)
       r.fail("refinements", "must lie in 0..8");
     s.numerics.refinements = static_cast<unsigned int>(refinements);
-    const std::string solver = r.text_or("solver", "auto");
+    const std::string solver = r.text("solver");
     if (solver == "direct")
       s.numerics.solver = SolverChoice::direct;
     else if (solver == "iterative")
       s.numerics.solver = SolverChoice::iterative;
     else if (solver != "auto")
       r.fail("solver", "must be auto, direct or iterative (got '" + solver + "')");
-    if (r.has("tolerance")) {
-      s.numerics.tolerance = r.positive("tolerance");
-      if (s.numerics.tolerance >= 1.0)
-        r.fail("tolerance", "must be below 1");
-    }
-    s.numerics.petsc_options = r.text_or("petsc_options", "");
+    s.numerics.tolerance = r.positive("tolerance");
+    if (s.numerics.tolerance >= 1.0)
+      r.fail("tolerance", "must be below 1");
+    s.numerics.petsc_options = r.text("petsc_options");
   }
-  const toml::table* t = top.table("checks");
-  if (t == nullptr)
-    return;
-  const TableReader r(*t, "checks", "checks", top.file());
+  const TableReader r = sub_table(top, "checks", "checks");
   CheckLimits& l = s.limits;
-  l.piping_factor = positive_or(r, "piping_factor", l.piping_factor);
-  l.heave_factor = positive_or(r, "heave_factor", l.heave_factor);
-  l.uplift_factor = positive_or(r, "uplift_factor", l.uplift_factor);
-  l.low_permeability = positive_or(r, "low_permeability", l.low_permeability);
-  l.settlement = positive_or(r, "settlement_limit", l.settlement);
-  l.angular_distortion = positive_or(r, "angular_distortion_limit", l.angular_distortion);
-  l.mass_balance = positive_or(r, "mass_balance_tolerance", l.mass_balance);
+  l.piping_factor = r.positive("piping_factor");
+  l.heave_factor = r.positive("heave_factor");
+  l.uplift_factor = r.positive("uplift_factor");
+  l.low_permeability = r.positive("low_permeability");
+  l.settlement = r.positive("settlement_limit");
+  l.angular_distortion = r.positive("angular_distortion_limit");
+  l.mass_balance = r.positive("mass_balance_tolerance");
 }
 
 } // namespace settlewell::scenario

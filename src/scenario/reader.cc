@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <sstream>
 
 namespace settlewell::scenario {
@@ -69,6 +70,16 @@ void TableReader::reject_unknown_keys() const {
   }
 }
 
+std::string TableReader::default_of(const std::string& key) const {
+  const KeySpec& spec = key_spec(path_.empty() ? key : path_ + "." + key);
+  if (spec.has_literal_default())
+    return spec.default_value;
+  if (spec.required() || spec.default_value == "-")
+    fail_here("missing the required key '" + key + "'");
+  throw InternalError("the key '" + std::string(spec.path) +
+                      "' has no literal default; read it with an optional_ function");
+}
+
 std::optional<double> TableReader::optional_number(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)
@@ -82,51 +93,47 @@ std::optional<double> TableReader::optional_number(const std::string& key) const
 }
 
 double TableReader::number(const std::string& key) const {
-  const auto value = optional_number(key);
-  if (!value)
-    fail_here("missing the required key '" + key + "'");
-  return *value;
-}
-
-double TableReader::number_or(const std::string& key, double fallback) const {
-  return optional_number(key).value_or(fallback);
+  if (const auto value = optional_number(key))
+    return *value;
+  return std::strtod(default_of(key).c_str(), nullptr);
 }
 
 double TableReader::positive(const std::string& key) const {
   const double value = number(key);
-  if (!(value > 0.0)) {
+  if (!(value > 0.0))
     fail(key, "must be positive (got " + format_number(value) + ")");
-  }
   return value;
 }
 
-std::string TableReader::text(const std::string& key) const {
+std::optional<std::string> TableReader::optional_text(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)
-    fail_here("missing the required key '" + key + "'");
+    return std::nullopt;
   if (!node->is_string())
     fail(key, "must be a string");
   return std::string(*node->value<std::string_view>());
 }
 
-std::string TableReader::text_or(const std::string& key,
-                                 const std::string& fallback) const {
-  return table_.contains(key) ? text(key) : fallback;
+std::string TableReader::text(const std::string& key) const {
+  if (const auto value = optional_text(key))
+    return *value;
+  const std::string quoted = default_of(key);
+  return quoted.substr(1, quoted.size() - 2);
 }
 
-bool TableReader::boolean_or(const std::string& key, bool fallback) const {
+bool TableReader::boolean(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)
-    return fallback;
+    return default_of(key) == "true";
   if (!node->is_boolean())
     fail(key, "must be true or false");
   return *node->value<bool>();
 }
 
-std::optional<long long> TableReader::optional_integer(const std::string& key) const {
+long long TableReader::integer(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)
-    return std::nullopt;
+    return std::stoll(default_of(key));
   if (!node->is_integer())
     fail(key, "must be a whole number");
   return *node->value<long long>();
@@ -148,6 +155,14 @@ const toml::array* TableReader::array(const std::string& key) const {
   if (!node->is_array())
     fail(key, "must be an array");
   return node->as_array();
+}
+
+TableReader
+sub_table(const TableReader& parent, const std::string& key, const std::string& path) {
+  static const toml::table empty;
+  const toml::table* table = parent.table(key);
+  const std::string label = parent.label().empty() ? key : parent.label() + "." + key;
+  return TableReader(table != nullptr ? *table : empty, path, label, parent.file());
 }
 
 } // namespace settlewell::scenario

@@ -23,14 +23,17 @@ public:
               std::string label,
               const std::string& file);
 
-  double number(const std::string& key) const; ///< required
+  // number(), positive(), text(), boolean() and integer() return the value given,
+  // or the key's literal default from the registry (keys.cc); a missing key
+  // without one is an error at the table. A default that depends on other values
+  // is read with optional_*() and computed by the caller.
+  double number(const std::string& key) const;
+  double positive(const std::string& key) const; ///< number(key), > 0
+  std::string text(const std::string& key) const;
+  bool boolean(const std::string& key) const;
+  long long integer(const std::string& key) const;
   std::optional<double> optional_number(const std::string& key) const;
-  double number_or(const std::string& key, double fallback) const;
-  double positive(const std::string& key) const;  ///< required, > 0
-  std::string text(const std::string& key) const; ///< required
-  std::string text_or(const std::string& key, const std::string& fallback) const;
-  bool boolean_or(const std::string& key, bool fallback) const;
-  std::optional<long long> optional_integer(const std::string& key) const;
+  std::optional<std::string> optional_text(const std::string& key) const;
   const toml::table* table(const std::string& key) const;
   const toml::array* array(const std::string& key) const;
   bool has(const std::string& key) const { return table_.contains(key); }
@@ -50,9 +53,16 @@ public:
 
 private:
   const toml::node& node_of(const std::string& key) const;
+  /// The registry's literal default of an absent key, as written there.
+  std::string default_of(const std::string& key) const;
   const toml::table& table_;
   std::string path_, label_;
   const std::string& file_;
 };
+
+/// A reader of the sub-table `key` of `parent`, or of an empty table when the
+/// scenario leaves it out, so that every key takes its registry default.
+TableReader
+sub_table(const TableReader& parent, const std::string& key, const std::string& path);
 
 } // namespace settlewell::scenario

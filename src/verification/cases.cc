@@ -6,20 +6,36 @@ namespace settlewell::verification {
 
 const std::vector<VerificationCase>& all_cases() {
   static const std::vector<VerificationCase> cases{
-      {"terzaghi-drop-double", "clay column, head lowered at top and base",
+      {"terzaghi-drop-double",
+       "head lowered 3.5 m at the top and base of an 8 m clay column: U(Tv) from "
+       "Tv = 0.005 to 2, isochrones, t50, ultimate settlement",
        run_terzaghi_head_drop_double},
-      {"terzaghi-drop-single", "clay column, head lowered at the top, base sealed",
+      {"terzaghi-drop-single", "the same column with its base sealed",
        run_terzaghi_head_drop_single},
-      {"terzaghi-load", "clay column under a sudden surface load",
+      {"terzaghi-load",
+       "a sudden 45 kPa surface load on the column: undrained p = q0, U(Tv), "
+       "isochrones, t50, ultimate settlement",
        run_terzaghi_surface_load},
-      {"terzaghi-axisymmetric", "the head-drop column run axisymmetric",
+      {"terzaghi-axisymmetric",
+       "the head-drop column run axisymmetric equals the plane-strain one",
        run_terzaghi_axisymmetric},
-      {"mandel", "Mandel's problem, plane strain, rigid plate", run_mandel},
-      {"thiem", "steady drawdown around a well, coupled run", run_thiem},
-      {"theis", "transient drawdown around a well, rigid skeleton", run_theis},
-      {"convergence", "observed orders in mesh size and time step", run_convergence},
+      {"mandel",
+       "Mandel's problem (plane strain, rigid plate): centre pressure over time with "
+       "the Mandel-Cryer rise, plate and side displacement, drained limit",
+       run_mandel},
+      {"thiem", "steady drawdown differences around a pumped well, fully coupled run",
+       run_thiem},
+      {"theis",
+       "transient drawdown at 5, 20 and 100 m after 0.01, 0.1 and 1 day (rigid "
+       "skeleton)",
+       run_theis},
+      {"convergence",
+       "observed orders of the pore pressure in L2 under mesh and time-step "
+       "refinement",
+       run_convergence},
       {"harr",
-       "steady seepage under a cutoff wall: discharge, exit gradient, heave prism",
+       "steady seepage under a cutoff wall at d/T = 0.25 and 0.5: discharge, exit "
+       "gradient, Terzaghi's heave-prism head",
        run_harr},
   };
   return cases;

@@ -85,6 +85,56 @@ void print_table(std::ostream& out, const std::vector<CheckRow>& rows) {
       << "reference unless the quantity names another scale.\n";
 }
 
+namespace {
+
+/// The check of a case whose error is nearest its tolerance.
+const CheckRow& nearest_to_tolerance(const std::vector<const CheckRow*>& rows) {
+  const CheckRow* worst = rows.front();
+  for (const auto* r : rows)
+    if (r->error() / r->tolerance > worst->error() / worst->tolerance)
+      worst = r;
+  return *worst;
+}
+
+std::string sources_of(const std::vector<const CheckRow*>& rows) {
+  std::vector<std::string> sources;
+  for (const auto* r : rows)
+    if (std::find(sources.begin(), sources.end(), r->source) == sources.end())
+      sources.push_back(r->source);
+  std::string text;
+  for (const auto& s : sources)
+    text += (text.empty() ? "" : "; ") + s;
+  return text;
+}
+
+} // namespace
+
+void print_markdown(std::ostream& out,
+                    const std::vector<CaseDescription>& cases,
+                    const std::vector<CheckRow>& rows) {
+  out << "| case | what it checks | checks | passed | nearest its tolerance: error "
+         "(tolerance), quantity | sources |\n"
+      << "| --- | --- | --- | --- | --- | --- |\n";
+  for (const auto& c : cases) {
+    std::vector<const CheckRow*> own;
+    for (const auto& r : rows)
+      if (r.case_name == c.name)
+        own.push_back(&r);
+    if (own.empty())
+      continue;
+    const auto passed = std::count_if(own.begin(), own.end(),
+                                      [](const CheckRow* r) { return r->passed(); });
+    const CheckRow& worst = nearest_to_tolerance(own);
+    out << "| " << c.name << " | " << c.description << " | " << own.size() << " | "
+        << passed << " | " << percent(worst.error()) << " (" << percent(worst.tolerance)
+        << "), " << worst.quantity << " | " << sources_of(own) << " |\n";
+  }
+  out << "\n<details><summary>The full table as <code>settlewell verify</code> prints "
+         "it</summary>\n\n```\n";
+  print_table(out, rows);
+  out << "```\n\n</details>\n";
+}
+
 bool all_passed(const std::vector<CheckRow>& rows) {
   return !rows.empty() && std::all_of(rows.begin(), rows.end(),
                                       [](const CheckRow& r) { return r.passed(); });

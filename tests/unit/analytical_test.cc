@@ -2,9 +2,9 @@
 // verification references (computed there two independent ways). Each block names
 // the published source of the solution.
 #include "settlewell/analytical/consolidation.h"
+#include "settlewell/analytical/cutoff_wall.h"
 #include "settlewell/analytical/mandel.h"
 #include "settlewell/analytical/wells.h"
-#include "settlewell/analytical/cutoff_wall.h"
 
 #include <gtest/gtest.h>
 

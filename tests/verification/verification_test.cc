@@ -6,6 +6,8 @@
 #include <gtest/gtest.h>
 
 #include <iostream>
+#include <string>
+#include <vector>
 
 namespace v = settlewell::verification;
 
@@ -23,16 +25,17 @@ TEST_P(VerificationCase, EveryCheckPasses) {
                               << row.source << ")";
 }
 
+std::vector<std::string> registered_cases() {
+  std::vector<std::string> names;
+  for (const auto& c : v::all_cases())
+    names.push_back(c.name);
+  return names;
+}
+
+// Every case in the registry, so that a new case cannot be left out of CTest.
 INSTANTIATE_TEST_SUITE_P(Published,
                          VerificationCase,
-                         ::testing::Values("terzaghi-drop-double",
-                                           "terzaghi-drop-single",
-                                           "terzaghi-load",
-                                           "terzaghi-axisymmetric",
-                                           "mandel",
-                                           "thiem",
-                                           "theis",
-                                           "convergence"),
+                         ::testing::ValuesIn(registered_cases()),
                          [](const auto& info) {
                            std::string name = info.param;
                            for (auto& ch : name)
@@ -40,7 +43,3 @@ INSTANTIATE_TEST_SUITE_P(Published,
                                ch = '_';
                            return name;
                          });
-
-TEST(VerificationCases, EveryRegisteredCaseIsTested) {
-  EXPECT_EQ(v::all_cases().size(), 9u);
-}

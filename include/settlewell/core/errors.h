@@ -22,4 +22,12 @@ public:
       : std::runtime_error(message) {}
 };
 
+/// A broken promise inside the program (a programming error, not the user's):
+/// the command line reports it as an internal error with exit status 3.
+class InternalError : public std::logic_error {
+public:
+  explicit InternalError(const std::string& message)
+      : std::logic_error(message) {}
+};
+
 } // namespace settlewell

@@ -10,15 +10,27 @@ namespace settlewell::scenario {
 /// keys, unknown keys are errors, and `settlewell check --keys` prints this list.
 /// In paths, `<name>` stands for a name the user chooses and `[]` for an element
 /// of an array of tables.
+/// The default is declared here and nowhere else: the parsers read a literal
+/// default ("0.5", "true", "\"auto\"") from this registry; a default that depends
+/// on other values (the layer's material, a tenth of the stage) is described in
+/// words and computed where the value is used.
 struct KeySpec {
   const char* path;
   const char* type;
   const char* unit;
-  const char* default_value; ///< "required", "-" (optional, no default) or the default
+  std::string default_value; ///< "required", "-" (optional, no default) or the default
   const char* doc;
+
+  bool required() const { return default_value == "required"; }
+  /// Whether the default is a literal value of the key's type (not words).
+  bool has_literal_default() const;
 };
 
 const std::vector<KeySpec>& all_keys();
+
+/// The declaration of a key path ("materials.<name>.earth_pressure_at_rest");
+/// throws InternalError for a path that is not declared.
+const KeySpec& key_spec(const std::string& path);
 
 /// The declared children (keys or sub-tables) of a table path such as
 /// "section.wall" or "stages[].wells.<name>".

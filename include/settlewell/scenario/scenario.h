@@ -1,8 +1,8 @@
 #pragma once
 
-#include "settlewell/materials/poroelastic.h"
 #include "settlewell/core/types.h"
 #include "settlewell/core/units.h"
+#include "settlewell/materials/poroelastic.h"
 
 #include <map>
 #include <optional>
@@ -10,14 +10,15 @@
 #include <vector>
 
 /// A validated scenario in SI units (m, s, kN, kPa). Only src/scenario/ reads
-/// files to fill it; every other module takes these plain structs.
+/// files to fill it; every other module takes these plain structs. Defaults are
+/// declared once, in the key registry (src/scenario/keys.cc), and set by the parser.
 namespace settlewell::scenario {
 
 /// A soil or wall material as the user describes it.
 struct Material {
   std::string name;
   double unit_weight = 0.0; ///< saturated, kN/m^3
-  double k0 = 0.5;          ///< coefficient of earth pressure at rest
+  double k0 = 0.0;          ///< coefficient of earth pressure at rest
   PoroelasticMaterial poroelastic;
 };
 
@@ -37,23 +38,23 @@ struct Wall {
 struct Well {
   std::string name;
   double x = 0.0;          ///< m (plane strain: position of the row of wells)
-  double radius = 0.15;    ///< m (axisymmetric: the model starts at this radius)
+  double radius = 0.0;     ///< m (axisymmetric: the model starts at this radius)
   double screen_top = 0.0; ///< elevation, m
   double screen_bottom = 0.0;
 };
 
 struct MeshSizes {
-  double near_wall = 0.5; ///< cell size at the wall faces, m
-  double near_well = 0.5; ///< cell size at well screens, m
-  double far = 10.0;      ///< largest cell size, m
-  double growth = 1.25;   ///< ratio of neighbouring cell sizes away from a feature
+  double near_wall = 0.0; ///< cell size at the wall faces, m
+  double near_well = 0.0; ///< cell size at well screens, m
+  double far = 0.0;       ///< largest cell size, m
+  double growth = 1.0;    ///< ratio of neighbouring cell sizes away from a feature
 };
 
 /// Geometry (a): a parametric excavation section.
 struct Section {
   double ground_surface = 0.0;   ///< elevation, m
   double bottom = 0.0;           ///< elevation of the model base, m
-  bool half_model = true;        ///< model x >= 0 with a symmetry line at x = 0
+  bool half_model = false;       ///< model x >= 0 with a symmetry line at x = 0
   double excavation_width = 0.0; ///< between the inner wall faces, m (shaft: diameter)
   double excavation_depth = 0.0; ///< below the ground surface, m
   double far_distance = 0.0;     ///< from the outer wall face to the far boundary, m
@@ -66,11 +67,11 @@ struct Section {
 
 /// Geometry (b): a box with horizontal layers (columns, simple cases).
 struct Box {
-  double width = 1.0;        ///< m
+  double width = 0.0;        ///< m
   double bottom = 0.0;       ///< elevation, m
   std::vector<Layer> layers; ///< top to bottom; the first top is the box's top
-  unsigned int cells_x = 1;
-  double cell_height = 0.5; ///< m
+  unsigned int cells_x = 0;
+  double cell_height = 0.0; ///< m
 };
 
 /// Geometry (c): a user's Gmsh file; its physical group names are the region and
@@ -109,7 +110,7 @@ struct SurfaceLoad {
 
 struct TimeSteps {
   double first = 0.0; ///< s; 0: 1/1000 of the stage
-  double growth = 1.25;
+  double growth = 1.0;
   double largest = 0.0; ///< s; 0: 1/10 of the stage
 };
 
@@ -132,7 +133,7 @@ struct MonitoringPoint {
 struct SectionLine {
   std::string name;
   std::vector<std::pair<double, double>> points;
-  unsigned int samples = 101;
+  unsigned int samples = 0;
 };
 
 struct Column {
@@ -142,7 +143,7 @@ struct Column {
 
 struct Output {
   std::vector<double> times;  ///< s, extra to the stage ends
-  unsigned int per_stage = 4; ///< log-spaced output times inside each stage
+  unsigned int per_stage = 0; ///< log-spaced output times inside each stage
   std::vector<MonitoringPoint> points;
   std::vector<SectionLine> lines;
   std::vector<Column> columns;
@@ -154,33 +155,34 @@ struct Neighbour {
   double x_from = 0.0, x_to = 0.0; ///< m
   double foundation_level = 0.0;   ///< elevation, m
   std::optional<double> height;    ///< m, for the deep-beam strains
-  unsigned int samples = 21;
+  unsigned int samples = 0;
 };
 
-/// The thresholds the checks flag against (defaults are common practice).
+/// The thresholds the checks flag against (defaults, in the key registry, are
+/// common practice).
 struct CheckLimits {
-  double piping_factor = 1.5;
-  double heave_factor = 1.5;
-  double uplift_factor = 1.1;
-  double low_permeability = 1e-7; ///< m/s: layers at or below consolidate / confine
-  double settlement = 0.025;      ///< m
-  double angular_distortion = 1.0 / 500.0;
-  double mass_balance = 1e-6; ///< relative
+  double piping_factor = 0.0;
+  double heave_factor = 0.0;
+  double uplift_factor = 0.0;
+  double low_permeability = 0.0; ///< m/s: layers at or below consolidate / confine
+  double settlement = 0.0;       ///< m
+  double angular_distortion = 0.0;
+  double mass_balance = 0.0; ///< relative
 };
 
 /// How the equations are discretised and solved.
 struct Numerics {
   unsigned int refinements = 0; ///< global refinements of the generated or read mesh
   SolverChoice solver = SolverChoice::automatic;
-  double tolerance = 1e-10;     ///< relative residual of the iterative solver
-  std::string petsc_options;    ///< extra PETSc options, for experts
+  double tolerance = 0.0;    ///< relative residual of the iterative solver
+  std::string petsc_options; ///< extra PETSc options, for experts
 };
 
 struct Scenario {
   std::string source_path; ///< the file it was read from
   std::string title;
   AnalysisType analysis = AnalysisType::plane_strain;
-  double gamma_w = units::default_gamma_w;
+  double gamma_w = 0.0; ///< kN/m^3
   std::map<std::string, Material> materials;
   std::optional<Section> section;
   std::optional<Box> box;

@@ -40,6 +40,18 @@ CheckRow scaled_row(std::string case_name,
 
 /// The table printed by `settlewell verify`.
 void print_table(std::ostream& out, const std::vector<CheckRow>& rows);
+
+/// A case's name and what it checks, for the Markdown summary.
+struct CaseDescription {
+  std::string name, description;
+};
+
+/// The Markdown the README's verification section holds (`settlewell verify
+/// --markdown`): one summary row per case (checks, passed, the check nearest its
+/// tolerance, the sources) and the full table in a collapsed block.
+void print_markdown(std::ostream& out,
+                    const std::vector<CaseDescription>& cases,
+                    const std::vector<CheckRow>& rows);
 bool all_passed(const std::vector<CheckRow>& rows);
 
 } // namespace settlewell::verification
