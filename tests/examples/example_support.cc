@@ -59,26 +59,49 @@ ExampleRun run_example(const std::string& example,
   return run;
 }
 
+namespace {
+
+/// The fields of one CSV line (RFC 4180: a quoted field may hold commas, and a
+/// doubled quote stands for one).
+std::vector<std::string> csv_fields(const std::string& line) {
+  std::vector<std::string> fields(1);
+  bool quoted = false;
+  for (std::size_t i = 0; i < line.size(); ++i) {
+    const char c = line[i];
+    if (quoted && c == '"' && i + 1 < line.size() && line[i + 1] == '"')
+      fields.back() += '"', ++i;
+    else if (c == '"')
+      quoted = !quoted;
+    else if (c == ',' && !quoted)
+      fields.emplace_back();
+    else
+      fields.back() += c;
+  }
+  return fields;
+}
+
+} // namespace
+
 Csv::Csv(const fs::path& path) {
   std::ifstream in(path);
   if (!in)
     throw std::runtime_error("cannot read " + path.string());
   std::string line;
   std::getline(in, line);
-  for (std::stringstream ss(line); std::getline(ss, line, ',');)
-    header_.push_back(line);
-  const auto& header = header_;
-  for (const auto& name : header) // a table without rows still has its columns
+  header_ = csv_fields(line);
+  for (const auto& name : header_) // a table without rows still has its columns
     numbers_[name], texts_[name];
   while (std::getline(in, line)) {
-    std::stringstream ss(line);
-    std::string cell;
-    for (const auto& name : header) {
-      std::getline(ss, cell, ',');
-      texts_[name].push_back(cell);
+    const auto cells = csv_fields(line);
+    if (cells.size() != header_.size())
+      throw std::runtime_error(path.string() + ": a row has " +
+                               std::to_string(cells.size()) + " fields, the header " +
+                               std::to_string(header_.size()));
+    for (std::size_t c = 0; c < cells.size(); ++c) {
+      texts_[header_[c]].push_back(cells[c]);
       char* end = nullptr;
-      const double v = std::strtod(cell.c_str(), &end);
-      numbers_[name].push_back(end != cell.c_str() ? v : 0.0);
+      const double v = std::strtod(cells[c].c_str(), &end);
+      numbers_[header_[c]].push_back(end != cells[c].c_str() ? v : 0.0);
     }
     ++n_rows_;
   }

@@ -27,8 +27,9 @@ struct SampleValues {
 };
 
 /// A fixed set of points (monitoring points, samples along a section line) located
-/// once in the mesh and evaluated whenever asked. Each point is evaluated by the one
-/// process that owns the cell holding it; every process gets every value.
+/// once in the mesh and evaluated whenever asked, by deal.II's remote point
+/// evaluation: each point is evaluated on the process that owns the cell holding it
+/// (one cell per point, also on a cell edge) and every process gets every value.
 class SamplePoints {
 public:
   /// Collective. Throws InputError naming `what` and the first point outside the mesh.
@@ -43,11 +44,10 @@ public:
                                      const Derivation& derivation) const;
   const std::vector<dealii::Point<2>>& points() const { return points_; }
 
-  struct Located; ///< where a point is (defined in the source)
-
 private:
+  struct Evaluator; ///< deal.II's RemotePointEvaluation, set up once
   std::vector<dealii::Point<2>> points_;
-  std::vector<std::unique_ptr<Located>> located_; ///< null where another process owns it
+  std::unique_ptr<Evaluator> evaluator_;
 };
 
 } // namespace settlewell
