@@ -4,7 +4,8 @@
     python3 postprocess/plot_run.py RUN_DIR [--times DAYS ...]
 
 Writes RUN_DIR/plots/: drawdown and settlement over the section at chosen times
-(layers, wall, wells and the excavation level drawn in), settlement troughs along
+(region outlines, the wall, wells and the excavation level drawn in from the run's
+mesh files), settlement troughs along
 the ground surface, time histories at the monitoring points, the 1D-against-2D
 curve of each column, pumped discharge, and the base-stability factors.
 
@@ -88,36 +89,59 @@ def read_fields(path):
     return tri, fields
 
 
-def draw_geometry(ax, scenario):
-    """Layers, the wall, wells and the excavation level of a [section] or [box]."""
-    geometry = scenario.get("section") or scenario.get("box")
-    if geometry is None:
-        return
-    xmin, xmax = ax.get_xlim()
-    for layer in geometry.get("layers", [])[1:]:
-        ax.axhline(layer["top"], color="0.35", lw=0.6)
-    section = scenario.get("section")
-    if not section:
-        return
-    half = section["excavation_width"] / 2
-    level = section["ground_surface"] - section["excavation_depth"]
-    wall = section.get("wall")
-    sides = [1.0] if section.get("half_model", True) or scenario.get("analysis") == "axisymmetric" else []
-    if wall and not sides:
-        chosen = wall.get("sides", "both")
-        sides = {"both": [1.0, -1.0], "left": [-1.0], "right": [1.0]}[chosen]
-    for side in sides if wall else []:
-        x0 = half if side > 0 else -half - wall["thickness"]
-        ax.add_patch(plt.Rectangle((x0, wall["toe"]), wall["thickness"], section["ground_surface"] - wall["toe"],
-                                   color="0.2", zorder=3))
-    left = 0.0 if section.get("half_model", True) or scenario.get("analysis") == "axisymmetric" else -half
-    ax.plot([left, half], [level, level], "k--", lw=0.8, zorder=3)
-    for well in section.get("wells", []):
-        ax.plot([well["x"], well["x"]], [well["screen_bottom"], well["screen_top"]], color="tab:blue", lw=2.5,
-                zorder=4)
+def read_grid(path):
+    reader = vtk.vtkXMLUnstructuredGridReader()
+    reader.SetFileName(path)
+    reader.Update()
+    grid = reader.GetOutput()
+    points = vtk_to_numpy(grid.GetPoints().GetData())
+    cells = [[grid.GetCell(c).GetPointId(i) for i in range(grid.GetCell(c).GetNumberOfPoints())]
+             for c in range(grid.GetNumberOfCells())]
+    return points, cells, grid.GetPointData()
 
 
-def section_view(run, scenario, time, file, field, label, cmap, out):
+def mesh_geometry(run):
+    """What the section views draw, from the run's mesh files (mesh/): the outlines
+    between regions, the wall's cells, the well screens and the excavation level."""
+    folder = os.path.join(run, "mesh")
+    with open(os.path.join(folder, "names.toml"), "rb") as f:
+        names = tomllib.load(f)
+    regions = {int(k): v for k, v in names["regions"].items()}
+    lines = {int(k): v for k, v in names["lines"].items()}
+    points, cells, data = read_grid(os.path.join(folder, "mesh_cells.vtu"))
+    region = vtk_to_numpy(data.GetArray("region"))
+    owners, wall = {}, []
+    for ids in cells:
+        name = regions[int(region[ids[0]])]  # constant over the cell
+        if name == "wall":
+            wall.append([tuple(points[i][:2]) for i in ids])
+        for a, b in zip(ids, ids[1:] + ids[:1]):
+            key = tuple(sorted((tuple(points[a][:2].round(6)), tuple(points[b][:2].round(6)))))
+            owners.setdefault(key, set()).add(name)
+    outlines = [edge for edge, names_here in owners.items() if len(names_here) > 1]
+    points, cells, data = read_grid(os.path.join(folder, "mesh_lines.vtu"))
+    line = vtk_to_numpy(data.GetArray("line"))
+    segments = {}
+    for ids in cells:
+        segments.setdefault(lines[int(line[ids[0]])], []).append([points[i][:2] for i in ids])
+    return {"outlines": outlines, "wall": wall, "segments": segments}
+
+
+def draw_geometry(ax, geometry):
+    """Region outlines, the wall, the well screens and the excavation level."""
+    from matplotlib.collections import LineCollection, PolyCollection
+    ax.add_collection(LineCollection(geometry["outlines"], colors="0.35", linewidths=0.6, zorder=2))
+    if geometry["wall"]:
+        ax.add_collection(PolyCollection(geometry["wall"], facecolors="0.2", edgecolors="0.2", zorder=3))
+    for name, segments in geometry["segments"].items():
+        if name.startswith("well_"):
+            ax.add_collection(LineCollection(segments, colors="tab:blue", linewidths=2.5, zorder=4))
+        elif name == "excavation_level":
+            ax.add_collection(LineCollection(segments, colors="k", linewidths=0.8, linestyles="--",
+                                             zorder=3))
+
+
+def section_view(run, geometry, axisymmetric, time, file, field, label, cmap, out):
     tri, fields = read_fields(os.path.join(run, "fields", file))
     values = fields[field]
     fig, ax = plt.subplots(figsize=(10, 4.2))
@@ -127,8 +151,8 @@ def section_view(run, scenario, time, file, field, label, cmap, out):
     fig.colorbar(contour, ax=ax, label=label)
     ax.set_xlim(tri.x.min(), tri.x.max())
     ax.set_ylim(tri.y.min(), tri.y.max())
-    draw_geometry(ax, scenario)
-    ax.set_xlabel("x (m)" if scenario.get("analysis") != "axisymmetric" else "r (m)")
+    draw_geometry(ax, geometry)
+    ax.set_xlabel("r (m)" if axisymmetric else "x (m)")
     ax.set_ylabel("elevation (m)")
     ax.set_title(f"{label} at day {time:g}")
     fig.tight_layout()
@@ -237,14 +261,14 @@ def main():
     parser.add_argument("--times", type=float, nargs="*", help="days for the section views")
     args = parser.parse_args()
     run = args.run
-    with open(os.path.join(run, "scenario.toml"), "rb") as f:
-        scenario = tomllib.load(f)
     with open(os.path.join(run, "results.toml"), "rb") as f:
         results = tomllib.load(f)
     plots = os.path.join(run, "plots")
     os.makedirs(plots, exist_ok=True)
     made = []
     fields = series(run)
+    geometry = mesh_geometry(run)
+    axisymmetric = results.get("analysis") == "axisymmetric"
     wanted = args.times or sorted({s["end_days"] for s in results.get("stages", [])})
     for day in wanted:
         time, file = min(fields, key=lambda s: abs(s[0] - day))
@@ -252,7 +276,7 @@ def main():
         for field, label, cmap in (("drawdown", "drawdown (m)", "viridis_r"),
                                    ("settlement", "settlement (m)", "magma_r")):
             out = os.path.join(plots, f"section_{field}_day{tag}.png")
-            section_view(run, scenario, time, file, field, label, cmap, out)
+            section_view(run, geometry, axisymmetric, time, file, field, label, cmap, out)
             made.append(out)
     unit = "per metre run" if results.get("analysis") == "plane_strain" else "per well"
     for name, make in (("trough.png", lambda o: trough(run, o)),

@@ -1,20 +1,25 @@
 // The command line: parses arguments, starts MPI, runs one command, turns errors
 // into one line and an exit status. All the work is in the library.
+#include "settlewell/commands/check.h"
+#include "settlewell/commands/sweep.h"
 #include "settlewell/core/errors.h"
 #include "settlewell/core/version.h"
+#include "settlewell/mesh/mesh_files.h"
 #include "settlewell/report/report.h"
+#include "settlewell/run/simulation.h"
 #include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
 #include "settlewell/scenario/sweep_file.h"
-#include "settlewell/simulation/simulation.h"
-#include "settlewell/simulation/sweep.h"
 #include "settlewell/verification/cases.h"
 
 #include <CLI/CLI.hpp>
+#include <deal.II/base/conditional_ostream.h>
+#include <deal.II/base/exceptions.h>
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/revision.h>
 #include <petscversion.h>
 
+#include <algorithm>
 #include <chrono>
 #include <cstdlib>
 #include <filesystem>
@@ -28,9 +33,20 @@ constexpr int exit_ok = 0;
 constexpr int exit_checks_failed = 1;
 constexpr int exit_usage = 2;
 constexpr int exit_solver = 3;
+constexpr int exit_internal = 3;
 
 bool is_root() {
   return dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
+}
+
+/// Standard output and error of rank 0 only (the other ranks compute the same).
+dealii::ConditionalOStream& out() {
+  static dealii::ConditionalOStream stream(std::cout, is_root());
+  return stream;
+}
+dealii::ConditionalOStream& err() {
+  static dealii::ConditionalOStream stream(std::cerr, is_root());
+  return stream;
 }
 
 std::string version_text() {
@@ -50,9 +66,8 @@ struct VerifyOptions {
 int run_verify(const VerifyOptions& options) {
   namespace v = settlewell::verification;
   if (options.list) {
-    if (is_root())
-      for (const auto& c : v::all_cases())
-        std::cout << c.name << "  " << c.summary << '\n';
+    for (const auto& c : v::all_cases())
+      out() << c.name << "  " << c.summary << '\n';
     return exit_ok;
   }
   std::vector<const v::VerificationCase*> selected;
@@ -66,23 +81,21 @@ int run_verify(const VerifyOptions& options) {
   std::vector<v::CheckRow> rows;
   for (const auto* c : selected) {
     const auto start = std::chrono::steady_clock::now();
-    if (is_root())
-      std::cerr << "running " << c->name << " (" << c->summary << ") ..." << std::flush;
+    err() << "running " << c->name << " (" << c->summary << ") ..." << std::flush;
     const auto case_rows = c->run(settings, MPI_COMM_WORLD);
     rows.insert(rows.end(), case_rows.begin(), case_rows.end());
-    if (is_root())
-      std::cerr << " "
-                << std::chrono::duration<double>(std::chrono::steady_clock::now() - start)
-                       .count()
-                << " s\n";
+    err()
+        << " "
+        << std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count()
+        << " s\n";
   }
-  if (is_root() && options.markdown) {
+  if (out().is_active() && options.markdown) {
     std::vector<v::CaseDescription> descriptions;
     for (const auto* c : selected)
       descriptions.push_back({c->name, c->summary});
-    v::print_markdown(std::cout, descriptions, rows);
-  } else if (is_root()) {
-    v::print_table(std::cout, rows);
+    v::print_markdown(out().get_stream(), descriptions, rows);
+  } else if (out().is_active()) {
+    v::print_table(out().get_stream(), rows);
     if (!options.vtk_directory.empty())
       std::cout << "Fields of each case: " << options.vtk_directory
                 << "/<case>/<case>.pvd (times in days)\n";
@@ -129,30 +142,30 @@ int run_run(const ScenarioOptions& o) {
   options.show_progress = !o.quiet;
   options.progress_in_place = isatty(STDERR_FILENO) != 0;
   const auto summary = simulation.run(options);
-  if (is_root())
-    settlewell::print_summary(std::cout, summary,
+  if (out().is_active())
+    settlewell::print_summary(out().get_stream(), summary,
                               settlewell::scenario::read_scenario(o.scenario));
-  if (o.report && is_root())
-    settlewell::report::write_report(options.run_directory, std::cout);
+  if (o.report && out().is_active())
+    settlewell::report::write_report(options.run_directory, out().get_stream());
   return exit_ok;
 }
 
 int run_report(const std::string& folder) {
-  if (is_root())
-    settlewell::report::write_report(folder, std::cout);
+  if (out().is_active())
+    settlewell::report::write_report(folder, out().get_stream());
   return exit_ok;
 }
 
 int run_check(const ScenarioOptions& o) {
   if (o.keys) {
-    if (is_root())
-      settlewell::scenario::print_key_reference(std::cout);
+    if (out().is_active())
+      settlewell::scenario::print_key_reference(out().get_stream());
     return exit_ok;
   }
   if (o.scenario.empty())
     throw settlewell::InputError("check needs a scenario file (or --keys)");
   settlewell::check_scenario(settlewell::scenario::read_scenario(o.scenario),
-                             MPI_COMM_WORLD, std::cout);
+                             MPI_COMM_WORLD, out().get_stream());
   return exit_ok;
 }
 
@@ -161,10 +174,10 @@ int run_mesh(const ScenarioOptions& o) {
   const std::string folder =
       o.output.empty() ? default_folder(o.scenario, "-mesh") : o.output;
   settlewell::write_scenario_mesh(scenario, folder, MPI_COMM_WORLD);
-  if (is_root())
-    std::cout << "Wrote " << folder << "/mesh.msh, " << folder
-              << "/mesh_cells.vtu (region "
-              << "ids; names in the field data) and " << folder << "/mesh_lines.vtu\n";
+  out() << "Wrote " << folder << "/mesh.msh, " << folder
+        << "/mesh_cells.vtu (cells with their region id), " << folder
+        << "/mesh_lines.vtu (boundaries and internal lines with their line id) and "
+        << folder << "/names.toml (the names of the ids)\n";
   return exit_ok;
 }
 
@@ -180,8 +193,9 @@ int run_sweep_command(const SweepCommand& c) {
   options.folder = c.output.empty() ? sweep.output : c.output;
   options.group_size = c.group_size;
   options.overwrite = c.overwrite;
-  std::ostringstream log;
-  settlewell::run_sweep(sweep, options, MPI_COMM_WORLD, is_root() ? std::cout : log);
+  std::ostringstream discarded; // the other ranks' log
+  settlewell::run_sweep(sweep, options, MPI_COMM_WORLD,
+                        out().is_active() ? out().get_stream() : discarded);
   return exit_ok;
 }
 
@@ -266,20 +280,16 @@ int dispatch(int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp&) {
-    if (is_root())
-      std::cout << app.help();
+    out() << app.help();
     return exit_ok;
   } catch (const CLI::CallForAllHelp&) {
-    if (is_root())
-      std::cout << app.help("", CLI::AppFormatMode::All);
+    out() << app.help("", CLI::AppFormatMode::All);
     return exit_ok;
   } catch (const CLI::CallForVersion&) {
-    if (is_root())
-      std::cout << version_text() << '\n';
+    out() << version_text() << '\n';
     return exit_ok;
   } catch (const CLI::ParseError& e) {
-    if (is_root())
-      std::cerr << "settlewell: " << e.what() << " (see settlewell --help)\n";
+    err() << "settlewell: " << e.what() << " (see settlewell --help)\n";
     return exit_usage;
   }
   if (verify_cmd->parsed())
@@ -294,10 +304,9 @@ int dispatch(int argc, char** argv) {
     return run_report(report_folder);
   if (sweep_cmd->parsed())
     return run_sweep_command(sweep);
-  if (is_root())
-    std::cerr << "settlewell: a command is required (run, check, mesh, report, sweep, "
-                 "verify); see "
-                 "settlewell --help\n";
+  err() << "settlewell: a command is required (run, check, mesh, report, sweep, "
+           "verify); see "
+           "settlewell --help\n";
   return exit_usage;
 }
 
@@ -317,16 +326,23 @@ int main(int argc, char** argv) {
   try {
     return dispatch(argc, argv);
   } catch (const settlewell::InputError& e) {
-    if (is_root())
-      std::cerr << "settlewell: error: " << e.what() << '\n';
+    err() << "settlewell: error: " << e.what() << '\n';
     return exit_usage;
   } catch (const settlewell::SolverError& e) {
-    if (is_root())
-      std::cerr << "settlewell: solver error: " << e.what() << '\n';
+    err() << "settlewell: solver error: " << e.what() << '\n';
     return exit_solver;
+  } catch (const dealii::ExceptionBase& e) {
+    // A failed assertion (AssertThrow) in the library or in deal.II: its message,
+    // on one line, without deal.II's multi-line frame.
+    std::ostringstream info;
+    e.print_info(info);
+    std::string line = info.str();
+    std::replace(line.begin(), line.end(), '\n', ' ');
+    err() << "settlewell: internal error (please report it): " << e.get_exc_name() << ": "
+          << line << '\n';
+    return exit_internal;
   } catch (const std::exception& e) {
-    if (is_root())
-      std::cerr << "settlewell: internal error: " << e.what() << '\n';
-    return exit_solver;
+    err() << "settlewell: internal error (please report it): " << e.what() << '\n';
+    return exit_internal;
   }
 }

@@ -9,10 +9,10 @@ namespace settlewell {
 PiecewiseLinear::PiecewiseLinear(std::vector<std::pair<double, double>> points)
     : points_(std::move(points)) {
   if (points_.empty())
-    throw InputError("a piecewise-linear history needs at least one point");
+    throw InternalError("a piecewise-linear history needs at least one point");
   for (std::size_t i = 1; i < points_.size(); ++i)
     if (!(points_[i].first > points_[i - 1].first))
-      throw InputError("the times of a piecewise-linear history must increase");
+      throw InternalError("the times of a piecewise-linear history must increase");
 }
 
 double PiecewiseLinear::operator()(double t) const {
@@ -34,7 +34,7 @@ TimeFunction step_at_start(double value) {
 
 TimeFunction linear_ramp(double value, double ramp_time) {
   if (!(ramp_time > 0.0))
-    throw InputError("a ramp time must be positive");
+    throw InternalError("a ramp time must be positive");
   return [value, ramp_time](double t) {
     return value * std::clamp(t / ramp_time, 0.0, 1.0);
   };

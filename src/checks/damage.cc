@@ -10,7 +10,7 @@ namespace settlewell::checks {
 Distortion distortion(const FoundationMovement& m) {
   const std::size_t n = m.x.size();
   if (n < 2 || m.settlement.size() != n || m.ux.size() != n)
-    throw InputError("a foundation needs at least two sample points");
+    throw InternalError("a foundation needs at least two sample points");
   Distortion d;
   d.length = m.x.back() - m.x.front();
   const auto [lo, hi] = std::minmax_element(m.settlement.begin(), m.settlement.end());

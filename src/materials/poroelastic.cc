@@ -8,7 +8,8 @@
 namespace settlewell {
 
 double PoroelasticMaterial::youngs_from_mv(double mv, double nu) {
-  // M_oed = E (1 - nu) / ((1 + nu)(1 - 2 nu)) = 1/mv (section 9 of the references).
+  // M_oed = E (1 - nu) / ((1 + nu)(1 - 2 nu)) = 1/mv (docs/verification-references.md,
+  // section 9).
   return (1.0 + nu) * (1.0 - 2.0 * nu) / ((1.0 - nu) * mv);
 }
 

@@ -1,5 +1,7 @@
 #include "settlewell/mesh/axis_grading.h"
 
+#include "settlewell/core/errors.h"
+
 #include <algorithm>
 #include <cmath>
 
@@ -81,6 +83,31 @@ std::vector<AxisInterval> grade_axis(const std::vector<double>& breakpoints,
   for (std::size_t i = 1; i < breakpoints.size(); ++i)
     grade_stretch(breakpoints[i - 1], breakpoints[i], features, size_far, growth, out);
   return out;
+}
+
+std::vector<double> cell_edges(const AxisInterval& interval) {
+  if (interval.cells == 0 || !(interval.ratio > 0.0))
+    throw InternalError("cell edges need at least one cell and a positive ratio");
+  double total = 0.0, size = 1.0;
+  for (unsigned int i = 0; i < interval.cells; ++i, size *= interval.ratio)
+    total += size;
+  std::vector<double> edges{interval.start};
+  size = (interval.end - interval.start) / total;
+  for (unsigned int i = 0; i < interval.cells; ++i, size *= interval.ratio)
+    edges.push_back(edges.back() + size);
+  edges.back() = interval.end;
+  return edges;
+}
+
+std::vector<double>
+symmetric_cell_edges(double start, double end, unsigned int n_cells, double growth) {
+  const double middle = 0.5 * (start + end);
+  const unsigned int half = std::max(1u, n_cells / 2);
+  std::vector<double> edges = cell_edges({start, middle, half, growth});
+  const std::vector<double> lower_half = edges;
+  for (auto it = lower_half.rbegin() + 1; it != lower_half.rend(); ++it)
+    edges.push_back(start + end - *it);
+  return edges;
 }
 
 std::vector<double> unique_breakpoints(std::vector<double> points, double tolerance) {

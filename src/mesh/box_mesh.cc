@@ -14,12 +14,12 @@ namespace {
 
 std::vector<double> steps_of(const std::vector<double>& edges, const char* axis) {
   if (edges.size() < 2)
-    throw InputError(std::string("a box needs at least one cell along ") + axis);
+    throw InternalError(std::string("a box needs at least one cell along ") + axis);
   std::vector<double> steps;
   for (std::size_t i = 1; i < edges.size(); ++i) {
     const double h = edges[i] - edges[i - 1];
     if (!(h > 0.0))
-      throw InputError(std::string("box cell edges along ") + axis + " must increase");
+      throw InternalError(std::string("box cell edges along ") + axis + " must increase");
     steps.push_back(h);
   }
   return steps;
@@ -55,8 +55,8 @@ Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm) {
   for (auto& cell : serial.active_cell_iterators()) {
     const RegionBand* band = band_of(bands, cell->center()[1]);
     if (band == nullptr)
-      throw InputError("box region bands leave the cells at y = " +
-                       std::to_string(cell->center()[1]) + " m without a region");
+      throw InternalError("box region bands leave the cells at y = " +
+                          std::to_string(cell->center()[1]) + " m without a region");
     cell->set_material_id(mesh.names.region_id(band->region));
   }
   for (const auto& part : spec.parts) {
@@ -70,32 +70,6 @@ Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm) {
   }
   mesh.triangulation->copy_triangulation(serial);
   return mesh;
-}
-
-std::vector<double>
-graded_edges(double start, double end, unsigned int n_cells, double growth) {
-  if (n_cells == 0 || !(growth > 0.0))
-    throw InputError("graded edges need at least one cell and a positive growth factor");
-  double total = 0.0, size = 1.0;
-  for (unsigned int i = 0; i < n_cells; ++i, size *= growth)
-    total += size;
-  std::vector<double> edges{start};
-  size = (end - start) / total;
-  for (unsigned int i = 0; i < n_cells; ++i, size *= growth)
-    edges.push_back(edges.back() + size);
-  edges.back() = end;
-  return edges;
-}
-
-std::vector<double>
-double_graded_edges(double start, double end, unsigned int n_cells, double growth) {
-  const double middle = 0.5 * (start + end);
-  const unsigned int half = std::max(1u, n_cells / 2);
-  std::vector<double> edges = graded_edges(start, middle, half, growth);
-  const std::vector<double> lower_half = edges;
-  for (auto it = lower_half.rbegin() + 1; it != lower_half.rend(); ++it)
-    edges.push_back(start + end - *it);
-  return edges;
 }
 
 } // namespace settlewell

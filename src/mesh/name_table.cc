@@ -8,7 +8,7 @@ namespace {
 template <typename Id>
 Id add_name(std::map<std::string, Id>& table, const std::string& name, const char* what) {
   if (name.empty())
-    throw InputError(std::string("a ") + what + " name must not be empty");
+    throw InternalError(std::string("a ") + what + " name must not be empty");
   const auto found = table.find(name);
   if (found != table.end())
     return found->second;
@@ -42,7 +42,7 @@ name_of(const std::map<std::string, Id>& table, Id id, const char* what) {
   for (const auto& [name, value] : table)
     if (value == id)
       return name;
-  throw InputError(std::string("no ") + what + " has id " + std::to_string(id));
+  throw InternalError(std::string("no ") + what + " has id " + std::to_string(id));
 }
 
 template <typename Id>

@@ -151,4 +151,14 @@ SymmetricTensor<2, 3> InitialState::effective_stress(const Point<2>& x,
   return sigma;
 }
 
+InitialFields InitialState::fields() const {
+  InitialFields f;
+  f.head = [this](const Point<2>& x) { return head(x); };
+  f.head_gradient = [this](const Point<2>& x) { return head_gradient(x); };
+  f.effective_stress = [this](const Point<2>& x, types::material_id r) {
+    return effective_stress(x, r);
+  };
+  return f;
+}
+
 } // namespace settlewell::model

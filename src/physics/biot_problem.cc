@@ -1,37 +1,23 @@
 #include "settlewell/physics/biot_problem.h"
 
+#include "biot_problem_impl.h"
+
 #include "settlewell/core/errors.h"
-#include "settlewell/physics/cell_kernel.h"
-#include "settlewell/physics/constraints.h"
-#include "settlewell/physics/internal_lines.h"
-#include "settlewell/physics/resolved_conditions.h"
-#include "settlewell/solvers/linear_solver.h"
 
 #include <deal.II/base/mpi.h>
-#include <deal.II/base/table.h>
-#include <deal.II/dofs/dof_tools.h>
-#include <deal.II/fe/mapping_q1.h>
-#include <deal.II/lac/affine_constraints.h>
+#include <deal.II/base/timer.h>
 #include <deal.II/lac/dynamic_sparsity_pattern.h>
 #include <deal.II/lac/sparsity_tools.h>
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
-#include <limits>
 #include <map>
-#include <set>
-#include <unordered_map>
 
 namespace settlewell {
 
 using namespace dealii;
 
 namespace {
-
-double seconds_since(std::chrono::steady_clock::time_point start) {
-  return std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-}
 
 std::vector<CellCoefficients> coefficients_by_region(const BiotSetup& setup,
                                                      const NameTable& names) {
@@ -52,13 +38,6 @@ std::vector<CellCoefficients> coefficients_by_region(const BiotSetup& setup,
   return by_id;
 }
 
-/// Throws InputError if the mesh has no line of this name.
-bool line_of_name_check(const Mesh& mesh, const std::string& line) {
-  if (!mesh.has_line(line))
-    throw InputError("no boundary or internal line named '" + line + "' in the mesh");
-  return true;
-}
-
 void check_axisymmetric_domain(const Mesh& mesh) {
   bool negative_radius = false;
   for (const auto& v : mesh.triangulation->get_vertices())
@@ -68,66 +47,6 @@ void check_axisymmetric_domain(const Mesh& mesh) {
 }
 
 } // namespace
-
-struct BiotProblem::Impl {
-  Impl(const Mesh& mesh, BiotSetup setup);
-
-  ConstraintInputs constraint_inputs() const {
-    return {dof_handler,          layout, conditions, plate,
-            setup.rigid_skeleton, owned,  relevant,   pressure_line_dofs};
-  }
-  void setup_dofs();
-  void choose_solver();
-  /// (x, y) of each displacement node, in the order of the owned dofs `u`.
-  std::vector<double> displacement_node_coordinates(const IndexSet& u) const;
-  /// `target` sized to the owned dofs with the couplings `coupling` allows.
-  void reinit_distributed(LA::MPI::SparseMatrix& target,
-                          const Table<2, DoFTools::Coupling>& coupling) const;
-  void find_internal_lines();
-  void add_line_fluxes(CellKernel& kernel,
-                       const DoFHandler<2>::active_cell_iterator& cell,
-                       double t,
-                       double dt,
-                       Vector<double>& cell_rhs) const;
-  void add_old_state_and_fluxes(CellKernel& kernel,
-                                const DoFHandler<2>::active_cell_iterator& cell,
-                                double t,
-                                double dt,
-                                Vector<double>& cell_rhs) const;
-  double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
-  double prescribed_outflow(const FluxBoundary& flux) const;
-  void assemble_matrix(double dt);
-  void assemble_rhs(double t_new, double dt);
-  void add_face_terms(CellKernel& kernel,
-                      const DoFHandler<2>::active_cell_iterator& cell,
-                      double t_new,
-                      double dt,
-                      Vector<double>& cell_rhs) const;
-  bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
-
-  const Mesh& mesh;
-  BiotSetup setup;
-  MPI_Comm comm;
-  FieldLayout layout;
-  MappingQ1<2> mapping;
-  DoFHandler<2> dof_handler;
-  ResolvedConditions conditions;
-  std::vector<CellCoefficients> coefficients;
-  std::optional<PlateLink> plate;
-  IndexSet owned, relevant;
-  AffineConstraints<double> constraints;
-  LA::MPI::SparseMatrix matrix;
-  LA::MPI::SparseMatrix schur; ///< pressure-block preconditioner (iterative solver only)
-  LA::MPI::Vector rhs, owned_solution, solution, old_solution;
-  std::unique_ptr<LinearSolver> solver;
-  std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
-  /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).
-  std::unordered_map<unsigned int, std::vector<std::pair<unsigned int, std::size_t>>>
-      line_flux_faces;
-  double time = 0.0;
-  double matrix_dt = std::numeric_limits<double>::quiet_NaN();
-  std::vector<bool> matrix_pressures; ///< active prescribed pressures of the matrix
-};
 
 BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     : mesh(mesh_)
@@ -351,70 +270,6 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
   rhs.compress(VectorOperation::add);
 }
 
-double
-BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
-  // The consistent flux: at a prescribed-pressure dof, the right-hand side of the
-  // unconstrained storage-equation row minus the row times the solution is dt
-  // times the water that leaves through that dof's share of the line.
-  CellKernel kernel(layout, setup.analysis, mapping);
-  const unsigned int n = kernel.dofs_per_cell();
-  FullMatrix<double> cell_matrix(n, n);
-  Vector<double> cell_rhs(n), local(n), residual(n);
-  std::vector<types::global_dof_index> dofs(n);
-  double total = 0.0;
-  for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
-      continue;
-    cell->get_dof_indices(dofs);
-    if (std::none_of(dofs.begin(), dofs.end(),
-                     [&](auto d) { return line.count(d) != 0; }))
-      continue;
-    kernel.reinit(cell);
-    cell_matrix = 0.0;
-    kernel.add_matrix(coefficients[cell->material_id()], matrix_dt, cell_matrix);
-    cell_rhs = 0.0;
-    add_old_state_and_fluxes(kernel, cell, time, matrix_dt, cell_rhs);
-    cell->get_dof_values(solution, local);
-    cell_matrix.vmult(residual, local);
-    residual -= cell_rhs;
-    for (unsigned int i = 0; i < n; ++i)
-      if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
-          line.count(dofs[i]))
-        total += residual(i);
-  }
-  return -Utilities::MPI::sum(total, comm) / matrix_dt;
-}
-
-double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
-  // The p-rows of a face integral of -q sum to minus the integral of q (the Q1
-  // shape functions sum to one).
-  CellKernel kernel(layout, setup.analysis, mapping);
-  Vector<double> face_rhs(kernel.dofs_per_cell());
-  double total = 0.0;
-  auto add = [&](const DoFHandler<2>::active_cell_iterator& cell, unsigned int f) {
-    kernel.reinit(cell);
-    face_rhs = 0.0;
-    kernel.add_face_outflow(f, 1.0, flux.outflow, time, face_rhs);
-    for (unsigned int i = 0; i < face_rhs.size(); ++i)
-      total += face_rhs(i);
-  };
-  if (flux.line.internal) {
-    for (const auto& cell : dof_handler.active_cell_iterators()) {
-      const auto found = cell->is_locally_owned()
-                             ? line_flux_faces.find(cell->active_cell_index())
-                             : line_flux_faces.end();
-      if (found != line_flux_faces.end())
-        for (const auto& [face, k] : found->second)
-          if (&conditions.fluxes[k] == &flux)
-            add(cell, face);
-    }
-  } else {
-    for (const auto& [cell, f] : faces_on_boundary(dof_handler, flux.line.id))
-      add(cell, f);
-  }
-  return -Utilities::MPI::sum(total, comm);
-}
-
 BiotProblem::BiotProblem(const Mesh& mesh, BiotSetup setup)
     : impl_(std::make_unique<Impl>(mesh, std::move(setup))) {}
 
@@ -424,12 +279,13 @@ StepReport BiotProblem::advance_to(double t_new) {
   Impl& m = *impl_;
   const double dt = t_new - m.time;
   if (!(dt > 0.0))
-    throw InputError("time steps must move forward (from t = " + std::to_string(m.time) +
-                     " s to " + std::to_string(t_new) + " s)");
+    throw InternalError(
+        "time steps must move forward (from t = " + std::to_string(m.time) + " s to " +
+        std::to_string(t_new) + " s)");
   StepReport report;
   report.time = t_new;
   report.dt = dt;
-  const auto start = std::chrono::steady_clock::now();
+  Timer timer; // started: wall time of this process
   m.old_solution = m.solution;
   make_constraints(m.constraint_inputs(), t_new, m.constraints);
   const std::vector<bool> pressures_now = active_pressures(m.conditions, t_new);
@@ -438,123 +294,34 @@ StepReport BiotProblem::advance_to(double t_new) {
   if (report.new_matrix)
     m.assemble_matrix(dt);
   m.assemble_rhs(t_new, dt);
-  report.assembly_seconds = seconds_since(start);
+  report.assembly_seconds = timer.wall_time();
   if (report.new_matrix) {
-    const auto factor_start = std::chrono::steady_clock::now();
+    timer.restart();
     m.solver->set_matrix(m.matrix,
                          m.solver->needs_schur_approximation() ? &m.schur : nullptr);
     m.matrix_dt = dt;
     m.matrix_pressures = pressures_now;
-    report.factorisation_seconds = seconds_since(factor_start);
+    report.factorisation_seconds = timer.wall_time();
   }
 
-  const auto solve_start = std::chrono::steady_clock::now();
+  timer.restart();
   report.iterations = m.solver->solve(m.rhs, m.owned_solution);
   m.constraints.distribute(m.owned_solution);
   m.solution = m.owned_solution;
-  report.solve_seconds = seconds_since(solve_start);
+  report.solve_seconds = timer.wall_time();
   m.time = t_new;
   return report;
-}
-
-namespace {
-
-/// The prescribed pressure dofs of each active condition, a dof going to the first
-/// condition that constrains it (as in make_constraints).
-std::vector<std::set<types::global_dof_index>>
-active_pressure_dofs(const ResolvedConditions& conditions,
-                     const std::vector<LineDofs>& line_dofs,
-                     const DoFHandler<2>& dof_handler,
-                     const FieldLayout& layout,
-                     double t) {
-  std::vector<std::set<types::global_dof_index>> sets(conditions.pressures.size());
-  std::set<types::global_dof_index> claimed;
-  for (std::size_t k = 0; k < conditions.pressures.size(); ++k) {
-    const auto& bc = conditions.pressures[k];
-    if (!bc.window.contains(t))
-      continue;
-    std::vector<types::global_dof_index> dofs;
-    if (bc.line.internal) {
-      for (const auto& [dof, x] : line_dofs[k])
-        dofs.push_back(dof);
-    } else {
-      const IndexSet on = DoFTools::extract_boundary_dofs(
-          dof_handler, layout.mask_of(FieldLayout::pressure), {bc.line.id});
-      dofs.assign(on.begin(), on.end());
-    }
-    for (const auto d : dofs)
-      if (claimed.insert(d).second)
-        sets[k].insert(d);
-  }
-  return sets;
-}
-
-} // namespace
-
-double BiotProblem::outflow(const std::string& line) const {
-  const Impl& m = *impl_;
-  line_of_name_check(m.mesh, line);
-  if (!(m.time > 0.0))
-    return 0.0;
-  const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs,
-                                         m.dof_handler, m.layout, m.time);
-  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k)
-    if (m.conditions.pressures[k].line.name == line &&
-        m.conditions.pressures[k].window.contains(m.time))
-      return m.reaction_outflow(sets[k]);
-  for (const auto& flux : m.conditions.fluxes)
-    if (flux.line.name == line && flux.window.contains(m.time))
-      return m.prescribed_outflow(flux);
-  return 0.0;
-}
-
-double BiotProblem::net_outflow() const {
-  const Impl& m = *impl_;
-  if (!(m.time > 0.0))
-    return 0.0;
-  std::set<types::global_dof_index> all;
-  for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
-                                              m.dof_handler, m.layout, m.time))
-    all.insert(set.begin(), set.end());
-  double total = m.reaction_outflow(all);
-  for (const auto& flux : m.conditions.fluxes)
-    if (flux.window.contains(m.time))
-      total += m.prescribed_outflow(flux);
-  return total;
-}
-
-double BiotProblem::storage_gain() const {
-  // add_old_state puts (alpha eps_v + S p) phi_i into the p rows; the Q1 shape
-  // functions sum to one, so the rows sum to the stored volume.
-  const Impl& m = *impl_;
-  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
-  Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
-  double gain = 0.0;
-  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
-      continue;
-    kernel.reinit(cell);
-    now = 0.0;
-    before = 0.0;
-    const CellCoefficients& c = m.coefficients[cell->material_id()];
-    kernel.add_old_state(c, m.solution, now);
-    kernel.add_old_state(c, m.old_solution, before);
-    for (unsigned int i = 0; i < now.size(); ++i)
-      gain += now(i) - before(i);
-  }
-  return Utilities::MPI::sum(gain, m.comm);
 }
 
 double BiotProblem::time_matrix_vector_product(unsigned int repeats) const {
   const Impl& m = *impl_;
   LA::MPI::Vector x(m.owned_solution), y(m.owned_solution);
   x = 1.0;
-  MPI_Barrier(m.comm);
-  const auto start = std::chrono::steady_clock::now();
+  Timer timer(m.comm, /*sync_lap_times=*/true);
   for (unsigned int i = 0; i < repeats; ++i)
     m.matrix.vmult(y, x);
-  MPI_Barrier(m.comm);
-  return seconds_since(start) / repeats;
+  timer.stop();
+  return timer.last_wall_time() / repeats;
 }
 
 double BiotProblem::time() const {

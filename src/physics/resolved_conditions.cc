@@ -43,7 +43,7 @@ void resolve_hydraulic(const BiotSetup& setup,
   for (const auto& c : setup.conditions.hydraulic) {
     const LineRef line = line_of(c.boundary, mesh);
     if (!c.value)
-      throw InputError("hydraulic condition on '" + c.boundary + "' has no value");
+      throw InternalError("hydraulic condition on '" + c.boundary + "' has no value");
     for (const auto& w : seen[c.boundary])
       if (w.overlaps(c.window))
         throw InputError("'" + c.boundary +
@@ -71,7 +71,7 @@ void resolve_mechanical(const BiotSetup& setup,
       continue;
     }
     if (!c.value)
-      throw InputError("load on boundary '" + c.boundary + "' has no value");
+      throw InternalError("load on boundary '" + c.boundary + "' has no value");
     if (!loaded_names.insert(c.boundary).second)
       throw InputError("boundary '" + c.boundary + "' carries more than one load");
     if (c.kind == MechanicalCondition::Kind::normal_traction) {

@@ -1,6 +1,7 @@
 #include "settlewell/report/report.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/python_scripts.h"
 #include "settlewell/report/document.h"
 
 #include <toml++/toml.h>
@@ -50,37 +51,9 @@ Cell factor_cell(double f, double limit) {
   return {fixed(f, 2), f >= limit ? Flag::ok : Flag::attention};
 }
 
-// ------------------------------------------------------------------ plots
-
-std::string shell_quote(const std::string& s) {
-  std::string q = "'";
-  for (const char c : s)
-    q += c == '\'' ? std::string("'\\''") : std::string(1, c);
-  return q + "'";
-}
-
-std::string plot_python() {
-  std::vector<std::string> candidates;
-  if (const char* env = std::getenv("SETTLEWELL_PYTHON"))
-    candidates.emplace_back(env);
-  candidates.insert(candidates.end(), {"/usr/bin/python3", "python3"});
-  for (const auto& py : candidates)
-    if (std::system(
-            (shell_quote(py) + " -c 'import vtk, matplotlib' >/dev/null 2>&1").c_str()) ==
-        0)
-      return py;
-  return "";
-}
-
-std::string script_path(const std::string& script) {
-  if (const char* env = std::getenv("SETTLEWELL_POSTPROCESS_DIR"))
-    return std::string(env) + "/" + script;
-  return std::string(SETTLEWELL_SOURCE_DIR) + "/postprocess/" + script;
-}
-
 /// Runs the plotting script; returns "" or the reason it could not.
 std::string make_plots(const std::string& run, std::ostream& log) {
-  return run_postprocess("plot_run.py", {run}, run + "/plots.log", log);
+  return settlewell::run_postprocess("plot_run.py", {run}, run + "/plots.log", log);
 }
 
 // --------------------------------------------------------------- sections
@@ -415,27 +388,6 @@ void limits_section(Document& d) {
 }
 
 } // namespace
-
-std::string run_postprocess(const std::string& script,
-                            const std::vector<std::string>& arguments,
-                            const std::string& log_file,
-                            std::ostream& log) {
-  const std::string py = plot_python();
-  if (py.empty())
-    return "no Python with VTK and matplotlib was found (Debian: python3-vtk9, "
-           "python3-matplotlib; or set SETTLEWELL_PYTHON)";
-  const std::string path = script_path(script);
-  if (!fs::exists(path))
-    return "the script " + path + " is missing";
-  log << "running " << script << " with " << py << " ...\n";
-  std::string command = shell_quote(py) + " " + shell_quote(path);
-  for (const auto& a : arguments)
-    command += " " + shell_quote(a);
-  command += " > " + shell_quote(log_file) + " 2>&1";
-  if (std::system(command.c_str()) != 0)
-    return script + " failed; see " + log_file;
-  return "";
-}
 
 void write_report(const std::string& run, std::ostream& log) {
   const std::string results_path = run + "/results.toml";

@@ -45,7 +45,6 @@ public:
     return 1;
   }
 
-
 private:
   KSP ksp_ = nullptr;
 };

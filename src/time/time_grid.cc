@@ -9,7 +9,8 @@ namespace settlewell {
 
 std::vector<double> log_spaced_times(double t_first, double t_end, double per_decade) {
   if (!(t_first > 0.0) || !(t_end >= t_first) || !(per_decade > 0.0))
-    throw InputError("log-spaced times need 0 < t_first <= t_end and a positive density");
+    throw InternalError(
+        "log-spaced times need 0 < t_first <= t_end and a positive density");
   const double decades = std::log10(t_end / t_first);
   const auto n = static_cast<unsigned int>(std::ceil(decades * per_decade - 1e-9));
   std::vector<double> times{t_first};
@@ -24,8 +25,8 @@ std::vector<double> growing_times(
     double t_begin, double t_end, double first_step, double growth, double max_step) {
   if (!(t_end > t_begin) || !(first_step > 0.0) || !(growth >= 1.0) ||
       !(max_step >= first_step))
-    throw InputError("growing time steps need t_end > t_begin, a positive first step, "
-                     "growth >= 1 and a largest step no smaller than the first");
+    throw InternalError("growing time steps need t_end > t_begin, a positive first step, "
+                        "growth >= 1 and a largest step no smaller than the first");
   std::vector<double> times;
   double t = t_begin, dt = first_step;
   while (dt < max_step && t + dt < t_end * (1.0 - 1e-12)) {
@@ -43,7 +44,7 @@ std::vector<double> growing_times(
 
 std::vector<double> uniform_times(double t_begin, double t_end, unsigned int n_steps) {
   if (n_steps == 0 || !(t_end > t_begin))
-    throw InputError("uniform times need at least one step and t_end > t_begin");
+    throw InternalError("uniform times need at least one step and t_end > t_begin");
   std::vector<double> times;
   for (unsigned int i = 1; i <= n_steps; ++i)
     times.push_back(t_begin + (t_end - t_begin) * i / n_steps);

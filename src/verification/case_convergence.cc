@@ -5,9 +5,9 @@
 // error, so what is left is the spatial error of the Q1 pressure: order 2 in L2.
 // Time: a fine mesh (64 cells; its error is far below the time error) against
 // Terzaghi's exact series: implicit Euler is first order.
+#include "settlewell/analytical/consolidation.h"
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/analytical/consolidation.h"
 #include "settlewell/verification/case_support.h"
 #include "settlewell/verification/column_model.h"
 

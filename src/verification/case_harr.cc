@@ -1,20 +1,21 @@
 // Steady seepage under a single cutoff wall in a layer on an impermeable base.
 //
 // Sources: Harr (1962) conformal-mapping discharge q/(kh) = K(l')/(2K(l)) [the
-// attribution is from memory in the verification references; the result was
-// re-derived there]; the finite-depth exit gradient pi h/(4 T l K(l)) [derived in
-// the references]; the mean excess head on Terzaghi's (1943) heave prism, h_a/h,
+// attribution is from memory in docs/verification-references.md, section 5; the
+// result was re-derived there]; the finite-depth exit gradient pi h/(4 T l K(l))
+// [derived there]; the mean excess head on Terzaghi's (1943) heave prism, h_a/h,
 // computed there from the exact conformal solution (0.351239 at d/T = 0.25,
 // 0.341361 at d/T = 0.5).
 //
 // Only the downstream half is modelled: by antisymmetry the line below the toe is
 // the equipotential halfway between the two sides (h2 + h/2), the wall face is
 // no-flow, and the ground surface holds the tailwater head h2.
+#include "settlewell/analytical/cutoff_wall.h"
+#include "settlewell/mesh/axis_grading.h"
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/output/derived.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/output/samples.h"
-#include "settlewell/analytical/cutoff_wall.h"
 #include "settlewell/verification/case_support.h"
 
 #include <cmath>
@@ -38,9 +39,9 @@ Mesh half_section(double depth, MPI_Comm comm) {
   BoxSpec box;
   // Cells shrink toward the wall (x = 0) and toward the toe (y = -d), where the
   // flow turns round the wall's end (an r^(1/2) singularity).
-  box.x_edges = graded_edges(0.0, 4.0 * thickness, 56, 1.09);
-  std::vector<double> below = graded_toward_end(-thickness, -depth, 28, 1.12);
-  const std::vector<double> above = graded_edges(-depth, 0.0, 28, 1.12);
+  box.x_edges = cell_edges({0.0, 4.0 * thickness, 56, 1.09});
+  std::vector<double> below = cell_edges({-thickness, -depth, 28, 1.0 / 1.12});
+  const std::vector<double> above = cell_edges({-depth, 0.0, 28, 1.12});
   below.insert(below.end(), above.begin() + 1, above.end());
   box.y_edges = below;
   box.parts.push_back({"left", "below_toe",
@@ -104,13 +105,14 @@ std::vector<CheckRow> run_harr(const CaseSettings& settings, MPI_Comm comm) {
     // nodal-accuracy heads: 0.5 %.
     rows.push_back(relative_row("harr", "q/(k h)," + at, r.discharge_ratio,
                                 analytical::harr_discharge_ratio(ratio), 0.005, harr));
-    rows.push_back(
-        relative_row("harr", "exit gradient i_E T/h," + at, r.exit_gradient_ratio,
-                     analytical::harr_exit_gradient_ratio(ratio), 0.01,
-                     "finite-depth exit gradient [derived in the references]"));
     rows.push_back(relative_row(
-        "harr", "heave prism h_a/h," + at, r.prism_head_ratio, prism_reference, 0.005,
-        "Terzaghi (1943) prism; h_a from the exact map [references]"));
+        "harr", "exit gradient i_E T/h," + at, r.exit_gradient_ratio,
+        analytical::harr_exit_gradient_ratio(ratio), 0.01,
+        "finite-depth exit gradient [derived in docs/verification-references.md]"));
+    rows.push_back(relative_row("harr", "heave prism h_a/h," + at, r.prism_head_ratio,
+                                prism_reference, 0.005,
+                                "Terzaghi (1943) prism; h_a from the exact map "
+                                "[docs/verification-references.md]"));
   }
   return rows;
 }

@@ -4,10 +4,11 @@
 // Sources: Mandel (1953); the series as in Abousleiman et al. (1996) and Cheng &
 // Detournay (1988); c from Detournay & Cheng (1993). With alpha = 1, S = 0
 // (B = 1, nu_u = 1/2) the consolidation coefficient is k (K + 4G/3) / gamma_w.
+#include "settlewell/analytical/mandel.h"
+#include "settlewell/mesh/axis_grading.h"
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/analytical/mandel.h"
 #include "settlewell/verification/case_support.h"
 
 #include <algorithm>
@@ -39,7 +40,7 @@ constexpr double drained_tolerance = 1e-4;
 
 Mesh mandel_mesh(MPI_Comm comm) {
   BoxSpec box;
-  box.x_edges = graded_toward_end(0.0, half_width, 40, 1.08);
+  box.x_edges = cell_edges({0.0, half_width, 40, 1.0 / 1.08});
   box.y_edges = {0.0, half_height / 2, half_height};
   return make_box_mesh(box, comm);
 }
@@ -113,7 +114,7 @@ std::vector<CheckRow> run_mandel(const CaseSettings& settings, MPI_Comm comm) {
                                 exact.pressure_ratio(0.0, ts), pressure_tolerance,
                                 source));
   // The Mandel-Cryer rise: the peak over all steps against the series' peak
-  // 1.10690 at t* = 0.0716 (verification references, section 2).
+  // 1.10690 at t* = 0.0716 (docs/verification-references.md, section 2).
   rows.push_back(relative_row(name, "peak p(0)/p0 (Mandel-Cryer rise)", peak,
                               exact.pressure_ratio(0.0, 0.0716445), pressure_tolerance,
                               source));

@@ -36,13 +36,6 @@ writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm 
                                        case_name, comm);
 }
 
-std::vector<double>
-graded_toward_end(double start, double end, unsigned int n_cells, double growth) {
-  std::vector<double> edges = graded_edges(end, start, n_cells, growth);
-  std::reverse(edges.begin(), edges.end());
-  return edges;
-}
-
 double crossing_time(const std::vector<double>& t,
                      const std::vector<double>& value,
                      double level) {

@@ -4,9 +4,9 @@
 // ultimate settlement S = mv * delta sigma' * H; Tv50 = 0.197 (common practice;
 // the exact root is 0.19673); the undrained response u0 = q0 for B = 1
 // (alpha = 1, S = 0; Skempton 1954).
+#include "settlewell/analytical/consolidation.h"
 #include "settlewell/core/units.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/analytical/consolidation.h"
 #include "settlewell/verification/case_support.h"
 #include "settlewell/verification/column_model.h"
 

@@ -3,11 +3,12 @@
 // Sources: Thiem (1906) steady drawdown; Theis (1935) transient drawdown with
 // W(u) = E1(u) taken from the C++ standard library (std::expint), not from a
 // series of ours.
+#include "settlewell/analytical/wells.h"
 #include "settlewell/core/units.h"
+#include "settlewell/mesh/axis_grading.h"
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/time/time_grid.h"
-#include "settlewell/analytical/wells.h"
 #include "settlewell/verification/case_support.h"
 
 #include <map>
@@ -54,7 +55,7 @@ Mesh aquifer_mesh(double outer_radius,
                   double growth,
                   MPI_Comm comm) {
   BoxSpec box;
-  box.x_edges = graded_edges(well_radius, outer_radius, n_cells, growth);
+  box.x_edges = cell_edges({well_radius, outer_radius, n_cells, growth});
   box.y_edges = {0.0, thickness};
   return make_box_mesh(box, comm);
 }

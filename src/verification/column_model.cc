@@ -1,5 +1,6 @@
 #include "settlewell/verification/column_model.h"
 
+#include "settlewell/mesh/axis_grading.h"
 #include "settlewell/mesh/box_mesh.h"
 #include "settlewell/output/probes.h"
 #include "settlewell/verification/case_support.h"
@@ -12,9 +13,9 @@ namespace {
 
 std::vector<double> column_edges(const ColumnSpec& spec) {
   if (spec.drained_base)
-    return double_graded_edges(-spec.height, 0.0, spec.n_cells, spec.growth);
+    return symmetric_cell_edges(-spec.height, 0.0, spec.n_cells, spec.growth);
   // Finest at the drained top.
-  return graded_toward_end(-spec.height, 0.0, spec.n_cells, spec.growth);
+  return cell_edges({-spec.height, 0.0, spec.n_cells, 1.0 / spec.growth});
 }
 
 BiotSetup column_setup(const ColumnSpec& spec) {

@@ -2,7 +2,7 @@
 
 // Running the examples (or variants of them) from tests, and reading their run
 // folders back.
-#include "settlewell/simulation/simulation.h"
+#include "settlewell/run/simulation.h"
 
 #include <toml++/toml.h>
 

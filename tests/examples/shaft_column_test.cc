@@ -2,10 +2,10 @@
 // each checked against the closed-form answer it must approach.
 #include "example_support.h"
 
-#include "settlewell/core/units.h"
-#include "settlewell/scenario/parse.h"
 #include "settlewell/analytical/consolidation.h"
 #include "settlewell/analytical/wells.h"
+#include "settlewell/core/units.h"
+#include "settlewell/scenario/parse.h"
 
 #include <gtest/gtest.h>
 
@@ -54,7 +54,7 @@ TEST(ShaftExample, MatchesThiemFarFromTheWall) {
 // The column reproduces the 1D hand solution: the clay, drained at both faces,
 // settles by U(T) mv gamma_w dh H / 2 with U from Olson (1977) for the 60-day ramp
 // (a head lowered under a double-drained layer has the same U as a uniform load,
-// verification references section 1); the lower sand compresses at once by
+// docs/verification-references.md, section 1); the lower sand compresses at once by
 // gamma_w dh(t) H / M.
 TEST(ColumnExample, FollowsTheOneDimensionalSolution) {
   const auto run = run_example("layered-column", "as-is", nullptr);

@@ -1,5 +1,6 @@
 // The analytical solutions against the check values tabulated in the project's
-// verification references (computed there two independent ways). Each block names
+// verification references, docs/verification-references.md (computed there two
+// independent ways). Each block names
 // the published source of the solution.
 #include "settlewell/analytical/consolidation.h"
 #include "settlewell/analytical/cutoff_wall.h"
@@ -106,7 +107,7 @@ TEST(Wells, TheisWellFunctionAndThiem) {
 }
 
 // Harr (1962) single wall in a layer of finite depth: check values of the
-// verification references, section 5 (closed form and independent quadrature).
+// docs/verification-references.md, section 5 (closed form and independent quadrature).
 TEST(Harr, DischargeAndExitGradientMatchTabulatedValues) {
   const std::vector<std::tuple<double, double, double>> table{{0.1, 1.02981, 3.17652},
                                                               {0.25, 0.734609, 1.25634},

@@ -1,5 +1,5 @@
 // The engineering checks' pure functions against hand calculations and the
-// check values of the verification references (sections 6 and 8).
+// check values of docs/verification-references.md (sections 6 and 8).
 #include "settlewell/checks/damage.h"
 #include "settlewell/checks/one_d.h"
 #include "settlewell/checks/stability.h"
@@ -11,8 +11,8 @@
 namespace c = settlewell::checks;
 
 // Synthetic trough s = 40 mm exp(-x^2 / (2 * 10^2)) with A, B, C at 5, 15, 25 m:
-// check values "computed here" in the references, section 8 (Burland & Wroth 1974
-// definitions).
+// check values "computed here" in docs/verification-references.md, section 8 (Burland &
+// Wroth 1974 definitions).
 TEST(Damage, GaussianTroughMeasuresMatchTheReferenceValues) {
   c::FoundationMovement m;
   for (const double x : {5.0, 15.0, 25.0}) {
@@ -55,7 +55,8 @@ TEST(Damage, CategoriesChangeExactlyAtTheLimitingStrains) {
 }
 
 // With no horizontal strain the principal strain is beta/2, so the category
-// boundaries in angular distortion are 1.0, 1.5, 3.0, 6.0 x 1e-3 (references §8).
+// boundaries in angular distortion are 1.0, 1.5, 3.0, 6.0 x 1e-3
+// (docs/verification-references.md, section 8).
 TEST(Damage, PrincipalStrainWithoutHorizontalStrainIsHalfTheDistortion) {
   const double boundaries[] = {1.0e-3, 1.5e-3, 3.0e-3, 6.0e-3};
   for (int k = 0; k < 4; ++k) {

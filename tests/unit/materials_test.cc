@@ -1,5 +1,6 @@
-// Parameter conversions against the check values of the verification
-// references, section 9 (Terzaghi 1925 for cv; the oedometer modulus relation).
+// Parameter conversions against the check values of
+// docs/verification-references.md, section 9 (Terzaghi 1925 for cv; the oedometer modulus
+// relation).
 #include "settlewell/core/errors.h"
 #include "settlewell/materials/poroelastic.h"
 

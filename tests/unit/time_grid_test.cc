@@ -24,9 +24,9 @@ TEST(TimeGrid, MergeKeepsMustHitTimesAndDropsSlivers) {
   EXPECT_EQ(merged, expected);
 }
 
-TEST(TimeGrid, BadArgumentsAreInputErrors) {
-  EXPECT_THROW(log_spaced_times(0.0, 1.0, 10.0), InputError);
-  EXPECT_THROW(uniform_times(1.0, 1.0, 3), InputError);
+TEST(TimeGrid, BadArgumentsAreInternalErrors) {
+  EXPECT_THROW(log_spaced_times(0.0, 1.0, 10.0), InternalError);
+  EXPECT_THROW(uniform_times(1.0, 1.0, 3), InternalError);
 }
 
 TEST(TimeFunction, PiecewiseLinearInterpolatesAndHoldsEnds) {
@@ -35,7 +35,7 @@ TEST(TimeFunction, PiecewiseLinearInterpolatesAndHoldsEnds) {
   EXPECT_DOUBLE_EQ(f(5.0), -2.5);
   EXPECT_DOUBLE_EQ(f(15.0), -5.0);
   EXPECT_DOUBLE_EQ(f(99.0), -5.0);
-  EXPECT_THROW(PiecewiseLinear({{1.0, 0.0}, {1.0, 2.0}}), InputError);
+  EXPECT_THROW(PiecewiseLinear({{1.0, 0.0}, {1.0, 2.0}}), InternalError);
   const auto ramp = linear_ramp(4.0, 2.0);
   EXPECT_DOUBLE_EQ(ramp(1.0), 2.0);
   EXPECT_DOUBLE_EQ(ramp(3.0), 4.0);

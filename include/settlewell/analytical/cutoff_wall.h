@@ -13,7 +13,7 @@ namespace settlewell::analytical {
 /// the C++ standard library (std::comp_ellint_1).
 double harr_discharge_ratio(double d_over_T);
 /// Exit gradient at the downstream face of the wall, i_E T / h = pi/(4 l K(l))
-/// [derived in the verification references from the same map; it tends to
+/// [derived in docs/verification-references.md from the same map; it tends to
 /// Harr's h/(pi d) as d/T -> 0].
 double harr_exit_gradient_ratio(double d_over_T);
 

@@ -46,7 +46,7 @@ double principal_tensile_strain(double horizontal_strain, double angular_distort
 
 /// Burland (1995) deep-beam strains from the deflection ratio, for a building of
 /// length L and height H (E/G = 2.6, nu = 0.3; neutral axis at mid-height when
-/// sagging, at the base when hogging) [from memory in the references].
+/// sagging, at the base when hogging) [from memory in docs/verification-references.md].
 struct BeamStrains {
   double bending = 0.0;  ///< eps_bmax + eh
   double diagonal = 0.0; ///< eh (1 - nu)/2 + sqrt(eh^2 ((1 + nu)/2)^2 + eps_dmax^2)

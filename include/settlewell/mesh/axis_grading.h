@@ -19,6 +19,16 @@ struct AxisInterval {
   double ratio = 1.0;
 };
 
+/// The cell edges of an interval: `cells` cells whose sizes grow by `ratio` from
+/// `start` to `end` (ratio < 1: finest at the end). Throws InternalError for no
+/// cells or a ratio that is not positive.
+std::vector<double> cell_edges(const AxisInterval& interval);
+
+/// Edges from `start` to `end` that are finest at both ends and symmetric about the
+/// middle: half the cells (at least one) growing by `growth` towards the middle.
+std::vector<double>
+symmetric_cell_edges(double start, double end, unsigned int n_cells, double growth);
+
 /// Cuts an axis at every breakpoint and grades it: the cell size is
 /// min(size_far, h_f + (growth - 1) |x - x_f|) over the features f, so cells grow
 /// by `growth` per cell away from each feature and never exceed size_far. Extra

@@ -32,17 +32,8 @@ struct BoxSpec {
   std::vector<BoxSidePart> parts;
 };
 
-/// Builds the box on `comm`. Throws InputError for edges that do not increase or
+/// Builds the box on `comm`. Throws InternalError for edges that do not increase or
 /// bands that do not cover every cell.
 Mesh make_box_mesh(const BoxSpec& spec, MPI_Comm comm);
-
-/// n cell edges+1 from `start` to `end`; each cell is `growth` times the size of
-/// the previous one (growth 1: uniform). Cells are smallest at `start`.
-std::vector<double>
-graded_edges(double start, double end, unsigned int n_cells, double growth);
-
-/// Edges from `start` to `end`, finest at both ends, symmetric about the middle.
-std::vector<double>
-double_graded_edges(double start, double end, unsigned int n_cells, double growth);
 
 } // namespace settlewell

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "settlewell/mesh/mesh.h"
+#include "settlewell/output/derived.h"
 #include "settlewell/scenario/scenario.h"
 
 #include <deal.II/base/symmetric_tensor.h>
@@ -26,6 +27,8 @@ public:
   /// out of plane (hoop in axisymmetric) and no shear, kPa.
   dealii::SymmetricTensor<2, 3> effective_stress(const dealii::Point<2>& x,
                                                  dealii::types::material_id region) const;
+  /// This state in the form the output module takes (it refers to this object).
+  InitialFields fields() const;
 
 private:
   double gamma_w_;

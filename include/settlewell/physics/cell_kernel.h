@@ -45,7 +45,8 @@ public:
   /// The fixed-stress approximation of the Schur complement in the p-p entries:
   /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
   /// drained plane bulk modulus lambda + mu.
-  void add_schur_approximation(const CellCoefficients& c, double dt,
+  void add_schur_approximation(const CellCoefficients& c,
+                               double dt,
                                dealii::FullMatrix<double>& out);
   /// Old-state part of the storage equation: (alpha div u_n + S p_n) in the p rows.
   void add_old_state(const CellCoefficients& c,

@@ -23,10 +23,6 @@ void march(BiotProblem& problem,
 std::unique_ptr<FieldWriter>
 writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm comm);
 
-/// Cell edges that are finest at `end` (graded_edges is finest at its start).
-std::vector<double>
-graded_toward_end(double start, double end, unsigned int n_cells, double growth);
-
 /// The time at which a rising history first reaches `level`, interpolated linearly
 /// in log t between the bracketing samples; NaN if it never does.
 double crossing_time(const std::vector<double>& t,

@@ -1,10 +1,11 @@
-#include "settlewell/simulation/sweep.h"
+#include "settlewell/commands/sweep.h"
 
 #include "settlewell/core/errors.h"
-#include "settlewell/report/report.h"
+#include "settlewell/core/python_scripts.h"
+#include "settlewell/output/csv_file.h"
+#include "settlewell/output/run_folder.h"
+#include "settlewell/run/simulation.h"
 #include "settlewell/scenario/parse.h"
-#include "settlewell/simulation/run_files.h"
-#include "settlewell/simulation/simulation.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -89,10 +90,10 @@ void write_summary(const scenario::SweepSpec& sweep,
   if (sweep.chart_x.empty())
     return;
   const std::string problem =
-      report::run_postprocess("plot_sweep.py",
-                              {folder + "/sweep_summary.csv", sweep.chart_x,
-                               sweep.chart_y, folder + "/sweep_chart.png"},
-                              folder + "/sweep_chart.log", log);
+      run_postprocess("plot_sweep.py",
+                      {folder + "/sweep_summary.csv", sweep.chart_x, sweep.chart_y,
+                       folder + "/sweep_chart.png"},
+                      folder + "/sweep_chart.log", log);
   log << (problem.empty() ? "wrote " + folder + "/sweep_chart.png"
                           : "no chart: " + problem)
       << '\n';

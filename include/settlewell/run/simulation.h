@@ -4,11 +4,11 @@
 
 #include <mpi.h>
 
-#include <iosfwd>
 #include <map>
 #include <memory>
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace settlewell {
 
@@ -19,7 +19,7 @@ struct RunOptions {
   bool progress_in_place = false; ///< true on a terminal
 };
 
-/// The headline numbers of a run (maxima over all steps).
+/// The headline numbers of a run (maxima over all steps), read from its results.
 struct RunSummary {
   std::size_t cells = 0, dofs = 0, steps = 0;
   double wall_seconds = 0.0;
@@ -40,14 +40,15 @@ struct RunSummary {
 };
 
 /// A scenario turned into a model: mesh, initial state, stage schedule, Biot core
-/// and outputs. Everything that can fail on input fails in the constructor,
-/// before anything is written.
+/// and the monitors that write what the run shows. Everything that can fail on
+/// input fails in the constructor, before anything is written.
 class Simulation {
 public:
   Simulation(scenario::Scenario scenario, MPI_Comm comm);
   ~Simulation();
 
-  /// Runs every stage, writing the run folder. Collective.
+  /// Runs every stage, writing the run folder (fields, histories, profiles, checks,
+  /// steps.csv, results.toml, manifest.json). Collective.
   RunSummary run(const RunOptions& options);
 
 private:
@@ -59,15 +60,5 @@ private:
 void print_summary(std::ostream& out,
                    const RunSummary& summary,
                    const scenario::Scenario& scenario);
-
-/// Checks a scenario against its mesh without creating the Biot problem and
-/// prints what `settlewell check` shows. Collective.
-void check_scenario(const scenario::Scenario& scenario, MPI_Comm comm, std::ostream& out);
-
-/// Writes the mesh of a scenario (.msh) and a VTU of its cells (region ids, with
-/// the names as field data) and of its lines. Collective.
-void write_scenario_mesh(const scenario::Scenario& scenario,
-                         const std::string& directory,
-                         MPI_Comm comm);
 
 } // namespace settlewell

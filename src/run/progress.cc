@@ -1,4 +1,4 @@
-#include "settlewell/simulation/progress.h"
+#include "settlewell/run/progress.h"
 
 #include <iomanip>
 #include <ostream>
@@ -13,8 +13,7 @@ Progress::Progress(std::ostream& out,
     : out_(out)
     , in_place_(in_place)
     , enabled_(enabled)
-    , total_(total_steps)
-    , start_(std::chrono::steady_clock::now()) {}
+    , total_(total_steps) {}
 
 namespace {
 std::string duration_text(double seconds) {
@@ -38,8 +37,7 @@ void Progress::step(const std::string& stage,
   ++done_;
   if (!enabled_)
     return;
-  const double elapsed =
-      std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
+  const double elapsed = timer_.wall_time();
   const double left = done_ > 0 ? elapsed / done_ * (total_ - done_) : 0.0;
   std::ostringstream line;
   line << "stage " << stage_number << "/" << n_stages << " " << stage << " | t "

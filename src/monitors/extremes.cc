@@ -1,4 +1,4 @@
-#include "run_extremes.h"
+#include "extremes.h"
 
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/physics/field_layout.h"
@@ -9,7 +9,7 @@
 #include <cmath>
 #include <map>
 
-namespace settlewell {
+namespace settlewell::monitors {
 
 using namespace dealii;
 
@@ -32,7 +32,9 @@ std::vector<types::global_dof_index> owned_boundary_dofs(const BiotProblem& prob
 
 } // namespace
 
-RunExtremes::RunExtremes(const BiotProblem& problem, const scenario::Scenario& s) {
+Extremes::Extremes(const RunContext& run) {
+  const BiotProblem& problem = run.problem;
+  const scenario::Scenario& s = run.scenario;
   const auto& dh = problem.dof_handler();
   std::map<types::global_dof_index, Point<2>> support;
   DoFTools::map_dofs_to_support_points(problem.mapping(), dh, support);
@@ -72,15 +74,15 @@ RunExtremes::RunExtremes(const BiotProblem& problem, const scenario::Scenario& s
       outside_surface_uy_.push_back(d);
 }
 
-double
-RunExtremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) const {
+double Extremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) {
   double value = 0.0;
   for (const auto d : dofs)
     value = std::max(value, factor * problem.solution()[d]);
   return Utilities::MPI::max(value, problem.communicator());
 }
 
-void RunExtremes::update(const BiotProblem& problem) {
+std::vector<double> Extremes::after_step(const RunView& view) {
+  const BiotProblem& problem = view.run.problem;
   const double to_drawdown = -1.0 / problem.setup().gamma_w;
   pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
   outside_ = std::max(outside_, largest(problem, outside_surface_uy_, -1.0));
@@ -88,16 +90,18 @@ void RunExtremes::update(const BiotProblem& problem) {
   drawdown_outside_ =
       std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
   drawdown_ = std::max(drawdown_, largest(problem, all_p_, to_drawdown));
+  return {};
 }
 
-void RunExtremes::fill(RunSummary& summary) const {
+void Extremes::finish(const RunView&, toml::table& results) {
+  toml::table summary{{"settlement_anywhere_m", anywhere_},
+                      {"drawdown_anywhere_m", drawdown_}};
   if (has_wall_zone_) {
-    summary.settlement_inside = pit_;
-    summary.settlement_outside = outside_;
-    summary.drawdown_outside = drawdown_outside_;
+    summary.insert("settlement_inside_m", pit_);
+    summary.insert("settlement_outside_m", outside_);
+    summary.insert("drawdown_outside_m", drawdown_outside_);
   }
-  summary.settlement_anywhere = anywhere_;
-  summary.drawdown_anywhere = drawdown_;
+  results.insert("summary", summary);
 }
 
-} // namespace settlewell
+} // namespace settlewell::monitors

@@ -1,6 +1,7 @@
 #pragma once
 
-#include <chrono>
+#include <deal.II/base/timer.h>
+
 #include <iosfwd>
 #include <string>
 
@@ -24,7 +25,7 @@ private:
   std::ostream& out_;
   bool in_place_, enabled_;
   std::size_t total_, done_ = 0;
-  std::chrono::steady_clock::time_point start_;
+  dealii::Timer timer_; ///< started with the first line
 };
 
 } // namespace settlewell

@@ -1,0 +1,26 @@
+#pragma once
+
+#include <mpi.h>
+
+#include <fstream>
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace settlewell {
+
+/// A CSV file (RFC 4180) written by rank 0, one row at a time and flushed, so that
+/// a long run can be watched and an interrupted one keeps what was done. Text
+/// fields are quoted when they hold a comma, a quote or a line break.
+class CsvFile {
+public:
+  CsvFile(const std::string& path, const std::vector<std::string>& header, MPI_Comm comm);
+  /// The `labels` (text) first, then the numbers (9 significant digits).
+  void row(const std::vector<double>& values,
+           const std::vector<std::string>& labels = {});
+
+private:
+  std::unique_ptr<std::ofstream> out_;
+};
+
+} // namespace settlewell

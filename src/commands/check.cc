@@ -1,0 +1,115 @@
+#include "settlewell/commands/check.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
+#include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/model/initial_state.h"
+#include "settlewell/model/model_builder.h"
+#include "settlewell/model/schedule.h"
+#include "settlewell/physics/resolved_conditions.h"
+#include "settlewell/scenario/describe.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/mpi_remote_point_evaluation.h>
+#include <deal.II/fe/mapping_q1.h>
+
+#include <iomanip>
+#include <ostream>
+#include <sstream>
+
+namespace settlewell {
+
+using namespace dealii;
+using scenario::role_text;
+
+namespace {
+
+std::string days_text(double seconds) {
+  std::ostringstream os;
+  os << std::setprecision(6) << units::to_days(seconds);
+  return os.str();
+}
+
+void describe_stages(const scenario::Scenario& s,
+                     const model::Schedule& schedule,
+                     std::ostream& out) {
+  out << "Stages:\n";
+  for (std::size_t k = 0; k < s.stages.size(); ++k) {
+    const auto& st = s.stages[k];
+    const auto& times = schedule.stages()[k];
+    out << "  " << k + 1 << ". " << st.name << ": day " << days_text(times.start)
+        << " to " << days_text(times.end) << ", ramp " << days_text(st.ramp) << " days";
+    out << "; " << scenario::stage_changes(st);
+    out << '\n';
+  }
+}
+
+void describe_scenario(const scenario::Scenario& s,
+                       const Mesh& mesh,
+                       const model::Schedule& schedule,
+                       std::ostream& out) {
+  out << "Scenario: " << (s.title.empty() ? std::string("(untitled)") : s.title) << " ("
+      << s.source_path << ")\n";
+  out << "Analysis: "
+      << (s.analysis == AnalysisType::axisymmetric ? "axisymmetric (r = x, z = y)"
+                                                   : "plane strain (per metre run)")
+      << ", unit weight of water " << s.gamma_w << " kN/m3\n";
+  out << "Regions (material):\n";
+  for (const auto& [region, material] : model::region_materials(s, mesh)) {
+    const auto& m = s.materials.at(material);
+    out << "  " << region << " (" << material << "): E' " << m.poroelastic.youngs_modulus
+        << " kPa, nu' " << m.poroelastic.poisson_ratio << ", kx "
+        << m.poroelastic.conductivity_x << " m/s, ky " << m.poroelastic.conductivity_y
+        << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n';
+  }
+  out << "Boundaries:\n";
+  for (const auto& [name, role] : model::boundary_roles(s, mesh))
+    out << "  " << name << ": " << role_text(role) << '\n';
+  if (!mesh.internal_lines.empty()) {
+    out << "Internal lines:";
+    for (const auto& [name, segments] : mesh.internal_lines)
+      out << ' ' << name;
+    out << '\n';
+  }
+  describe_stages(s, schedule, out);
+  const MeshSummary size = summarise(mesh);
+  out << "Mesh: " << size.n_cells << " quadrilateral cells, " << size.n_vertices
+      << " vertices; about " << size.estimated_dofs()
+      << " unknowns (Q2 displacement, Q1 pressure)\n";
+  out << "Time: " << schedule.step_times().size() << " steps, "
+      << schedule.output_times().size() << " output times, ending at day "
+      << days_text(s.end_time()) << '\n';
+}
+
+/// Every monitoring point must lie in the mesh (deal.II's remote point evaluation
+/// finds it on whichever process owns it).
+void check_output_points(const scenario::Scenario& s, const Mesh& mesh) {
+  std::vector<Point<2>> points;
+  for (const auto& p : s.output.points)
+    points.emplace_back(p.x, p.y);
+  Utilities::MPI::RemotePointEvaluation<2> locate;
+  locate.reinit(points, *mesh.triangulation, MappingQ1<2>());
+  for (std::size_t i = 0; i < points.size(); ++i)
+    if (!locate.point_found(i))
+      throw InputError(s.location_of("output") + ": output.points '" +
+                       s.output.points[i].name + "' lies outside the mesh");
+}
+
+} // namespace
+
+void check_scenario(const scenario::Scenario& s, MPI_Comm comm, std::ostream& out) {
+  const Mesh mesh = make_scenario_mesh(s, comm);
+  const model::InitialState initial(s, mesh);
+  const model::Schedule schedule(s);
+  const model::Model m = model::build_model(s, mesh, initial, schedule);
+  (void)resolve_conditions(m.setup, mesh); // names and conflicts
+  for (const auto& [region, material] : m.setup.materials)
+    material.validate("material of region '" + region + "'");
+  check_output_points(s, mesh);
+  if (Utilities::MPI::this_mpi_process(comm) == 0) {
+    describe_scenario(s, mesh, schedule, out);
+    out << "The scenario is valid.\n";
+  }
+}
+
+} // namespace settlewell

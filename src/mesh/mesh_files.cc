@@ -1,0 +1,110 @@
+// The mesh of a scenario as files for inspection and for the plotting scripts,
+// written with deal.II's DataOut (cells) and DataOutBase (line segments).
+#include "settlewell/mesh/mesh_files.h"
+
+#include "settlewell/core/errors.h"
+#include "settlewell/mesh/gmsh_mesh.h"
+
+#include <deal.II/base/data_out_base.h>
+#include <deal.II/base/mpi.h>
+#include <deal.II/numerics/data_out.h>
+
+#include <toml++/toml.h>
+
+#include <filesystem>
+#include <fstream>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+std::ofstream open_for_writing(const std::string& path) {
+  std::ofstream out(path);
+  if (!out)
+    throw InputError(path + ": cannot write");
+  return out;
+}
+
+/// Cells with their region id as cell data.
+void write_cells(const Mesh& mesh, const std::string& path) {
+  DataOut<2> data_out;
+  data_out.attach_triangulation(*mesh.triangulation);
+  Vector<float> region(mesh.triangulation->n_active_cells());
+  for (const auto& cell : mesh.triangulation->active_cell_iterators())
+    region[cell->active_cell_index()] = cell->material_id();
+  data_out.add_data_vector(region, "region", DataOut<2>::type_cell_data);
+  data_out.build_patches();
+  auto out = open_for_writing(path);
+  data_out.write_vtu(out);
+}
+
+/// Every boundary face and internal-line segment as a two-point patch carrying the
+/// id of its line (the boundaries first, in name order, then the internal lines).
+std::vector<std::string> write_lines(const Mesh& mesh, const std::string& path) {
+  std::vector<DataOutBase::Patch<1, 2>> patches;
+  std::vector<std::string> names;
+  auto add_segment = [&](const Point<2>& a, const Point<2>& b) {
+    DataOutBase::Patch<1, 2> patch;
+    patch.vertices[0] = a;
+    patch.vertices[1] = b;
+    patch.patch_index = patches.size();
+    patch.reference_cell = ReferenceCells::Line;
+    patch.data.reinit(1, 2);
+    patch.data(0, 0) = patch.data(0, 1) = float(names.size() - 1);
+    patches.push_back(patch);
+  };
+  for (const auto& name : mesh.names.boundary_names()) {
+    names.push_back(name);
+    const auto id = mesh.names.boundary_id(name);
+    for (const auto& cell : mesh.triangulation->active_cell_iterators())
+      for (const unsigned int f : cell->face_indices())
+        if (cell->at_boundary(f) && cell->face(f)->boundary_id() == id)
+          add_segment(cell->face(f)->vertex(0), cell->face(f)->vertex(1));
+  }
+  for (const auto& [name, segments] : mesh.internal_lines) {
+    names.push_back(name);
+    for (const auto& s : segments)
+      add_segment(s.a, s.b);
+  }
+  auto out = open_for_writing(path);
+  DataOutBase::write_vtu(patches, {"line"}, {}, DataOutBase::VtkFlags(), out);
+  return names;
+}
+
+void write_names(const Mesh& mesh,
+                 const std::vector<std::string>& lines,
+                 const std::string& path) {
+  toml::table regions, line_names;
+  for (const auto& name : mesh.names.region_names())
+    regions.insert(std::to_string(mesh.names.region_id(name)), name);
+  for (std::size_t id = 0; id < lines.size(); ++id)
+    line_names.insert(std::to_string(id), lines[id]);
+  auto out = open_for_writing(path);
+  out << "# The names of the region ids of mesh_cells.vtu and the line ids of\n"
+         "# mesh_lines.vtu.\n"
+      << toml::table{{"regions", regions}, {"lines", line_names}} << '\n';
+}
+
+} // namespace
+
+void write_scenario_mesh(const scenario::Scenario& s,
+                         const std::string& directory,
+                         MPI_Comm comm) {
+  // A serial copy of the coarse mesh is enough for inspection; rank 0 writes it.
+  if (Utilities::MPI::this_mpi_process(comm) != 0)
+    return;
+  std::filesystem::create_directories(directory);
+  const std::string msh = directory + "/mesh.msh";
+  const Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF)
+                                : coarse_scenario_mesh(s, MPI_COMM_SELF, msh);
+  if (s.mesh_file)
+    std::filesystem::copy_file(s.mesh_file->path, msh,
+                               std::filesystem::copy_options::overwrite_existing);
+  write_cells(mesh, directory + "/mesh_cells.vtu");
+  write_names(mesh, write_lines(mesh, directory + "/mesh_lines.vtu"),
+              directory + "/names.toml");
+}
+
+} // namespace settlewell

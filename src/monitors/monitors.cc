@@ -1,0 +1,27 @@
+#include "base_stability.h"
+#include "columns.h"
+#include "extremes.h"
+#include "field_series.h"
+#include "layer_stack.h"
+#include "neighbours.h"
+#include "sampled_tables.h"
+#include "water_account.h"
+
+namespace settlewell::monitors {
+
+std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
+  std::vector<std::unique_ptr<Monitor>> list;
+  list.push_back(std::make_unique<FieldSeries>(run));
+  list.push_back(std::make_unique<PointHistory>(run));
+  list.push_back(std::make_unique<LineProfiles>(run));
+  list.push_back(std::make_unique<WaterAccount>(run));
+  list.push_back(std::make_unique<Extremes>(run));
+  if (run.scenario.section)
+    list.push_back(std::make_unique<BaseStability>(run));
+  list.push_back(std::make_unique<Neighbours>(run));
+  if (layers_of(run.scenario) != nullptr) // a user's mesh has no layer stack
+    list.push_back(std::make_unique<Columns>(run));
+  return list;
+}
+
+} // namespace settlewell::monitors

@@ -1,0 +1,51 @@
+#include "settlewell/output/csv_file.h"
+
+#include "settlewell/core/errors.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <iomanip>
+
+namespace settlewell {
+
+namespace {
+
+/// A field as RFC 4180 writes it: quoted (quotes doubled) when it holds a comma,
+/// a quote or a line break, as a user's stage or point name may.
+std::string csv_field(const std::string& text) {
+  if (text.find_first_of(",\"\r\n") == std::string::npos)
+    return text;
+  std::string quoted = "\"";
+  for (const char c : text)
+    quoted += c == '"' ? std::string("\"\"") : std::string(1, c);
+  return quoted + "\"";
+}
+
+} // namespace
+
+CsvFile::CsvFile(const std::string& path,
+                 const std::vector<std::string>& header,
+                 MPI_Comm comm) {
+  if (dealii::Utilities::MPI::this_mpi_process(comm) != 0)
+    return;
+  out_ = std::make_unique<std::ofstream>(path);
+  if (!*out_)
+    throw InputError(path + ": cannot write");
+  for (std::size_t i = 0; i < header.size(); ++i)
+    *out_ << (i ? "," : "") << csv_field(header[i]);
+  *out_ << '\n';
+}
+
+void CsvFile::row(const std::vector<double>& values,
+                  const std::vector<std::string>& labels) {
+  if (!out_)
+    return;
+  bool first = true;
+  for (const auto& l : labels)
+    *out_ << (first ? "" : ",") << csv_field(l), first = false;
+  for (const double v : values)
+    *out_ << (first ? "" : ",") << std::setprecision(9) << v, first = false;
+  *out_ << '\n' << std::flush;
+}
+
+} // namespace settlewell

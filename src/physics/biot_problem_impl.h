@@ -1,0 +1,89 @@
+#pragma once
+
+// Private to src/physics: the state of a BiotProblem, shared by the files that
+// implement it (biot_problem.cc: set-up, assembly and stepping; water_balance.cc:
+// discharges and storage).
+#include "settlewell/physics/biot_problem.h"
+#include "settlewell/physics/cell_kernel.h"
+#include "settlewell/physics/constraints.h"
+#include "settlewell/physics/internal_lines.h"
+#include "settlewell/physics/resolved_conditions.h"
+#include "settlewell/solvers/linear_solver.h"
+
+#include <deal.II/base/table.h>
+#include <deal.II/dofs/dof_tools.h>
+#include <deal.II/fe/mapping_q1.h>
+#include <deal.II/lac/affine_constraints.h>
+
+#include <limits>
+#include <memory>
+#include <optional>
+#include <set>
+#include <unordered_map>
+#include <vector>
+
+namespace settlewell {
+
+using namespace dealii; // as in the two files that include this one
+
+struct BiotProblem::Impl {
+  Impl(const Mesh& mesh, BiotSetup setup);
+
+  ConstraintInputs constraint_inputs() const {
+    return {dof_handler,          layout, conditions, plate,
+            setup.rigid_skeleton, owned,  relevant,   pressure_line_dofs};
+  }
+  void setup_dofs();
+  void choose_solver();
+  /// (x, y) of each displacement node, in the order of the owned dofs `u`.
+  std::vector<double> displacement_node_coordinates(const IndexSet& u) const;
+  /// `target` sized to the owned dofs with the couplings `coupling` allows.
+  void reinit_distributed(LA::MPI::SparseMatrix& target,
+                          const Table<2, DoFTools::Coupling>& coupling) const;
+  void find_internal_lines();
+  void add_line_fluxes(CellKernel& kernel,
+                       const DoFHandler<2>::active_cell_iterator& cell,
+                       double t,
+                       double dt,
+                       Vector<double>& cell_rhs) const;
+  void add_old_state_and_fluxes(CellKernel& kernel,
+                                const DoFHandler<2>::active_cell_iterator& cell,
+                                double t,
+                                double dt,
+                                Vector<double>& cell_rhs) const;
+  double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
+  double prescribed_outflow(const FluxBoundary& flux) const;
+  void assemble_matrix(double dt);
+  void assemble_rhs(double t_new, double dt);
+  void add_face_terms(CellKernel& kernel,
+                      const DoFHandler<2>::active_cell_iterator& cell,
+                      double t_new,
+                      double dt,
+                      Vector<double>& cell_rhs) const;
+  bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
+
+  const Mesh& mesh;
+  BiotSetup setup;
+  MPI_Comm comm;
+  FieldLayout layout;
+  MappingQ1<2> mapping;
+  DoFHandler<2> dof_handler;
+  ResolvedConditions conditions;
+  std::vector<CellCoefficients> coefficients;
+  std::optional<PlateLink> plate;
+  IndexSet owned, relevant;
+  AffineConstraints<double> constraints;
+  LA::MPI::SparseMatrix matrix;
+  LA::MPI::SparseMatrix schur; ///< pressure-block preconditioner (iterative solver only)
+  LA::MPI::Vector rhs, owned_solution, solution, old_solution;
+  std::unique_ptr<LinearSolver> solver;
+  std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
+  /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).
+  std::unordered_map<unsigned int, std::vector<std::pair<unsigned int, std::size_t>>>
+      line_flux_faces;
+  double time = 0.0;
+  double matrix_dt = std::numeric_limits<double>::quiet_NaN();
+  std::vector<bool> matrix_pressures; ///< active prescribed pressures of the matrix
+};
+
+} // namespace settlewell

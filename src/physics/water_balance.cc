@@ -1,0 +1,173 @@
+// The water that crosses boundaries and lines in a step and the water taken into
+// storage: the discharges a run reports and the two sides of its water balance.
+#include "biot_problem_impl.h"
+
+#include "settlewell/core/errors.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <algorithm>
+
+namespace settlewell {
+
+using namespace dealii;
+
+double
+BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
+  // The consistent flux: at a prescribed-pressure dof, the right-hand side of the
+  // unconstrained storage-equation row minus the row times the solution is dt
+  // times the water that leaves through that dof's share of the line.
+  CellKernel kernel(layout, setup.analysis, mapping);
+  const unsigned int n = kernel.dofs_per_cell();
+  FullMatrix<double> cell_matrix(n, n);
+  Vector<double> cell_rhs(n), local(n), residual(n);
+  std::vector<types::global_dof_index> dofs(n);
+  double total = 0.0;
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    cell->get_dof_indices(dofs);
+    if (std::none_of(dofs.begin(), dofs.end(),
+                     [&](auto d) { return line.count(d) != 0; }))
+      continue;
+    kernel.reinit(cell);
+    cell_matrix = 0.0;
+    kernel.add_matrix(coefficients[cell->material_id()], matrix_dt, cell_matrix);
+    cell_rhs = 0.0;
+    add_old_state_and_fluxes(kernel, cell, time, matrix_dt, cell_rhs);
+    cell->get_dof_values(solution, local);
+    cell_matrix.vmult(residual, local);
+    residual -= cell_rhs;
+    for (unsigned int i = 0; i < n; ++i)
+      if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
+          line.count(dofs[i]))
+        total += residual(i);
+  }
+  return -Utilities::MPI::sum(total, comm) / matrix_dt;
+}
+
+double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
+  // The p-rows of a face integral of -q sum to minus the integral of q (the Q1
+  // shape functions sum to one).
+  CellKernel kernel(layout, setup.analysis, mapping);
+  Vector<double> face_rhs(kernel.dofs_per_cell());
+  double total = 0.0;
+  auto add = [&](const DoFHandler<2>::active_cell_iterator& cell, unsigned int f) {
+    kernel.reinit(cell);
+    face_rhs = 0.0;
+    kernel.add_face_outflow(f, 1.0, flux.outflow, time, face_rhs);
+    for (unsigned int i = 0; i < face_rhs.size(); ++i)
+      total += face_rhs(i);
+  };
+  if (flux.line.internal) {
+    for (const auto& cell : dof_handler.active_cell_iterators()) {
+      const auto found = cell->is_locally_owned()
+                             ? line_flux_faces.find(cell->active_cell_index())
+                             : line_flux_faces.end();
+      if (found != line_flux_faces.end())
+        for (const auto& [face, k] : found->second)
+          if (&conditions.fluxes[k] == &flux)
+            add(cell, face);
+    }
+  } else {
+    for (const auto& [cell, f] : faces_on_boundary(dof_handler, flux.line.id))
+      add(cell, f);
+  }
+  return -Utilities::MPI::sum(total, comm);
+}
+
+namespace {
+
+/// The prescribed pressure dofs of each active condition, a dof going to the first
+/// condition that constrains it (as in make_constraints).
+std::vector<std::set<types::global_dof_index>>
+active_pressure_dofs(const ResolvedConditions& conditions,
+                     const std::vector<LineDofs>& line_dofs,
+                     const DoFHandler<2>& dof_handler,
+                     const FieldLayout& layout,
+                     double t) {
+  std::vector<std::set<types::global_dof_index>> sets(conditions.pressures.size());
+  std::set<types::global_dof_index> claimed;
+  for (std::size_t k = 0; k < conditions.pressures.size(); ++k) {
+    const auto& bc = conditions.pressures[k];
+    if (!bc.window.contains(t))
+      continue;
+    std::vector<types::global_dof_index> dofs;
+    if (bc.line.internal) {
+      for (const auto& [dof, x] : line_dofs[k])
+        dofs.push_back(dof);
+    } else {
+      const IndexSet on = DoFTools::extract_boundary_dofs(
+          dof_handler, layout.mask_of(FieldLayout::pressure), {bc.line.id});
+      dofs.assign(on.begin(), on.end());
+    }
+    for (const auto d : dofs)
+      if (claimed.insert(d).second)
+        sets[k].insert(d);
+  }
+  return sets;
+}
+
+/// A pumped line comes from the model, which checked its name against the mesh.
+void require_line(const Mesh& mesh, const std::string& line) {
+  if (!mesh.has_line(line))
+    throw InternalError("no boundary or internal line named '" + line + "' in the mesh");
+}
+
+} // namespace
+
+double BiotProblem::outflow(const std::string& line) const {
+  const Impl& m = *impl_;
+  require_line(m.mesh, line);
+  if (!(m.time > 0.0))
+    return 0.0;
+  const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs,
+                                         m.dof_handler, m.layout, m.time);
+  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k)
+    if (m.conditions.pressures[k].line.name == line &&
+        m.conditions.pressures[k].window.contains(m.time))
+      return m.reaction_outflow(sets[k]);
+  for (const auto& flux : m.conditions.fluxes)
+    if (flux.line.name == line && flux.window.contains(m.time))
+      return m.prescribed_outflow(flux);
+  return 0.0;
+}
+
+double BiotProblem::net_outflow() const {
+  const Impl& m = *impl_;
+  if (!(m.time > 0.0))
+    return 0.0;
+  std::set<types::global_dof_index> all;
+  for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
+                                              m.dof_handler, m.layout, m.time))
+    all.insert(set.begin(), set.end());
+  double total = m.reaction_outflow(all);
+  for (const auto& flux : m.conditions.fluxes)
+    if (flux.window.contains(m.time))
+      total += m.prescribed_outflow(flux);
+  return total;
+}
+
+double BiotProblem::storage_gain() const {
+  // add_old_state puts (alpha eps_v + S p) phi_i into the p rows; the Q1 shape
+  // functions sum to one, so the rows sum to the stored volume.
+  const Impl& m = *impl_;
+  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
+  Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
+  double gain = 0.0;
+  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    kernel.reinit(cell);
+    now = 0.0;
+    before = 0.0;
+    const CellCoefficients& c = m.coefficients[cell->material_id()];
+    kernel.add_old_state(c, m.solution, now);
+    kernel.add_old_state(c, m.old_solution, before);
+    for (unsigned int i = 0; i < now.size(); ++i)
+      gain += now(i) - before(i);
+  }
+  return Utilities::MPI::sum(gain, m.comm);
+}
+
+} // namespace settlewell

@@ -1,0 +1,194 @@
+// The run's own part of results.toml, the summary read back from the results, the
+// closing lines a run prints and manifest.json.
+#include "results.h"
+
+#include "settlewell/core/units.h"
+#include "settlewell/core/version.h"
+#include "settlewell/model/model_builder.h"
+#include "settlewell/output/run_folder.h"
+#include "settlewell/scenario/describe.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <fstream>
+#include <iomanip>
+#include <ostream>
+
+namespace settlewell {
+
+using units::to_days;
+
+namespace {
+
+/// The inputs as the report shows them: materials, geometry, boundaries, stages.
+toml::table inputs_table(const scenario::Scenario& s,
+                         const Mesh& mesh,
+                         const model::Schedule& schedule) {
+  toml::array materials, boundaries, stages, geometry;
+  for (const auto& [region, name] : model::region_materials(s, mesh)) {
+    const auto& m = s.materials.at(name);
+    materials.push_back(
+        toml::table{{"region", region},
+                    {"material", name},
+                    {"unit_weight", m.unit_weight},
+                    {"youngs_modulus_kPa", m.poroelastic.youngs_modulus},
+                    {"poisson_ratio", m.poroelastic.poisson_ratio},
+                    {"mv_per_kPa", 1.0 / m.poroelastic.constrained_modulus()},
+                    {"kx", m.poroelastic.conductivity_x},
+                    {"ky", m.poroelastic.conductivity_y},
+                    {"k0", m.k0}});
+  }
+  for (const auto& [name, role] : model::boundary_roles(s, mesh))
+    boundaries.push_back(
+        toml::table{{"name", name}, {"role", scenario::role_text(role)}});
+  for (std::size_t k = 0; k < s.stages.size(); ++k)
+    stages.push_back(
+        toml::table{{"name", s.stages[k].name},
+                    {"start_days", units::to_days(schedule.stages()[k].start)},
+                    {"end_days", units::to_days(schedule.stages()[k].end)},
+                    {"ramp_days", units::to_days(s.stages[k].ramp)},
+                    {"changes", scenario::stage_changes(s.stages[k])}});
+  for (const auto& line : scenario::geometry_lines(s))
+    geometry.push_back(line);
+  return toml::table{{"materials", materials},
+                     {"boundaries", boundaries},
+                     {"stages", stages},
+                     {"geometry", geometry}};
+}
+
+} // namespace
+
+toml::table run_results(const scenario::Scenario& s,
+                        const Mesh& mesh,
+                        const model::Schedule& schedule,
+                        const RunSummary& size,
+                        const std::string& started,
+                        MPI_Comm comm) {
+  toml::table root{{"program", "settlewell"},
+                   {"version", version_string},
+                   {"input", s.source_path},
+                   {"input_sha256", sha256_of_file(s.source_path)},
+                   {"started", started},
+                   {"finished", utc_now()},
+                   {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(comm))},
+                   {"title", s.title},
+                   {"analysis", s.analysis == AnalysisType::axisymmetric
+                                    ? "axisymmetric"
+                                    : "plane_strain"},
+                   {"cells", int64_t(size.cells)},
+                   {"unknowns", int64_t(size.dofs)},
+                   {"steps", int64_t(size.steps)},
+                   {"wall_time_s", size.wall_seconds}};
+  root.insert("inputs", inputs_table(s, mesh, schedule));
+  toml::array stages;
+  for (const auto& st : schedule.stages())
+    stages.push_back(toml::table{{"name", st.name},
+                                 {"start_days", to_days(st.start)},
+                                 {"end_days", to_days(st.end)}});
+  root.insert("stages", stages);
+  return root;
+}
+
+void read_summary(const toml::table& r, RunSummary& summary) {
+  const auto sum = r["summary"];
+  summary.settlement_anywhere = sum["settlement_anywhere_m"].value_or(0.0);
+  summary.drawdown_anywhere = sum["drawdown_anywhere_m"].value_or(0.0);
+  summary.settlement_inside = sum["settlement_inside_m"].value<double>();
+  summary.settlement_outside = sum["settlement_outside_m"].value<double>();
+  summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
+  if (const auto* lines = r["discharge"].as_array())
+    for (const auto& node : *lines) {
+      const auto& line = *node.as_table();
+      const std::string label(line["line"].value_or(std::string_view()));
+      summary.pumped_volume[label] = line["volume_m3"].value_or(0.0);
+      summary.final_discharge[label] =
+          line["final_m3_per_day"].value_or(0.0) / units::seconds_per_day;
+      auto& per_stage = summary.stage_volume[label];
+      for (const auto& v : *line["stage_volumes_m3"].as_array())
+        per_stage.push_back(v.value_or(0.0));
+    }
+  summary.mass_balance = r["water_balance"]["largest_relative_error"].value_or(0.0);
+  summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
+}
+
+void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scenario& s) {
+  const bool per_metre = s.analysis == AnalysisType::plane_strain;
+  out << std::fixed;
+  out << "Run finished: " << r.steps << " steps, " << r.cells << " cells, " << r.dofs
+      << " unknowns, " << std::setprecision(1) << r.wall_seconds << " s wall time\n";
+  out << std::setprecision(1);
+  if (r.settlement_inside)
+    out << "  largest settlement inside the wall (pit surface): "
+        << *r.settlement_inside * 1000 << " mm\n";
+  if (r.settlement_outside)
+    out << "  largest settlement outside the wall (ground surface): "
+        << *r.settlement_outside * 1000 << " mm\n";
+  if (!r.settlement_inside)
+    out << "  largest settlement: " << r.settlement_anywhere * 1000 << " mm\n";
+  out << std::setprecision(2);
+  if (r.drawdown_outside)
+    out << "  largest drawdown outside the wall: " << *r.drawdown_outside << " m\n";
+  else
+    out << "  largest drawdown: " << r.drawdown_anywhere << " m\n";
+  double total = 0.0;
+  for (const auto& [label, volume] : r.pumped_volume) {
+    out << "  pumped volume, " << label << ": " << std::setprecision(1) << volume
+        << (per_metre ? " m3 per metre run\n" : " m3\n");
+    total += volume;
+  }
+  if (r.pumped_volume.size() > 1)
+    out << "  pumped volume, total: " << total
+        << (per_metre ? " m3 per metre run\n" : " m3\n");
+  out << "  results: " << r.run_directory
+      << " (fields/fields.pvd, points.csv, profiles/, "
+      << "steps.csv, manifest.json)\n";
+  out << "These results come from a linear poroelastic model; they must be reviewed by a "
+         "qualified geotechnical engineer, and local codes and licensed practice "
+         "govern.\n";
+}
+
+void write_manifest(const std::string& path,
+                    const scenario::Scenario& s,
+                    const model::Schedule& schedule,
+                    const RunSummary& r,
+                    const std::string& started,
+                    const std::map<std::string, double>& wall_time_by_part,
+                    MPI_Comm comm) {
+  if (dealii::Utilities::MPI::this_mpi_process(comm) != 0)
+    return;
+  toml::array stages;
+  for (const auto& st : schedule.stages()) {
+    std::size_t n = 0;
+    for (const double t : schedule.step_times())
+      n += t > st.start && t <= st.end;
+    stages.push_back(toml::table{{"name", st.name},
+                                 {"start", to_days(st.start)},
+                                 {"end", to_days(st.end)},
+                                 {"ramp_end", to_days(st.ramp_end)},
+                                 {"steps", int64_t(n)}});
+  }
+  toml::table parts;
+  for (const auto& [part, seconds] : wall_time_by_part)
+    parts.insert(part, seconds);
+  const toml::table manifest{
+      {"program", "settlewell"},
+      {"version", version_string},
+      {"input", s.source_path},
+      {"input_sha256", sha256_of_file(s.source_path)},
+      {"title", s.title},
+      {"started", started},
+      {"finished", utc_now()},
+      {"wall_time_s", r.wall_seconds},
+      {"wall_time_by_part_s", parts},
+      {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(comm))},
+      {"cells", int64_t(r.cells)},
+      {"unknowns", int64_t(r.dofs)},
+      {"steps", int64_t(r.steps)},
+      {"time_unit", "days"},
+      {"stages", stages}};
+  std::ofstream out(path);
+  toml::json_formatter json{manifest};
+  out << json << '\n';
+}
+
+} // namespace settlewell

@@ -1,0 +1,172 @@
+#include "settlewell/run/simulation.h"
+
+#include "results.h"
+
+#include "settlewell/core/units.h"
+#include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/mesh/mesh_files.h"
+#include "settlewell/model/initial_state.h"
+#include "settlewell/model/model_builder.h"
+#include "settlewell/model/schedule.h"
+#include "settlewell/monitors/monitor.h"
+#include "settlewell/output/csv_file.h"
+#include "settlewell/output/run_folder.h"
+#include "settlewell/physics/biot_problem.h"
+#include "settlewell/run/progress.h"
+#include "settlewell/solvers/linear_solver.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/timer.h>
+
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+
+namespace settlewell {
+
+using namespace dealii;
+
+namespace {
+
+bool is_root(MPI_Comm comm) {
+  return Utilities::MPI::this_mpi_process(comm) == 0;
+}
+
+std::vector<std::string>
+step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors) {
+  std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
+                             "new_matrix", "assembly_s", "factorisation_s", "solve_s",
+                             "iterations"};
+  for (const auto& m : monitors)
+    for (const auto& column : m->step_columns())
+      h.push_back(column);
+  return h;
+}
+
+std::vector<double> step_row(const StepReport& r, std::size_t number, std::size_t stage) {
+  return {double(number),          units::to_days(r.time),   units::to_days(r.dt),
+          double(stage + 1),       r.new_matrix ? 1.0 : 0.0, r.assembly_seconds,
+          r.factorisation_seconds, r.solve_seconds,          double(r.iterations)};
+}
+
+} // namespace
+
+struct Simulation::Impl {
+  Impl(scenario::Scenario s, MPI_Comm comm);
+  void prepare_folder(const RunOptions& options) const;
+  void start(const monitors::RunView& view);
+  void step(const monitors::RunView& view, CsvFile& steps);
+
+  scenario::Scenario scenario;
+  MPI_Comm comm;
+  Mesh mesh;
+  model::InitialState initial;
+  model::Schedule schedule;
+  model::Model model;
+  std::unique_ptr<BiotProblem> problem;
+  std::unique_ptr<Derivation> derivation;
+  std::unique_ptr<monitors::RunContext> context;
+  std::vector<std::unique_ptr<monitors::Monitor>> monitors;
+  TimerOutput timer; ///< wall time of the parts of a run, for the manifest
+};
+
+Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
+    : scenario(std::move(s))
+    , comm(comm_)
+    , mesh((add_petsc_options(scenario.numerics.petsc_options),
+            make_scenario_mesh(scenario, comm)))
+    , initial(scenario, mesh)
+    , schedule(scenario)
+    , model(model::build_model(scenario, mesh, initial, schedule))
+    , timer(comm, std::cout, TimerOutput::never, TimerOutput::wall_times) {
+  problem = std::make_unique<BiotProblem>(mesh, model.setup);
+  derivation = std::make_unique<Derivation>(*problem, initial.fields());
+  context = std::make_unique<monitors::RunContext>(
+      monitors::RunContext{scenario, schedule, model, initial, *problem, *derivation});
+  monitors = monitors::make_monitors(*context);
+}
+
+void Simulation::Impl::prepare_folder(const RunOptions& options) const {
+  const std::string& dir = options.run_directory;
+  prepare_run_folder(dir, options.overwrite, comm);
+  if (is_root(comm))
+    std::filesystem::copy_file(scenario.source_path, dir + "/scenario.toml",
+                               std::filesystem::copy_options::overwrite_existing);
+  write_scenario_mesh(scenario, dir + "/mesh", comm);
+}
+
+void Simulation::Impl::start(const monitors::RunView& view) {
+  TimerOutput::Scope part(timer, "monitors and output");
+  for (auto& m : monitors)
+    m->start(view);
+  for (auto& m : monitors)
+    m->at_output_time(view);
+}
+
+void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
+  TimerOutput::Scope part(timer, "monitors and output");
+  std::vector<double> row = step_row(view.step, view.step_number, view.stage());
+  for (auto& m : monitors)
+    for (const double v : m->after_step(view))
+      row.push_back(v);
+  steps.row(row);
+  if (schedule.is_output_time(view.step.time))
+    for (auto& m : monitors)
+      m->at_output_time(view);
+}
+
+Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
+    : impl_(std::make_unique<Impl>(std::move(scenario), comm)) {}
+
+Simulation::~Simulation() = default;
+
+RunSummary Simulation::run(const RunOptions& options) {
+  Impl& m = *impl_;
+  Timer wall(m.comm);
+  const std::string started = utc_now();
+  const std::string& dir = options.run_directory;
+  m.prepare_folder(options);
+
+  StepReport report; // t = 0: no step yet
+  monitors::RunView view{*m.context, dir, report, 0};
+  m.start(view);
+  CsvFile steps(dir + "/steps.csv", step_header(m.monitors), m.comm);
+  const auto& times = m.schedule.step_times();
+  Progress progress(std::cerr, options.progress_in_place, times.size(),
+                    options.show_progress && is_root(m.comm));
+  for (std::size_t n = 0; n < times.size(); ++n) {
+    {
+      TimerOutput::Scope part(m.timer, "time steps (assembly and solve)");
+      report = m.problem->advance_to(times[n]);
+    }
+    view.step_number = n + 1;
+    m.step(view, steps);
+    const std::size_t k = view.stage();
+    progress.step(m.schedule.stages()[k].name, k + 1, m.schedule.stages().size(),
+                  units::to_days(report.time), units::to_days(report.dt),
+                  report.solve_seconds);
+  }
+  progress.finish();
+
+  RunSummary summary;
+  summary.run_directory = dir;
+  summary.cells = m.mesh.triangulation->n_global_active_cells();
+  summary.dofs = m.problem->dof_handler().n_dofs();
+  summary.steps = times.size();
+  summary.wall_seconds = wall.wall_time();
+  toml::table results =
+      run_results(m.scenario, m.mesh, m.schedule, summary, started, m.comm);
+  {
+    TimerOutput::Scope part(m.timer, "monitors and output");
+    for (auto& monitor : m.monitors)
+      monitor->finish(view, results);
+  }
+  read_summary(results, summary);
+  if (is_root(m.comm))
+    std::ofstream(dir + "/results.toml") << results << '\n';
+  write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started,
+                 m.timer.get_summary_data(TimerOutput::total_wall_time), m.comm);
+  return summary;
+}
+
+} // namespace settlewell

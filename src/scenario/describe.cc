@@ -1,0 +1,96 @@
+#include "settlewell/scenario/describe.h"
+
+#include "settlewell/core/units.h"
+
+#include <sstream>
+
+namespace settlewell::scenario {
+
+std::string role_text(const BoundarySpec& b) {
+  using H = BoundarySpec::Hydraulic;
+  using M = BoundarySpec::Mechanical;
+  std::ostringstream h;
+  if (b.hydraulic == H::fixed_head && b.head)
+    h << "fixed head " << *b.head << " m";
+  else if (b.hydraulic == H::fixed_head)
+    h << "fixed head (the initial head)";
+  else
+    h << (b.hydraulic == H::no_flow ? "no flow" : "set by the stages");
+  const char* m = b.mechanical == M::fixed    ? "fixed"
+                  : b.mechanical == M::roller ? "roller (normal fixed)"
+                                              : "free";
+  return h.str() + ", " + m;
+}
+
+std::string target_text(const Target& t) {
+  std::ostringstream os;
+  if (t.kind == Target::Kind::head)
+    os << "head " << t.value << " m";
+  else
+    os << "discharge " << t.value * units::seconds_per_day << " m3/day";
+  return os.str();
+}
+
+std::string stage_changes(const Stage& st) {
+  std::ostringstream os;
+  const char* sep = "";
+  for (const auto& [well, target] : st.wells)
+    os << sep << "well " << well << ": " << target_text(target), sep = "; ";
+  for (const auto& [b, head] : st.boundary_heads)
+    os << sep << b << " head " << head << " m", sep = "; ";
+  if (st.excavation_level_head)
+    os << sep << "excavation level head " << *st.excavation_level_head << " m",
+        sep = "; ";
+  for (const auto& load : st.loads)
+    os << sep << load.pressure << " kPa on " << load.boundary << " (x " << load.x_from
+       << " to " << load.x_to << " m)",
+        sep = "; ";
+  const std::string text = os.str();
+  return text.empty() ? "no change (held)" : text;
+}
+
+std::vector<std::string> geometry_lines(const Scenario& s) {
+  std::vector<std::string> lines;
+  std::ostringstream os;
+  if (s.section) {
+    const auto& sec = *s.section;
+    os << "Parametric section: ground surface " << sec.ground_surface << " m, model base "
+       << sec.bottom << " m, excavation " << sec.excavation_width << " m wide to "
+       << sec.excavation_level() << " m, far boundary " << sec.far_distance
+       << " m beyond the wall" << (sec.half_model ? ", half model" : ", full model");
+    lines.push_back(os.str());
+    if (sec.wall) {
+      std::ostringstream w;
+      w << "Cutoff wall: " << sec.wall->thickness << " m thick, toe at " << sec.wall->toe
+        << " m, material " << sec.wall->material;
+      lines.push_back(w.str());
+    }
+    for (const auto& well : sec.wells) {
+      std::ostringstream w;
+      w << "Well " << well.name << ": x " << well.x << " m, screen " << well.screen_bottom
+        << " to " << well.screen_top << " m";
+      lines.push_back(w.str());
+    }
+    for (const auto& l : sec.layers) {
+      std::ostringstream w;
+      w << "Layer " << l.name << " (" << l.material << ") from " << l.top << " m";
+      lines.push_back(w.str());
+    }
+  } else if (s.box) {
+    os << "Layered box " << s.box->width << " m wide, base at " << s.box->bottom << " m";
+    lines.push_back(os.str());
+    for (const auto& l : s.box->layers)
+      lines.push_back("Layer " + l.name + " (" + l.material + ") from " +
+                      std::to_string(l.top) + " m");
+  } else {
+    lines.push_back("Mesh file " + s.mesh_file->path);
+  }
+  std::ostringstream gw;
+  gw << "Initial water table " << s.groundwater.water_table << " m";
+  for (const auto& [layer, head] : s.groundwater.layer_heads)
+    gw << "; head " << head << " m in " << layer;
+  lines.push_back(gw.str());
+  return lines;
+}
+
+} // namespace settlewell::scenario
