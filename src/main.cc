@@ -17,13 +17,14 @@
 #include <deal.II/base/exceptions.h>
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/revision.h>
+#include <deal.II/base/timer.h>
 #include <petscversion.h>
 
 #include <algorithm>
-#include <chrono>
 #include <cstdlib>
 #include <filesystem>
 #include <iostream>
+#include <optional>
 #include <sstream>
 #include <unistd.h>
 
@@ -80,14 +81,11 @@ int run_verify(const VerifyOptions& options) {
   const v::CaseSettings settings{options.vtk_directory};
   std::vector<v::CheckRow> rows;
   for (const auto* c : selected) {
-    const auto start = std::chrono::steady_clock::now();
+    const dealii::Timer timer; // started
     err() << "running " << c->name << " (" << c->summary << ") ..." << std::flush;
     const auto case_rows = c->run(settings, MPI_COMM_WORLD);
     rows.insert(rows.end(), case_rows.begin(), case_rows.end());
-    err()
-        << " "
-        << std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count()
-        << " s\n";
+    err() << " " << timer.wall_time() << " s\n";
   }
   if (out().is_active() && options.markdown) {
     std::vector<v::CaseDescription> descriptions;
@@ -199,84 +197,93 @@ int run_sweep_command(const SweepCommand& c) {
   return exit_ok;
 }
 
-int dispatch(int argc, char** argv) {
-  CLI::App app{
-      "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
-      "excavations."};
-  app.set_version_flag("--version", version_text());
-
-  VerifyOptions verify;
-  auto* verify_cmd = app.add_subcommand(
+CLI::App* add_verify(CLI::App& app, VerifyOptions& o) {
+  auto* cmd = app.add_subcommand(
       "verify", "Run the verification cases against published solutions and print a "
                 "table; exit status 0 only if every check passes.");
-  verify_cmd->add_option("--case", verify.cases, "Run only this case (repeatable)");
-  verify_cmd->add_option("--vtk", verify.vtk_directory,
-                         "Also write each case's fields (VTU + PVD) into this folder");
-  verify_cmd->add_flag("--list", verify.list, "List the cases and exit");
-  verify_cmd->add_flag("--markdown", verify.markdown,
-                       "Print a Markdown summary per case and the full table (the "
-                       "README's verification section)");
+  cmd->add_option("--case", o.cases, "Run only this case (repeatable)");
+  cmd->add_option("--vtk", o.vtk_directory,
+                  "Also write each case's fields (VTU + PVD) into this folder");
+  cmd->add_flag("--list", o.list, "List the cases and exit");
+  cmd->add_flag("--markdown", o.markdown,
+                "Print a Markdown summary per case and the full table (the README's "
+                "verification section)");
+  return cmd;
+}
 
-  ScenarioOptions run, check, mesh;
-  auto* run_cmd = app.add_subcommand(
+/// The scenario file of a command, which must exist.
+void add_scenario_argument(CLI::App* cmd, std::string& scenario, bool required) {
+  auto* option = cmd->add_option("scenario", scenario, "Scenario file (TOML)")
+                     ->check(CLI::ExistingFile);
+  if (required)
+    option->required();
+}
+
+CLI::App* add_run(CLI::App& app, ScenarioOptions& o) {
+  auto* cmd = app.add_subcommand(
       "run", "Run a scenario through all its stages and write a run folder (fields, "
              "time histories, profiles, manifest).");
-  run_cmd->add_option("scenario", run.scenario, "Scenario file (TOML)")
-      ->required()
-      ->check(CLI::ExistingFile);
-  run_cmd->add_option("-o,--output", run.output,
-                      "Run folder (default: <scenario name>-run in the current folder)");
-  run_cmd->add_flag("--overwrite", run.overwrite,
-                    "Replace the results in an existing run folder");
-  run_cmd->add_flag("-q,--quiet", run.quiet, "No progress lines");
-  run_cmd->add_flag("--report", run.report,
-                    "Write the report into the run folder at the end");
-  run_cmd
-      ->add_option("--refine", run.refine,
-                   "Global refinements of the mesh (overrides numerics.refinements)")
+  add_scenario_argument(cmd, o.scenario, true);
+  cmd->add_option("-o,--output", o.output,
+                  "Run folder (default: <scenario name>-run in the current folder)");
+  cmd->add_flag("--overwrite", o.overwrite,
+                "Replace the results in an existing run folder");
+  cmd->add_flag("-q,--quiet", o.quiet, "No progress lines");
+  cmd->add_flag("--report", o.report, "Write the report into the run folder at the end");
+  cmd->add_option("--refine", o.refine,
+                  "Global refinements of the mesh (overrides numerics.refinements)")
       ->check(CLI::Range(0, 8));
-  run_cmd
-      ->add_option("--solver", run.solver,
-                   "direct, iterative or auto (overrides numerics.solver)")
+  cmd->add_option("--solver", o.solver,
+                  "direct, iterative or auto (overrides numerics.solver)")
       ->check(CLI::IsMember({"direct", "iterative", "auto"}));
+  return cmd;
+}
 
-  SweepCommand sweep;
-  auto* sweep_cmd = app.add_subcommand(
+CLI::App* add_sweep(CLI::App& app, SweepCommand& o) {
+  auto* cmd = app.add_subcommand(
       "sweep",
       "Run every variant of a parameter grid (each in its own run folder), spread "
       "over groups of MPI processes, and summarise them in one CSV and a chart.");
-  sweep_cmd->add_option("sweep_file", sweep.file, "Sweep file (TOML)")
+  cmd->add_option("sweep_file", o.file, "Sweep file (TOML)")
       ->required()
       ->check(CLI::ExistingFile);
-  sweep_cmd->add_option("-o,--output", sweep.output,
-                        "Sweep folder (default: from the file)");
-  sweep_cmd->add_option("--group-size", sweep.group_size, "Processes per variant")
+  cmd->add_option("-o,--output", o.output, "Sweep folder (default: from the file)");
+  cmd->add_option("--group-size", o.group_size, "Processes per variant")
       ->check(CLI::Range(1, 100000));
-  sweep_cmd->add_flag("--overwrite", sweep.overwrite, "Replace an existing sweep folder");
+  cmd->add_flag("--overwrite", o.overwrite, "Replace an existing sweep folder");
+  return cmd;
+}
 
-  std::string report_folder;
-  auto* report_cmd = app.add_subcommand(
+CLI::App* add_report(CLI::App& app, std::string& folder) {
+  auto* cmd = app.add_subcommand(
       "report", "Write report.html (self-contained, plots embedded) and report.md into a "
                 "run folder.");
-  report_cmd->add_option("run_folder", report_folder, "A finished run folder")
+  cmd->add_option("run_folder", folder, "A finished run folder")
       ->required()
       ->check(CLI::ExistingDirectory);
+  return cmd;
+}
 
-  auto* check_cmd = app.add_subcommand(
+CLI::App* add_check(CLI::App& app, ScenarioOptions& o) {
+  auto* cmd = app.add_subcommand(
       "check", "Validate a scenario and print what it describes; writes nothing.");
-  check_cmd->add_option("scenario", check.scenario, "Scenario file (TOML)")
-      ->check(CLI::ExistingFile);
-  check_cmd->add_flag("--keys", check.keys,
-                      "Print every scenario key with its unit and default");
+  add_scenario_argument(cmd, o.scenario, false);
+  cmd->add_flag("--keys", o.keys, "Print every scenario key with its unit and default");
+  return cmd;
+}
 
-  auto* mesh_cmd = app.add_subcommand(
+CLI::App* add_mesh(CLI::App& app, ScenarioOptions& o) {
+  auto* cmd = app.add_subcommand(
       "mesh", "Write the scenario's mesh (.msh) and VTU files of its regions and lines.");
-  mesh_cmd->add_option("scenario", mesh.scenario, "Scenario file (TOML)")
-      ->required()
-      ->check(CLI::ExistingFile);
-  mesh_cmd->add_option("-o,--output", mesh.output,
-                       "Folder for the files (default: <scenario name>-mesh)");
+  add_scenario_argument(cmd, o.scenario, true);
+  cmd->add_option("-o,--output", o.output,
+                  "Folder for the files (default: <scenario name>-mesh)");
+  return cmd;
+}
 
+/// Parses the command line; returns an exit status when the program should stop
+/// here (help, version, a mistake), nothing when a command is to run.
+std::optional<int> parse(CLI::App& app, int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp&) {
@@ -292,6 +299,26 @@ int dispatch(int argc, char** argv) {
     err() << "settlewell: " << e.what() << " (see settlewell --help)\n";
     return exit_usage;
   }
+  return std::nullopt;
+}
+
+int dispatch(int argc, char** argv) {
+  CLI::App app{
+      "Settlewell: 2D coupled seepage-consolidation (Biot) analysis of dewatered "
+      "excavations."};
+  app.set_version_flag("--version", version_text());
+  VerifyOptions verify;
+  ScenarioOptions run, check, mesh;
+  SweepCommand sweep;
+  std::string report_folder;
+  auto* verify_cmd = add_verify(app, verify);
+  auto* run_cmd = add_run(app, run);
+  auto* sweep_cmd = add_sweep(app, sweep);
+  auto* report_cmd = add_report(app, report_folder);
+  auto* check_cmd = add_check(app, check);
+  auto* mesh_cmd = add_mesh(app, mesh);
+  if (const auto stop = parse(app, argc, argv))
+    return *stop;
   if (verify_cmd->parsed())
     return run_verify(verify);
   if (run_cmd->parsed())
@@ -305,8 +332,7 @@ int dispatch(int argc, char** argv) {
   if (sweep_cmd->parsed())
     return run_sweep_command(sweep);
   err() << "settlewell: a command is required (run, check, mesh, report, sweep, "
-           "verify); see "
-           "settlewell --help\n";
+           "verify); see settlewell --help\n";
   return exit_usage;
 }
 

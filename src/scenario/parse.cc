@@ -150,14 +150,7 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
 }
 
 Scenario parse_scenario(const std::string& text, const std::string& name) {
-  toml::table root;
-  try {
-    root = toml::parse(text, name);
-  } catch (const toml::parse_error& e) {
-    const auto& begin = e.source().begin;
-    throw InputError(name + ":" + std::to_string(begin.line) + ":" +
-                     std::to_string(begin.column) + ": " + std::string(e.description()));
-  }
+  const toml::table root = parse_toml(text, name);
   Scenario s;
   s.source_path = name;
   const TableReader top(root, "", "", name);

@@ -16,6 +16,32 @@ std::string format_number(double v) {
   return os.str();
 }
 
+namespace {
+
+InputError syntax_error(const toml::parse_error& e, const std::string& name) {
+  const auto& begin = e.source().begin;
+  return InputError(name + ":" + std::to_string(begin.line) + ":" +
+                    std::to_string(begin.column) + ": " + std::string(e.description()));
+}
+
+} // namespace
+
+toml::table parse_toml(std::string_view text, const std::string& name) {
+  try {
+    return toml::parse(text, name);
+  } catch (const toml::parse_error& e) {
+    throw syntax_error(e, name);
+  }
+}
+
+toml::table parse_toml_file(const std::string& path) {
+  try {
+    return toml::parse_file(path);
+  } catch (const toml::parse_error& e) {
+    throw syntax_error(e, path);
+  }
+}
+
 std::string position(const std::string& file, const toml::node& node) {
   const auto& begin = node.source().begin;
   return file + ":" + std::to_string(begin.line) + ":" + std::to_string(begin.column);

@@ -11,6 +11,11 @@ namespace settlewell::scenario {
 /// A number as a message shows it (shortest form, "0.5", "1e-09").
 std::string format_number(double v);
 
+/// Parses TOML text; a syntax error is an InputError "NAME:LINE:COL: what".
+toml::table parse_toml(std::string_view text, const std::string& name);
+/// The same for a file.
+toml::table parse_toml_file(const std::string& path);
+
 /// "FILE:LINE:COL" of a node.
 std::string position(const std::string& file, const toml::node& node);
 

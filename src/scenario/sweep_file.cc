@@ -70,16 +70,6 @@ toml::table* find_or_make(toml::table& root,
   return nullptr;
 }
 
-toml::table load_base(const SweepSpec& sweep) {
-  try {
-    return toml::parse_file(sweep.scenario_path);
-  } catch (const toml::parse_error& e) {
-    throw InputError(sweep.scenario_path + ":" + std::to_string(e.source().begin.line) +
-                     ":" + std::to_string(e.source().begin.column) + ": " +
-                     std::string(e.description()));
-  }
-}
-
 void absolute_mesh_path(toml::table& scenario, const std::string& scenario_path) {
   auto* mesh = scenario.get_as<toml::table>("mesh_file");
   if (mesh == nullptr || !mesh->contains("path"))
@@ -123,7 +113,7 @@ std::vector<double> variant_values(const SweepSpec& sweep, std::size_t index) {
 }
 
 std::string variant_scenario_text(const SweepSpec& sweep, std::size_t index) {
-  toml::table scenario = load_base(sweep);
+  toml::table scenario = parse_toml_file(sweep.scenario_path);
   absolute_mesh_path(scenario, sweep.scenario_path);
   const auto values = variant_values(sweep, index);
   for (std::size_t k = 0; k < values.size(); ++k) {
@@ -139,17 +129,9 @@ std::string variant_scenario_text(const SweepSpec& sweep, std::size_t index) {
   return text.str();
 }
 
-SweepSpec read_sweep(const std::string& path) {
-  toml::table root;
-  try {
-    root = toml::parse_file(path);
-  } catch (const toml::parse_error& e) {
-    throw InputError(path + ":" + std::to_string(e.source().begin.line) + ":" +
-                     std::to_string(e.source().begin.column) + ": " +
-                     std::string(e.description()));
-  }
-  SweepSpec sweep;
-  sweep.source_path = path;
+namespace {
+
+void read_base(const toml::table& root, const std::string& path, SweepSpec& sweep) {
   for (const auto& [key, node] : root) {
     const std::string k(key.str());
     if (k != "scenario" && k != "output" && k != "parameters" && k != "chart")
@@ -165,6 +147,9 @@ SweepSpec read_sweep(const std::string& path) {
     throw InputError(position(path, *root.get("scenario")) + ": scenario: cannot read '" +
                      sweep.scenario_path + "'");
   sweep.output = root["output"].value_or(fs::path(path).stem().string() + "-sweep");
+}
+
+void read_parameters(const toml::table& root, const std::string& path, SweepSpec& sweep) {
   const toml::array* parameters = root["parameters"].as_array();
   if (parameters == nullptr || parameters->empty())
     throw InputError(path + ":1:1: a sweep needs at least one [[parameters]] entry");
@@ -185,22 +170,27 @@ SweepSpec read_sweep(const std::string& path) {
                        "' has no values");
     sweep.parameters.push_back(p);
   }
-  if (const toml::table* chart = root["chart"].as_table()) {
-    sweep.chart_x = (*chart)["x"].value_or(std::string());
-    sweep.chart_y = (*chart)["y"].value_or(std::string());
-    const auto& columns = sweep_result_columns();
-    if (std::find(columns.begin(), columns.end(), sweep.chart_y) == columns.end())
-      throw InputError(position(path, *chart) +
-                       ": chart.y must be one of the summary columns "
-                       "(e.g. largest_neighbour_settlement_m)");
-    bool known = false;
-    for (const auto& p : sweep.parameters)
-      known = known || p.key == sweep.chart_x;
-    if (!known)
-      throw InputError(position(path, *chart) +
-                       ": chart.x must be one of the swept keys");
-  }
-  // Every variant must be a valid scenario before anything runs.
+}
+
+void read_chart(const toml::table& root, const std::string& path, SweepSpec& sweep) {
+  const toml::table* chart = root["chart"].as_table();
+  if (chart == nullptr)
+    return;
+  sweep.chart_x = (*chart)["x"].value_or(std::string());
+  sweep.chart_y = (*chart)["y"].value_or(std::string());
+  const auto& columns = sweep_result_columns();
+  if (std::find(columns.begin(), columns.end(), sweep.chart_y) == columns.end())
+    throw InputError(position(path, *chart) +
+                     ": chart.y must be one of the summary columns "
+                     "(e.g. largest_neighbour_settlement_m)");
+  const bool swept = std::any_of(sweep.parameters.begin(), sweep.parameters.end(),
+                                 [&](const auto& p) { return p.key == sweep.chart_x; });
+  if (!swept)
+    throw InputError(position(path, *chart) + ": chart.x must be one of the swept keys");
+}
+
+/// Every variant must be a valid scenario before anything runs.
+void check_variants(const SweepSpec& sweep, const std::string& path) {
   for (std::size_t i = 0; i < variant_count(sweep); ++i) {
     const std::string name =
         sweep.output + "/variant_" + std::to_string(i) + "/scenario.toml";
@@ -211,6 +201,18 @@ SweepSpec read_sweep(const std::string& path) {
                        " is not a valid scenario: " + e.what());
     }
   }
+}
+
+} // namespace
+
+SweepSpec read_sweep(const std::string& path) {
+  const toml::table root = parse_toml_file(path);
+  SweepSpec sweep;
+  sweep.source_path = path;
+  read_base(root, path, sweep);
+  read_parameters(root, path, sweep);
+  read_chart(root, path, sweep);
+  check_variants(sweep, path);
   return sweep;
 }
 
