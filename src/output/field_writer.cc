@@ -105,6 +105,11 @@ std::string FieldWriter::series_path() const {
 std::string FieldWriter::write(const BiotProblem& problem) {
   DataOut<2> data_out;
   data_out.attach_dof_handler(problem.dof_handler());
+  // The cells of this process that are in the model (excavated ones are not shown).
+  data_out.set_cell_selection([&problem](const Triangulation<2>::cell_iterator& cell) {
+    return cell->is_active() && cell->is_locally_owned() &&
+           !problem.is_removed(cell->active_cell_index());
+  });
   std::vector<std::string> names{"displacement", "displacement", "excess_pore_pressure"};
   std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds{
       DataComponentInterpretation::component_is_part_of_vector,

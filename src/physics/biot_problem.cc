@@ -61,8 +61,26 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     check_axisymmetric_domain(mesh);
   if (setup.rigid_skeleton && conditions.plate)
     throw InputError("a rigid plate cannot load a rigid skeleton");
+  if (!setup.excavation.empty())
+    prepare_excavation();
   setup_dofs();
   choose_solver();
+}
+
+void BiotProblem::Impl::prepare_excavation() {
+  if (!setup.geostatic.effective_stress)
+    throw InternalError("excavation needs the geostatic state it releases");
+  for (const auto& region : mesh.names.region_names()) {
+    const auto found = setup.geostatic.unit_weights.find(region);
+    if (found == setup.geostatic.unit_weights.end())
+      throw InternalError("excavation needs the unit weight of region '" + region + "'");
+    const auto id = mesh.names.region_id(region);
+    if (unit_weights.size() <= id)
+      unit_weights.resize(id + 1);
+    unit_weights[id] = found->second;
+  }
+  removed.assign(mesh.triangulation->n_active_cells(), false);
+  excavated.assign(setup.excavation.size(), false);
 }
 
 void BiotProblem::Impl::choose_solver() {
@@ -156,7 +174,7 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
   FullMatrix<double> cell_matrix(kernel.dofs_per_cell(), kernel.dofs_per_cell());
   std::vector<types::global_dof_index> dofs(kernel.dofs_per_cell());
   for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
+    if (!cell->is_locally_owned() || !in_model(cell))
       continue;
     kernel.reinit(cell);
     cell->get_dof_indices(dofs);
@@ -173,6 +191,11 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
   matrix.compress(VectorOperation::add);
   if (with_schur)
     schur.compress(VectorOperation::add);
+  if (!removed.empty()) {
+    set_deactivated_diagonals(matrix);
+    if (with_schur)
+      set_deactivated_diagonals(schur);
+  }
 }
 
 void BiotProblem::Impl::add_face_terms(CellKernel& kernel,
@@ -247,7 +270,7 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
   FullMatrix<double> cell_matrix(n, n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
+    if (!cell->is_locally_owned() || !in_model(cell))
       continue;
     kernel.reinit(cell);
     cell->get_dof_indices(dofs);
@@ -267,6 +290,7 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
       constraints.distribute_local_to_global(cell_rhs, dofs, rhs);
     }
   }
+  add_release_loads(t_new, rhs);
   rhs.compress(VectorOperation::add);
 }
 
@@ -287,10 +311,11 @@ StepReport BiotProblem::advance_to(double t_new) {
   report.dt = dt;
   Timer timer; // started: wall time of this process
   m.old_solution = m.solution;
+  const bool dug = m.excavate(m.time);
   make_constraints(m.constraint_inputs(), t_new, m.constraints);
   const std::vector<bool> pressures_now = active_pressures(m.conditions, t_new);
-  report.new_matrix =
-      !(std::abs(dt - m.matrix_dt) <= 1e-12 * dt) || pressures_now != m.matrix_pressures;
+  report.new_matrix = dug || !(std::abs(dt - m.matrix_dt) <= 1e-12 * dt) ||
+                      pressures_now != m.matrix_pressures;
   if (report.new_matrix)
     m.assemble_matrix(dt);
   m.assemble_rhs(t_new, dt);
@@ -322,6 +347,10 @@ double BiotProblem::time_matrix_vector_product(unsigned int repeats) const {
     m.matrix.vmult(y, x);
   timer.stop();
   return timer.last_wall_time() / repeats;
+}
+
+bool BiotProblem::is_removed(unsigned int active_cell_index) const {
+  return !impl_->removed.empty() && impl_->removed[active_cell_index];
 }
 
 double BiotProblem::time() const {

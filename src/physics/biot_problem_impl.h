@@ -2,7 +2,7 @@
 
 // Private to src/physics: the state of a BiotProblem, shared by the files that
 // implement it (biot_problem.cc: set-up, assembly and stepping; water_balance.cc:
-// discharges and storage).
+// discharges and storage; excavation.cc: cells taken out and their forces).
 #include "settlewell/physics/biot_problem.h"
 #include "settlewell/physics/cell_kernel.h"
 #include "settlewell/physics/constraints.h"
@@ -30,8 +30,12 @@ struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
   ConstraintInputs constraint_inputs() const {
-    return {dof_handler,          layout, conditions, plate,
-            setup.rigid_skeleton, owned,  relevant,   pressure_line_dofs};
+    return {dof_handler, layout,   conditions,         plate,  setup.rigid_skeleton,
+            owned,       relevant, pressure_line_dofs, removed};
+  }
+  /// Whether a cell is in the model (not excavated).
+  bool in_model(const DoFHandler<2>::active_cell_iterator& cell) const {
+    return removed.empty() || !removed[cell->active_cell_index()];
   }
   void setup_dofs();
   void choose_solver();
@@ -62,6 +66,17 @@ struct BiotProblem::Impl {
                       Vector<double>& cell_rhs) const;
   bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
 
+  // Excavation (excavation.cc).
+  /// Unit weights by region id, removal flags and event flags (constructor).
+  void prepare_excavation();
+  /// Takes out the cells of every event that has started by time t and not been
+  /// applied yet, keeping the forces they carried. Returns whether any was applied.
+  bool excavate(double t);
+  /// Minus the forces the removed cells carried, released by the fraction due at t.
+  void add_release_loads(double t, LA::MPI::Vector& target) const;
+  /// Gives the deactivated dofs (those of removed cells only) a unit-scaled diagonal.
+  void set_deactivated_diagonals(LA::MPI::SparseMatrix& target) const;
+
   const Mesh& mesh;
   BiotSetup setup;
   MPI_Comm comm;
@@ -78,6 +93,17 @@ struct BiotProblem::Impl {
   LA::MPI::Vector rhs, owned_solution, solution, old_solution;
   std::unique_ptr<LinearSolver> solver;
   std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
+  std::vector<double> unit_weights; ///< by region id, kN/m^3 (with excavation only)
+  std::vector<bool> removed;        ///< by active cell index: taken out by excavation
+  std::vector<bool> excavated;      ///< per setup.excavation: applied
+  /// A locally owned removed cell: its dofs, and in its displacement rows the
+  /// geostatic out-of-balance force and the force of its stress change at removal.
+  struct ReleasedCell {
+    std::size_t event;
+    std::vector<types::global_dof_index> dofs;
+    Vector<double> geostatic, carried;
+  };
+  std::vector<ReleasedCell> released;
   /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).
   std::unordered_map<unsigned int, std::vector<std::pair<unsigned int, std::size_t>>>
       line_flux_faces;

@@ -152,6 +152,34 @@ void CellKernel::add_body_force(const Tensor<1, 2>& b, Vector<double>& out) {
   }
 }
 
+void CellKernel::add_geostatic_imbalance(
+    const CellCoefficients& c,
+    double gamma,
+    const std::function<SymmetricTensor<2, 3>(const Point<2>&)>& effective_stress,
+    const std::function<double(const Point<2>&)>& pore_pressure,
+    Vector<double>& out) {
+  const Tensor<1, 2> weight_density{{0.0, -gamma}};
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    const Point<2>& x = fe_values_.quadrature_point(q);
+    const SymmetricTensor<2, 3> s = effective_stress(x);
+    SymmetricTensor<2, 2> in_plane;
+    in_plane[0][0] = s[0][0];
+    in_plane[1][1] = s[1][1];
+    in_plane[0][1] = s[0][1];
+    const double alpha_p = c.alpha * pore_pressure(x);
+    const double w = weight(fe_values_, q);
+    for (unsigned int i = 0; i < component_.size(); ++i)
+      if (layout_.is_displacement(component_[i])) {
+        const double internal =
+            strain_[i] * in_plane + hoop_[i] * s[2][2] - alpha_p * divergence_[i];
+        out(i) +=
+            (fe_values_[layout_.displacement].value(i, q) * weight_density - internal) *
+            w;
+      }
+  }
+}
+
 void CellKernel::add_face_traction(
     unsigned int face,
     const std::function<Tensor<1, 2>(const Point<2>&, const Tensor<1, 2>&)>& traction,

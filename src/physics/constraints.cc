@@ -12,7 +12,10 @@
 #include <deal.II/fe/mapping_q1.h>
 #include <deal.II/numerics/vector_tools_boundary.h>
 
+#include <algorithm>
+#include <iterator>
 #include <limits>
+#include <set>
 
 namespace settlewell {
 
@@ -152,6 +155,12 @@ void add_plate(const ConstraintInputs& in, AffineConstraints<double>& constraint
                in.dof_handler.get_communicator());
 }
 
+void add_deactivated(const ConstraintInputs& in, AffineConstraints<double>& constraints) {
+  for (const auto dof : deactivated_dofs(in.dof_handler, in.removed))
+    if (!constraints.is_constrained(dof))
+      constraints.add_line(dof); // held at zero: it belongs to no cell of the model
+}
+
 void add_pressures(const ConstraintInputs& in,
                    double t,
                    AffineConstraints<double>& constraints) {
@@ -178,6 +187,30 @@ void add_pressures(const ConstraintInputs& in,
 
 } // namespace
 
+std::vector<types::global_dof_index> deactivated_dofs(const DoFHandler<2>& dof_handler,
+                                                      const std::vector<bool>& removed) {
+  if (removed.empty())
+    return {};
+  std::set<types::global_dof_index> live, dead;
+  std::vector<types::global_dof_index> dofs(dof_handler.get_fe().n_dofs_per_cell());
+  // Every dof an owned cell touches is shared only with owned or ghost cells, so
+  // the removed owned cells and the cells in the model that this process sees
+  // decide it.
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (cell->is_artificial())
+      continue;
+    const bool gone = removed[cell->active_cell_index()];
+    if (gone && !cell->is_locally_owned())
+      continue;
+    cell->get_dof_indices(dofs);
+    (gone ? dead : live).insert(dofs.begin(), dofs.end());
+  }
+  std::vector<types::global_dof_index> out;
+  std::set_difference(dead.begin(), dead.end(), live.begin(), live.end(),
+                      std::back_inserter(out));
+  return out;
+}
+
 std::vector<bool> active_pressures(const ResolvedConditions& conditions, double t) {
   std::vector<bool> active;
   for (const auto& bc : conditions.pressures)
@@ -197,6 +230,7 @@ void make_constraints(const ConstraintInputs& in,
     add_rigid_skeleton(in, constraints);
   if (in.plate)
     add_plate(in, constraints);
+  add_deactivated(in, constraints);
   if (with_pressures)
     add_pressures(in, t, constraints);
   constraints.close();

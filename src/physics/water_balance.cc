@@ -24,7 +24,7 @@ BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& lin
   std::vector<types::global_dof_index> dofs(n);
   double total = 0.0;
   for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
+    if (!cell->is_locally_owned() || !in_model(cell))
       continue;
     cell->get_dof_indices(dofs);
     if (std::none_of(dofs.begin(), dofs.end(),
@@ -61,7 +61,7 @@ double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
   };
   if (flux.line.internal) {
     for (const auto& cell : dof_handler.active_cell_iterators()) {
-      const auto found = cell->is_locally_owned()
+      const auto found = cell->is_locally_owned() && in_model(cell)
                              ? line_flux_faces.find(cell->active_cell_index())
                              : line_flux_faces.end();
       if (found != line_flux_faces.end())
@@ -156,7 +156,7 @@ double BiotProblem::storage_gain() const {
   Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
   double gain = 0.0;
   for (const auto& cell : m.dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned())
+    if (!cell->is_locally_owned() || !m.in_model(cell))
       continue;
     kernel.reinit(cell);
     now = 0.0;

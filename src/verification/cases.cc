@@ -37,6 +37,10 @@ const std::vector<VerificationCase>& all_cases() {
        "steady seepage under a cutoff wall at d/T = 0.25 and 0.5: discharge, exit "
        "gradient, Terzaghi's heave-prism head",
        run_harr},
+      {"excavation-column",
+       "the top 2.4 m of a layered column dug away at once: undrained pore pressure, "
+       "the clay's swelling against time, the drained heave of each layer",
+       run_excavation_column},
   };
   return cases;
 }

@@ -58,6 +58,9 @@ public:
   /// `repeats` products (for benchmarks; the matrix must be assembled). Collective.
   double time_matrix_vector_product(unsigned int repeats) const;
 
+  /// Whether the cell of this active index has been taken out by excavation.
+  bool is_removed(unsigned int active_cell_index) const;
+
   double time() const;
   MPI_Comm communicator() const;
   const Mesh& mesh() const;

@@ -6,12 +6,36 @@
 #include "settlewell/materials/poroelastic.h"
 
 #include <deal.II/base/point.h>
+#include <deal.II/base/symmetric_tensor.h>
+#include <deal.II/base/types.h>
 
 #include <functional>
 #include <map>
 #include <string>
+#include <vector>
 
 namespace settlewell {
+
+/// Soil taken out of the model: at `start` (s) every cell for which `removes` is
+/// true (given its centre and region id) leaves the model, and the forces it
+/// carried on the cells that stay (its weight and its absolute stress, the
+/// geostatic state included) are released linearly until `release_end`.
+struct ExcavationEvent {
+  double start = 0.0;
+  double release_end = 0.0; ///< s; equal to `start`: released at once
+  std::function<bool(const dealii::Point<2>& centre, dealii::types::material_id region)>
+      removes;
+};
+
+/// The geostatic state that excavation releases, kPa and kN/m^3.
+struct GeostaticState {
+  /// Effective stress (xx, yy, zz = out of plane or hoop), tension positive.
+  std::function<dealii::SymmetricTensor<2, 3>(const dealii::Point<2>&,
+                                              dealii::types::material_id)>
+      effective_stress;
+  /// Unit weight by region name (the body force is this, downward).
+  std::map<std::string, double> unit_weights;
+};
 
 /// Everything the Biot core needs besides the mesh. Plain data, no parsing.
 struct BiotSetup {
@@ -27,6 +51,9 @@ struct BiotSetup {
   /// Hold every displacement at zero: transient seepage with storage S alone
   /// (the uncoupled diffusion that Theis's solution assumes).
   bool rigid_skeleton = false;
+  /// Excavation in time order; needs `geostatic` (the state it releases).
+  std::vector<ExcavationEvent> excavation;
+  GeostaticState geostatic;
 
   /// automatic: direct up to `direct_limit` unknowns, iterative above. MUMPS
   /// with a reused factorisation beat the iterative solver at every size

@@ -53,6 +53,18 @@ public:
                      const LA::MPI::Vector& old_solution,
                      dealii::Vector<double>& out);
   void add_body_force(const dealii::Tensor<1, 2>& b, dealii::Vector<double>& out);
+  /// The out-of-balance nodal force of a cell in a geostatic state, in the
+  /// displacement rows: the weight (unit weight `gamma`, kN/m^3, downward) minus
+  /// the internal force of the total stress sigma' - alpha p I, with sigma' (xx, yy,
+  /// zz) and p (kPa) given per point. Cells in equilibrium sum to zero at shared
+  /// nodes; a removed cell's share is what excavation releases.
+  void add_geostatic_imbalance(
+      const CellCoefficients& c,
+      double gamma,
+      const std::function<dealii::SymmetricTensor<2, 3>(const dealii::Point<2>&)>&
+          effective_stress,
+      const std::function<double(const dealii::Point<2>&)>& pore_pressure,
+      dealii::Vector<double>& out);
 
   /// A traction vector `t` (kPa) given per face point, on face `face`.
   void add_face_traction(unsigned int face,

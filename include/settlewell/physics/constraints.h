@@ -43,7 +43,15 @@ struct ConstraintInputs {
   const dealii::IndexSet& locally_relevant;
   /// One entry per conditions.pressures; filled for internal lines only.
   const std::vector<LineDofs>& pressure_line_dofs;
+  /// By active cell index: cells taken out by excavation (empty: none). Their dofs
+  /// that no cell in the model shares are held at zero.
+  const std::vector<bool>& removed;
 };
+
+/// The dofs of this process's removed cells that no cell in the model shares.
+std::vector<dealii::types::global_dof_index>
+deactivated_dofs(const dealii::DoFHandler<2>& dof_handler,
+                 const std::vector<bool>& removed);
 
 /// Which prescribed-pressure conditions apply at time t.
 std::vector<bool> active_pressures(const ResolvedConditions& conditions, double t);

@@ -1,0 +1,106 @@
+// Soil taken out of the model. A removed cell stops being assembled, the dofs that
+// no remaining cell shares are held at zero (the same algebra as giving it
+// FE_Nothing, without renumbering the dofs or transferring the state), and the
+// forces it carried on the remaining cells are released: in the total form of the
+// displacement rows,
+//   K u = f(t) - sum_k [ lambda_k(t) H_k + (1 - lambda_k(t)) G_k ],
+// with H_k the removed cells' geostatic out-of-balance force (weight minus the
+// internal force of the absolute total stress at t = 0) and G_k the internal force
+// of their stress change at the moment of removal. At lambda = 0 the state at
+// removal is still in equilibrium; at lambda = 1 the remaining body carries no
+// force from the removed soil: its absolute stress is released (Brown & Booker
+// 1985 give the same nodal excavation forces for the linear case).
+#include "biot_problem_impl.h"
+
+#include "settlewell/core/errors.h"
+
+#include <algorithm>
+
+namespace settlewell {
+
+namespace {
+
+double release_fraction(const ExcavationEvent& e, double t) {
+  if (!(e.release_end > e.start))
+    return 1.0;
+  return std::clamp((t - e.start) / (e.release_end - e.start), 0.0, 1.0);
+}
+
+} // namespace
+
+bool BiotProblem::Impl::excavate(double t) {
+  std::vector<std::size_t> due;
+  for (std::size_t k = 0; k < setup.excavation.size(); ++k)
+    if (!excavated[k] && setup.excavation[k].start <= t * (1 + 1e-12))
+      due.push_back(k);
+  if (due.empty())
+    return false;
+  CellKernel kernel(layout, setup.analysis, mapping);
+  const unsigned int n = kernel.dofs_per_cell();
+  FullMatrix<double> cell_matrix(n, n);
+  Vector<double> local(n);
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (cell->is_artificial() || !in_model(cell))
+      continue;
+    const auto event = std::find_if(due.begin(), due.end(), [&](std::size_t k) {
+      return setup.excavation[k].removes(cell->center(), cell->material_id());
+    });
+    if (event == due.end())
+      continue;
+    removed[cell->active_cell_index()] = true;
+    if (!cell->is_locally_owned())
+      continue;
+    ReleasedCell r{*event, std::vector<types::global_dof_index>(n), Vector<double>(n),
+                   Vector<double>(n)};
+    cell->get_dof_indices(r.dofs);
+    kernel.reinit(cell);
+    const CellCoefficients& c = coefficients[cell->material_id()];
+    kernel.add_geostatic_imbalance(
+        c, unit_weights.at(cell->material_id()),
+        [&](const Point<2>& x) {
+          return setup.geostatic.effective_stress(x, cell->material_id());
+        },
+        [&](const Point<2>& x) { return setup.gamma_w * (setup.initial_head(x) - x[1]); },
+        r.geostatic);
+    // The rows of the displacement equations do not depend on dt.
+    cell_matrix = 0.0;
+    kernel.add_matrix(c, 1.0, cell_matrix);
+    cell->get_dof_values(solution, local);
+    cell_matrix.vmult(r.carried, local);
+    for (unsigned int i = 0; i < n; ++i)
+      if (!layout.is_displacement(layout.fe.system_to_component_index(i).first))
+        r.carried(i) = r.geostatic(i) = 0.0;
+    released.push_back(std::move(r));
+  }
+  for (const auto k : due)
+    excavated[k] = true;
+  return true;
+}
+
+void BiotProblem::Impl::add_release_loads(double t, LA::MPI::Vector& target) const {
+  Vector<double> load;
+  for (const auto& r : released) {
+    const double lambda = release_fraction(setup.excavation[r.event], t);
+    load = r.carried;
+    load.sadd(-(1.0 - lambda), -lambda, r.geostatic);
+    constraints.distribute_local_to_global(load, r.dofs, target);
+  }
+}
+
+void BiotProblem::Impl::set_deactivated_diagonals(LA::MPI::SparseMatrix& target) const {
+  const auto dead = deactivated_dofs(dof_handler, removed);
+  // A diagonal of the size of the others keeps the matrix well scaled.
+  double sum = 0.0;
+  std::size_t count = 0;
+  for (const auto i : owned)
+    if (!constraints.is_constrained(i))
+      sum += std::abs(target.diag_element(i)), ++count;
+  const double mean = Utilities::MPI::sum(sum, comm) /
+                      std::max<double>(1.0, Utilities::MPI::sum(double(count), comm));
+  for (const auto i : dead)
+    if (owned.is_element(i))
+      target.set(i, i, mean > 0.0 ? mean : 1.0);
+  target.compress(VectorOperation::insert);
+}
+
+} // namespace settlewell
