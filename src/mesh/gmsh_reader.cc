@@ -204,9 +204,13 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
     return read_gmsh_file(s.mesh_file->path, comm);
   GmshSession session;
   try {
-    if (s.section)
-      build_grid_model(section_plan(*s.section, s.analysis), "section");
-    else
+    if (s.section) {
+      std::vector<double> dig_levels;
+      for (const auto& stage : s.stages)
+        if (stage.dig_level)
+          dig_levels.push_back(*stage.dig_level);
+      build_grid_model(section_plan(*s.section, s.analysis, dig_levels), "section");
+    } else
       build_grid_model(box_plan(*s.box), "box");
   } catch (const std::string& e) { // Gmsh 4.8 throws strings
     throw InputError(s.location_of(s.section ? "section" : "box") +

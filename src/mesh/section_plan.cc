@@ -82,11 +82,16 @@ std::vector<AxisInterval> x_intervals(const SectionFrame& f) {
                     s.mesh.growth);
 }
 
-std::vector<AxisInterval> y_intervals(const SectionFrame& f) {
+std::vector<AxisInterval> y_intervals(const SectionFrame& f,
+                                      const std::vector<double>& dig_levels) {
   const Section& s = f.s;
   std::vector<double> points{s.bottom, s.ground_surface, s.excavation_level()};
   std::vector<GradingFeature> features{{s.ground_surface, s.mesh.near_wall},
                                        {s.excavation_level(), s.mesh.near_wall}};
+  for (const double level : dig_levels) {
+    points.push_back(level);
+    features.push_back({level, s.mesh.near_wall});
+  }
   for (const auto& layer : s.layers) {
     points.push_back(layer.top);
     features.push_back({layer.top, s.mesh.near_wall});
@@ -106,11 +111,13 @@ std::vector<AxisInterval> y_intervals(const SectionFrame& f) {
 
 } // namespace
 
-GridPlan section_plan(const Section& s, AnalysisType analysis) {
+GridPlan section_plan(const Section& s,
+                      AnalysisType analysis,
+                      const std::vector<double>& dig_levels) {
   const SectionFrame f = frame_of(s, analysis);
   GridPlan plan;
   plan.x = x_intervals(f);
-  plan.y = y_intervals(f);
+  plan.y = y_intervals(f, dig_levels);
   const std::vector<double> X = corner_coordinates(plan.x),
                             Y = corner_coordinates(plan.y);
   const double y_exc = s.excavation_level();

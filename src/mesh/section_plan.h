@@ -7,9 +7,12 @@
 
 namespace settlewell {
 
-/// The parametric excavation section: layers, the wall, the pit edge, well screens
-/// and the excavation level are block edges; physical groups as in section_names.
-GridPlan section_plan(const scenario::Section& section, AnalysisType analysis);
+/// The parametric excavation section: layers, the wall, the pit edge, well screens,
+/// the excavation level and every dig level are block edges; physical groups as in
+/// section_names.
+GridPlan section_plan(const scenario::Section& section,
+                      AnalysisType analysis,
+                      const std::vector<double>& dig_levels);
 
 /// The layered box: boundaries left, right, bottom, top; one block row per layer.
 GridPlan box_plan(const scenario::Box& box);

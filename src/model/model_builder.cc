@@ -250,6 +250,27 @@ void add_loads(const Scenario& s,
   }
 }
 
+/// The pit's digging: at the start of each stage that digs, the cells inside the
+/// walls whose centre lies above its dig level, released over its ramp.
+void add_excavation(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
+  if (!s.section)
+    return;
+  const double half_width = s.section->excavation_width / 2;
+  const bool whole_width =
+      !s.section->half_model && s.analysis != AnalysisType::axisymmetric;
+  for (std::size_t k = 0; k < s.stages.size(); ++k) {
+    if (!s.stages[k].dig_level)
+      continue;
+    const double level = *s.stages[k].dig_level;
+    const StageTimes& times = schedule.stages()[k];
+    setup.excavation.push_back(
+        {times.start, times.ramp_end, [=](const Point<2>& centre, types::material_id) {
+           const double x = whole_width ? std::abs(centre[0]) : centre[0];
+           return x < half_width && centre[1] > level;
+         }});
+  }
+}
+
 } // namespace
 
 std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh& mesh) {
@@ -285,8 +306,13 @@ Model build_model(const Scenario& s,
   BiotSetup& setup = model.setup;
   setup.analysis = s.analysis;
   setup.gamma_w = s.gamma_w;
-  for (const auto& [region, material] : region_materials(s, mesh))
+  for (const auto& [region, material] : region_materials(s, mesh)) {
     setup.materials[region] = s.materials.at(material).poroelastic;
+    setup.geostatic.unit_weights[region] = s.materials.at(material).unit_weight;
+  }
+  setup.geostatic.effective_stress = [&initial](const Point<2>& x, types::material_id r) {
+    return initial.effective_stress(x, r);
+  };
   setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
   setup.solver = s.numerics.solver;
   setup.solver_tolerance = s.numerics.tolerance;
@@ -295,6 +321,7 @@ Model build_model(const Scenario& s,
   add_hydraulic(s, mesh, initial, schedule, items, setup.conditions);
   add_mechanical(mesh, roles, setup.conditions);
   add_loads(s, mesh, schedule, setup.conditions);
+  add_excavation(s, schedule, setup);
   return model;
 }
 

@@ -38,6 +38,8 @@ std::string stage_changes(const Stage& st) {
     os << sep << "well " << well << ": " << target_text(target), sep = "; ";
   for (const auto& [b, head] : st.boundary_heads)
     os << sep << b << " head " << head << " m", sep = "; ";
+  if (st.dig_level)
+    os << sep << "dig to " << *st.dig_level << " m", sep = "; ";
   if (st.excavation_level_head)
     os << sep << "excavation level head " << *st.excavation_level_head << " m",
         sep = "; ";

@@ -92,6 +92,7 @@ const std::vector<KeySpec>& all_keys() {
     {"stages[].wells.<name>.discharge", "number", "m3/day", "-", "Target pumped discharge (per metre run in plane strain, per well in axisymmetric); 0 stops the well"},
     {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a fixed_head boundary"},
     {"stages[].excavation_level_head", "number", "m", "-", "Target head held along the final excavation level inside the pit"},
+    {"stages[].dig_level", "number", "m", "-", "Elevation the pit is dug to in this stage: the soil inside the walls above it is taken out at the stage's start and the forces it carried are released over the ramp"},
     {"stages[].loads[].boundary", "string", "", "\"ground_surface\"", "Boundary that carries the load"},
     {"stages[].loads[].pressure", "number", "kPa", "required", "Vertical surcharge (compressive positive)"},
     {"stages[].loads[].x_from", "number", "m", "required", "Start of the loaded strip"},

@@ -61,6 +61,24 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
   for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
     stage.boundary_heads[name] = b.number("head");
   });
+  if (r.has("dig_level")) {
+    if (!s.section)
+      r.fail("dig_level", "needs a [section] geometry");
+    stage.dig_level = r.number("dig_level");
+    const double previous = s.section->ground_surface;
+    double deepest = previous;
+    for (const auto& earlier : s.stages)
+      if (earlier.dig_level)
+        deepest = std::min(deepest, *earlier.dig_level);
+    if (!(*stage.dig_level < deepest))
+      r.fail("dig_level", "must lie below the ground surface and below the dig levels "
+                          "of the stages before (" +
+                              format_number(deepest) + " m)");
+    if (*stage.dig_level < s.section->excavation_level() - 1e-9)
+      r.fail("dig_level", "lies below the final excavation level (" +
+                              format_number(s.section->excavation_level()) +
+                              " m, section.excavation_depth)");
+  }
   if (r.has("excavation_level_head")) {
     if (!s.section)
       r.fail("excavation_level_head", "needs a [section] geometry");

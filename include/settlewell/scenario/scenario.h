@@ -121,6 +121,7 @@ struct Stage {
   std::map<std::string, Target> wells;          ///< by well name
   std::map<std::string, double> boundary_heads; ///< by boundary name, m
   std::optional<double> excavation_level_head;  ///< m
+  std::optional<double> dig_level; ///< elevation the pit is dug to in this stage, m
   std::vector<SurfaceLoad> loads;
   TimeSteps steps;
 };
