@@ -250,9 +250,31 @@ void add_loads(const Scenario& s,
   }
 }
 
+/// The water level in the pit at time t: the stage's pit_water_level, else the
+/// level the pit has been dug to (the ground surface before any dig).
+TimeFunction pit_water_head(const Scenario& s, const Schedule& schedule) {
+  std::vector<std::pair<double, double>> level; // (stage end, level)
+  double dug_to = s.section->ground_surface;
+  for (std::size_t k = 0; k < s.stages.size(); ++k) {
+    dug_to = s.stages[k].dig_level.value_or(dug_to);
+    level.emplace_back(schedule.stages()[k].end,
+                       s.stages[k].pit_water_level.value_or(dug_to));
+  }
+  return [level](double t) {
+    for (const auto& [end, h] : level)
+      if (t <= end * (1 + 1e-12))
+        return h;
+    return level.back().second;
+  };
+}
+
 /// The pit's digging: at the start of each stage that digs, the cells inside the
-/// walls whose centre lies above its dig level, released over its ramp.
-void add_excavation(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
+/// walls whose centre lies above its dig level, released over its ramp; the
+/// surface it exposes drains to the pit, and its water is pumped.
+void add_excavation(const Scenario& s,
+                    const Schedule& schedule,
+                    BiotSetup& setup,
+                    std::vector<PumpedLine>& pumped) {
   if (!s.section)
     return;
   const double half_width = s.section->excavation_width / 2;
@@ -269,6 +291,10 @@ void add_excavation(const Scenario& s, const Schedule& schedule, BiotSetup& setu
            return x < half_width && centre[1] > level;
          }});
   }
+  if (setup.excavation.empty())
+    return;
+  setup.pit_water_head = pit_water_head(s, schedule);
+  pumped.push_back({"formation", "", true});
 }
 
 } // namespace
@@ -321,7 +347,7 @@ Model build_model(const Scenario& s,
   add_hydraulic(s, mesh, initial, schedule, items, setup.conditions);
   add_mechanical(mesh, roles, setup.conditions);
   add_loads(s, mesh, schedule, setup.conditions);
-  add_excavation(s, schedule, setup);
+  add_excavation(s, schedule, setup, model.pumped);
   return model;
 }
 

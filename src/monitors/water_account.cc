@@ -33,7 +33,8 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
   const double dt = view.step.dt;
   std::vector<double> values;
   for (const auto& p : pumped_) {
-    const double q = problem.outflow(p.line);
+    const double q =
+        p.drained_surface ? problem.drained_surface_outflow() : problem.outflow(p.line);
     volume_[p.label] += q * dt;
     stage_volume_[p.label][view.stage()] += q * dt;
     final_discharge_[p.label] = q;

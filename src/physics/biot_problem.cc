@@ -309,33 +309,58 @@ StepReport BiotProblem::advance_to(double t_new) {
   StepReport report;
   report.time = t_new;
   report.dt = dt;
-  Timer timer; // started: wall time of this process
+  report.drain_rounds = 0;
   m.old_solution = m.solution;
-  const bool dug = m.excavate(m.time);
-  make_constraints(m.constraint_inputs(), t_new, m.constraints);
-  const std::vector<bool> pressures_now = active_pressures(m.conditions, t_new);
-  report.new_matrix = dug || !(std::abs(dt - m.matrix_dt) <= 1e-12 * dt) ||
-                      pressures_now != m.matrix_pressures;
-  if (report.new_matrix)
-    m.assemble_matrix(dt);
-  m.assemble_rhs(t_new, dt);
-  report.assembly_seconds = timer.wall_time();
-  if (report.new_matrix) {
-    timer.restart();
-    m.solver->set_matrix(m.matrix,
-                         m.solver->needs_schur_approximation() ? &m.schur : nullptr);
-    m.matrix_dt = dt;
-    m.matrix_pressures = pressures_now;
-    report.factorisation_seconds = timer.wall_time();
+  bool new_geometry = m.excavate(m.time);
+  if (new_geometry)
+    m.find_exposed();
+  // A drained surface may need several solves until the set of draining dofs
+  // settles; without one, the loop runs once.
+  constexpr unsigned int max_drain_rounds = 30;
+  while (true) {
+    m.solve_step(t_new, dt, new_geometry, report);
+    new_geometry = false;
+    if (!m.update_draining(t_new, dt))
+      break;
+    if (report.drain_rounds == max_drain_rounds) {
+      report.drains_settled = false; // keeps the last solve
+      break;
+    }
   }
-
-  timer.restart();
-  report.iterations = m.solver->solve(m.rhs, m.owned_solution);
-  m.constraints.distribute(m.owned_solution);
-  m.solution = m.owned_solution;
-  report.solve_seconds = timer.wall_time();
   m.time = t_new;
   return report;
+}
+
+void BiotProblem::Impl::solve_step(double t_new,
+                                   double dt,
+                                   bool new_geometry,
+                                   StepReport& report) {
+  Timer timer; // started: wall time of this process
+  set_drain_values(t_new);
+  make_constraints(constraint_inputs(), t_new, constraints);
+  const std::vector<bool> pressures_now = active_pressures(conditions, t_new);
+  const bool new_matrix = new_geometry || !(std::abs(dt - matrix_dt) <= 1e-12 * dt) ||
+                          pressures_now != matrix_pressures ||
+                          Utilities::MPI::logical_or(draining != matrix_draining, comm);
+  if (new_matrix)
+    assemble_matrix(dt);
+  assemble_rhs(t_new, dt);
+  report.assembly_seconds += timer.wall_time();
+  if (new_matrix) {
+    timer.restart();
+    solver->set_matrix(matrix, solver->needs_schur_approximation() ? &schur : nullptr);
+    matrix_dt = dt;
+    matrix_pressures = pressures_now;
+    matrix_draining = draining;
+    report.new_matrix = true;
+    report.factorisation_seconds += timer.wall_time();
+  }
+  timer.restart();
+  report.iterations += solver->solve(rhs, owned_solution);
+  constraints.distribute(owned_solution);
+  solution = owned_solution;
+  report.solve_seconds += timer.wall_time();
+  ++report.drain_rounds;
 }
 
 double BiotProblem::time_matrix_vector_product(unsigned int repeats) const {

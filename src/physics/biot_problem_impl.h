@@ -30,8 +30,8 @@ struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
   ConstraintInputs constraint_inputs() const {
-    return {dof_handler, layout,   conditions,         plate,  setup.rigid_skeleton,
-            owned,       relevant, pressure_line_dofs, removed};
+    return {dof_handler, layout,   conditions,         plate,   setup.rigid_skeleton,
+            owned,       relevant, pressure_line_dofs, removed, drained_now};
   }
   /// Whether a cell is in the model (not excavated).
   bool in_model(const DoFHandler<2>::active_cell_iterator& cell) const {
@@ -55,8 +55,18 @@ struct BiotProblem::Impl {
                                 double t,
                                 double dt,
                                 Vector<double>& cell_rhs) const;
+  /// The unconstrained storage-equation residual (row times solution minus
+  /// right-hand side) of a solve at (t, dt), at the pressure dofs `wanted` keeps:
+  /// dt times the water leaving through each. Owned entries. Collective.
+  void storage_residual(double t,
+                        double dt,
+                        const std::function<bool(types::global_dof_index)>& wanted,
+                        LA::MPI::Vector& out) const;
+  /// Water leaving through a set of prescribed-pressure dofs in the last step, m^3/s.
   double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
   double prescribed_outflow(const FluxBoundary& flux) const;
+  /// One assembly and solve of the step to t_new (matrix rebuilt when needed).
+  void solve_step(double t_new, double dt, bool new_geometry, StepReport& report);
   void assemble_matrix(double dt);
   void assemble_rhs(double t_new, double dt);
   void add_face_terms(CellKernel& kernel,
@@ -104,6 +114,21 @@ struct BiotProblem::Impl {
     Vector<double> geostatic, carried;
   };
   std::vector<ReleasedCell> released;
+
+  // The drained surface that excavation exposes (drained_surface.cc).
+  /// Finds the pressure dofs on faces between cells in the model and removed cells.
+  void find_exposed();
+  /// The excess pressure at which a point of the surface drains at time t, kPa.
+  double drain_limit(const Point<2>& x, double t) const;
+  /// Sets drained_now to the draining dofs and their limits at time t.
+  void set_drain_values(double t);
+  /// Re-decides which exposed dofs drain from the solve at (t, dt): a draining dof
+  /// whose water would enter stops draining; a dry one above its limit drains.
+  /// Returns whether the set changed anywhere. Collective.
+  bool update_draining(double t, double dt);
+  std::map<types::global_dof_index, Point<2>> exposed; ///< locally relevant
+  std::set<types::global_dof_index> draining, matrix_draining;
+  std::map<types::global_dof_index, double> drained_now;
   /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).
   std::unordered_map<unsigned int, std::vector<std::pair<unsigned int, std::size_t>>>
       line_flux_faces;

@@ -231,8 +231,14 @@ void make_constraints(const ConstraintInputs& in,
   if (in.plate)
     add_plate(in, constraints);
   add_deactivated(in, constraints);
-  if (with_pressures)
+  if (with_pressures) {
     add_pressures(in, t, constraints);
+    for (const auto& [dof, value] : in.drained)
+      if (!constraints.is_constrained(dof)) {
+        constraints.add_line(dof);
+        constraints.set_inhomogeneity(dof, value);
+      }
+  }
   constraints.close();
 }
 

@@ -12,37 +12,52 @@ namespace settlewell {
 
 using namespace dealii;
 
-double
-BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
+void BiotProblem::Impl::storage_residual(
+    double t,
+    double dt,
+    const std::function<bool(types::global_dof_index)>& wanted,
+    LA::MPI::Vector& out) const {
   // The consistent flux: at a prescribed-pressure dof, the right-hand side of the
   // unconstrained storage-equation row minus the row times the solution is dt
   // times the water that leaves through that dof's share of the line.
+  out.reinit(owned, comm);
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
   FullMatrix<double> cell_matrix(n, n);
   Vector<double> cell_rhs(n), local(n), residual(n);
   std::vector<types::global_dof_index> dofs(n);
-  double total = 0.0;
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !in_model(cell))
       continue;
     cell->get_dof_indices(dofs);
-    if (std::none_of(dofs.begin(), dofs.end(),
-                     [&](auto d) { return line.count(d) != 0; }))
+    if (std::none_of(dofs.begin(), dofs.end(), wanted))
       continue;
     kernel.reinit(cell);
     cell_matrix = 0.0;
-    kernel.add_matrix(coefficients[cell->material_id()], matrix_dt, cell_matrix);
+    kernel.add_matrix(coefficients[cell->material_id()], dt, cell_matrix);
     cell_rhs = 0.0;
-    add_old_state_and_fluxes(kernel, cell, time, matrix_dt, cell_rhs);
+    add_old_state_and_fluxes(kernel, cell, t, dt, cell_rhs);
     cell->get_dof_values(solution, local);
     cell_matrix.vmult(residual, local);
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
-          line.count(dofs[i]))
-        total += residual(i);
+          wanted(dofs[i]))
+        out(dofs[i]) += residual(i);
   }
+  out.compress(VectorOperation::add);
+}
+
+double
+BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
+  LA::MPI::Vector residual;
+  storage_residual(
+      time, matrix_dt, [&](types::global_dof_index d) { return line.count(d) != 0; },
+      residual);
+  double total = 0.0;
+  for (const auto d : line)
+    if (owned.is_element(d))
+      total += residual(d);
   return -Utilities::MPI::sum(total, comm) / matrix_dt;
 }
 
@@ -141,11 +156,17 @@ double BiotProblem::net_outflow() const {
   for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
                                               m.dof_handler, m.layout, m.time))
     all.insert(set.begin(), set.end());
+  all.insert(m.draining.begin(), m.draining.end());
   double total = m.reaction_outflow(all);
   for (const auto& flux : m.conditions.fluxes)
     if (flux.window.contains(m.time))
       total += m.prescribed_outflow(flux);
   return total;
+}
+
+double BiotProblem::drained_surface_outflow() const {
+  const Impl& m = *impl_;
+  return m.time > 0.0 ? m.reaction_outflow(m.draining) : 0.0;
 }
 
 double BiotProblem::storage_gain() const {

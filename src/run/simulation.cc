@@ -33,20 +33,27 @@ bool is_root(MPI_Comm comm) {
 }
 
 std::vector<std::string>
-step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors) {
+step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors, bool digs) {
   std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
                              "new_matrix", "assembly_s", "factorisation_s", "solve_s",
                              "iterations"};
+  if (digs) // solves of the step until the drained surface's active set settled
+    h.push_back("drain_rounds");
   for (const auto& m : monitors)
     for (const auto& column : m->step_columns())
       h.push_back(column);
   return h;
 }
 
-std::vector<double> step_row(const StepReport& r, std::size_t number, std::size_t stage) {
-  return {double(number),          units::to_days(r.time),   units::to_days(r.dt),
-          double(stage + 1),       r.new_matrix ? 1.0 : 0.0, r.assembly_seconds,
-          r.factorisation_seconds, r.solve_seconds,          double(r.iterations)};
+std::vector<double>
+step_row(const StepReport& r, std::size_t number, std::size_t stage, bool digs) {
+  std::vector<double> row{
+      double(number),          units::to_days(r.time),   units::to_days(r.dt),
+      double(stage + 1),       r.new_matrix ? 1.0 : 0.0, r.assembly_seconds,
+      r.factorisation_seconds, r.solve_seconds,          double(r.iterations)};
+  if (digs)
+    row.push_back(double(r.drain_rounds));
+  return row;
 }
 
 } // namespace
@@ -105,7 +112,8 @@ void Simulation::Impl::start(const monitors::RunView& view) {
 
 void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
   TimerOutput::Scope part(timer, "monitors and output");
-  std::vector<double> row = step_row(view.step, view.step_number, view.stage());
+  std::vector<double> row = step_row(view.step, view.step_number, view.stage(),
+                                     !model.setup.excavation.empty());
   for (auto& m : monitors)
     for (const double v : m->after_step(view))
       row.push_back(v);
@@ -130,7 +138,8 @@ RunSummary Simulation::run(const RunOptions& options) {
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*m.context, dir, report, 0};
   m.start(view);
-  CsvFile steps(dir + "/steps.csv", step_header(m.monitors), m.comm);
+  CsvFile steps(dir + "/steps.csv",
+                step_header(m.monitors, !m.model.setup.excavation.empty()), m.comm);
   const auto& times = m.schedule.step_times();
   Progress progress(std::cerr, options.progress_in_place, times.size(),
                     options.show_progress && is_root(m.comm));

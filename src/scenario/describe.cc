@@ -40,6 +40,8 @@ std::string stage_changes(const Stage& st) {
     os << sep << b << " head " << head << " m", sep = "; ";
   if (st.dig_level)
     os << sep << "dig to " << *st.dig_level << " m", sep = "; ";
+  if (st.pit_water_level)
+    os << sep << "pit water at " << *st.pit_water_level << " m", sep = "; ";
   if (st.excavation_level_head)
     os << sep << "excavation level head " << *st.excavation_level_head << " m",
         sep = "; ";

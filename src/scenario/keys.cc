@@ -92,6 +92,7 @@ const std::vector<KeySpec>& all_keys() {
     {"stages[].wells.<name>.discharge", "number", "m3/day", "-", "Target pumped discharge (per metre run in plane strain, per well in axisymmetric); 0 stops the well"},
     {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a fixed_head boundary"},
     {"stages[].excavation_level_head", "number", "m", "-", "Target head held along the final excavation level inside the pit"},
+    {"stages[].pit_water_level", "number", "m", "the dig level", "Elevation of the water in the pit during the stage (a sump); the dug surface drains to it: water leaves where its pressure would be higher, none enters where it is lower"},
     {"stages[].dig_level", "number", "m", "-", "Elevation the pit is dug to in this stage: the soil inside the walls above it is taken out at the stage's start and the forces it carried are released over the ramp"},
     {"stages[].loads[].boundary", "string", "", "\"ground_surface\"", "Boundary that carries the load"},
     {"stages[].loads[].pressure", "number", "kPa", "required", "Vertical surcharge (compressive positive)"},

@@ -79,6 +79,13 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
                               format_number(s.section->excavation_level()) +
                               " m, section.excavation_depth)");
   }
+  if (r.has("pit_water_level")) {
+    if (!s.section)
+      r.fail("pit_water_level", "needs a [section] geometry");
+    stage.pit_water_level = r.number("pit_water_level");
+    if (*stage.pit_water_level > s.section->ground_surface)
+      r.fail("pit_water_level", "lies above the ground surface");
+  }
   if (r.has("excavation_level_head")) {
     if (!s.section)
       r.fail("excavation_level_head", "needs a [section] geometry");

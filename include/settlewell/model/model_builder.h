@@ -26,8 +26,9 @@ std::map<std::string, scenario::BoundarySpec> boundary_roles(const scenario::Sce
 /// A line whose outflow is pumped water (a well, or the excavation level when a
 /// head is held there), with the factor from discharge to outflow density.
 struct PumpedLine {
-  std::string label; ///< the well's name, or "excavation_level"
-  std::string line;  ///< the mesh line
+  std::string label;            ///< the well's name, "excavation_level" or "formation"
+  std::string line;             ///< the mesh line (none for the formation)
+  bool drained_surface = false; ///< the surface excavation exposes, draining to the pit
 };
 
 /// The Biot core's setup for a scenario: materials per region, the initial head,

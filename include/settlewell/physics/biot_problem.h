@@ -14,10 +14,13 @@ namespace settlewell {
 
 /// What one time step did.
 struct StepReport {
-  double time = 0.0;       ///< s, at the end of the step
-  double dt = 0.0;         ///< s
-  bool new_matrix = false; ///< the matrix was assembled and factorised in this step
-  unsigned int iterations = 0;
+  double time = 0.0;           ///< s, at the end of the step
+  double dt = 0.0;             ///< s
+  bool new_matrix = false;     ///< the matrix was assembled and factorised in this step
+  unsigned int iterations = 0; ///< of the linear solver (summed over the rounds)
+  unsigned int drain_rounds =
+      1;                      ///< solves until the drained surface's active set settled
+  bool drains_settled = true; ///< false: the round limit was reached
   double assembly_seconds = 0.0;      ///< matrix (if new) and right-hand side
   double factorisation_seconds = 0.0; ///< solver set-up for a new matrix
   double solve_seconds = 0.0;
@@ -49,6 +52,9 @@ public:
   /// Water leaving through every boundary and line with a condition during the
   /// last step, each prescribed dof counted once, m^3/s. Collective.
   double net_outflow() const;
+  /// Water leaving through the drained surface that excavation exposed, during the
+  /// last step (consistent flux), m^3/s. Collective.
+  double drained_surface_outflow() const;
   /// Water taken into storage during the last step, the integral of
   /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle). With
   /// net_outflow() * dt it closes the water balance. Collective.

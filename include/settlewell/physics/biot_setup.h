@@ -54,6 +54,11 @@ struct BiotSetup {
   /// Excavation in time order; needs `geostatic` (the state it releases).
   std::vector<ExcavationEvent> excavation;
   GeostaticState geostatic;
+  /// The water level in the pit (head, m) at time t. When set, the surface that
+  /// excavation exposes drains: the pore pressure there stays at or below the
+  /// pit's, gamma_w max(0, h_pit - y), water leaving where it would be higher and
+  /// none entering where it is lower (decided by an active set each step).
+  TimeFunction pit_water_head;
 
   /// automatic: direct up to `direct_limit` unknowns, iterative above. MUMPS
   /// with a reused factorisation beat the iterative solver at every size

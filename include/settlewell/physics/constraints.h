@@ -7,6 +7,7 @@
 #include <deal.II/dofs/dof_handler.h>
 #include <deal.II/lac/affine_constraints.h>
 
+#include <map>
 #include <optional>
 
 namespace settlewell {
@@ -46,6 +47,8 @@ struct ConstraintInputs {
   /// By active cell index: cells taken out by excavation (empty: none). Their dofs
   /// that no cell in the model shares are held at zero.
   const std::vector<bool>& removed;
+  /// Pressure dofs of a drained surface held at an excess pressure (kPa) now.
+  const std::map<dealii::types::global_dof_index, double>& drained;
 };
 
 /// The dofs of this process's removed cells that no cell in the model shares.

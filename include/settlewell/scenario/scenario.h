@@ -121,7 +121,8 @@ struct Stage {
   std::map<std::string, Target> wells;          ///< by well name
   std::map<std::string, double> boundary_heads; ///< by boundary name, m
   std::optional<double> excavation_level_head;  ///< m
-  std::optional<double> dig_level; ///< elevation the pit is dug to in this stage, m
+  std::optional<double> dig_level;       ///< elevation the pit is dug to in this stage, m
+  std::optional<double> pit_water_level; ///< elevation of the water in the pit, m
   std::vector<SurfaceLoad> loads;
   TimeSteps steps;
 };
