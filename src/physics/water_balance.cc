@@ -58,7 +58,7 @@ BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& lin
   for (const auto d : line)
     if (owned.is_element(d))
       total += residual(d);
-  return -Utilities::MPI::sum(total, comm) / matrix_dt;
+  return 0.0 - Utilities::MPI::sum(total, comm) / matrix_dt; // no "-0"
 }
 
 double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {

@@ -41,6 +41,10 @@ const std::vector<VerificationCase>& all_cases() {
        "the top 2.4 m of a layered column dug away at once: undrained pore pressure, "
        "the clay's swelling against time, the drained heave of each layer",
        run_excavation_column},
+      {"drained-formation",
+       "steady seepage through a dug column whose floor drains to the pit one way: "
+       "upward flow leaves at the pit's pressure, downward drainage seals the floor",
+       run_drained_formation},
   };
   return cases;
 }
