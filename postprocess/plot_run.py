@@ -54,7 +54,8 @@ def read_csv(path):
 
 
 def numbers(rows, key):
-    return [float(r[key]) for r in rows]
+    """A column as numbers; an empty cell (not evaluated) is NaN."""
+    return [float(r[key]) if r[key] != "" else math.nan for r in rows]
 
 
 def series(run):

@@ -34,7 +34,8 @@ def main():
     lines = defaultdict(list)
     for r in rows:
         label = ", ".join(f"{k} = {float(r[k]):g}" for k in others)
-        lines[label].append((float(r[x_key]), float(r[y_key])))
+        # An empty cell is a result that was not evaluated for the variant.
+        lines[label].append((float(r[x_key]), float(r[y_key]) if r[y_key] != "" else float("nan")))
     fig, ax = plt.subplots(figsize=(7, 4))
     for label, points in sorted(lines.items()):
         points.sort()

@@ -29,21 +29,19 @@ std::string variant_folder(const std::string& sweep_folder, std::size_t i) {
   return name.str();
 }
 
-/// The least of a factor over a list of check tables (-1 in results.toml means
-/// "not applicable" and is skipped; none applicable gives -1).
-double least_factor(const toml::array* list, const char* key) {
-  double least = -1.0;
+/// The least of a factor over a list of check tables (infinite: nothing drives
+/// it; words such as "not evaluated" are skipped; none at all: empty).
+std::optional<double> least_factor(const toml::array* list, const char* key) {
+  std::optional<double> least;
   if (list != nullptr)
-    for (const auto& node : *list) {
-      const double f = (*node.as_table())[key].value_or(-1.0);
-      if (f >= 0.0 && (least < 0.0 || f < least))
-        least = f;
-    }
+    for (const auto& node : *list)
+      if (const auto f = (*node.as_table())[key].value<double>())
+        least = least ? std::min(*least, *f) : *f;
   return least;
 }
 
 /// The headline results of one variant, in the order of sweep_result_columns().
-std::vector<double> variant_results(const std::string& run_folder) {
+std::vector<std::optional<double>> variant_results(const std::string& run_folder) {
   const toml::table r = toml::parse_file(run_folder + "/results.toml");
   double neighbour_settlement = 0.0, category = 0.0, discharge = 0.0, volume = 0.0;
   if (const auto* ns = r["neighbours"].as_array())
@@ -60,7 +58,7 @@ std::vector<double> variant_results(const std::string& run_folder) {
   const auto base = r["base_stability"];
   return {neighbour_settlement,
           category,
-          base["piping"]["least"].value_or(-1.0),
+          base["piping"]["least"].value<double>(),
           least_factor(base["heave"].as_array(), "least"),
           least_factor(base["uplift"].as_array(), "at_end"),
           discharge,
@@ -79,12 +77,12 @@ void write_summary(const scenario::SweepSpec& sweep,
     header.push_back(c);
   CsvFile table(folder + "/sweep_summary.csv", header, MPI_COMM_SELF);
   for (std::size_t i = 0; i < scenario::variant_count(sweep); ++i) {
-    std::vector<double> row{double(i)};
+    std::vector<std::optional<double>> row{double(i)};
     for (const double v : scenario::variant_values(sweep, i))
       row.push_back(v);
-    for (const double v : variant_results(variant_folder(folder, i) + "/run"))
+    for (const auto& v : variant_results(variant_folder(folder, i) + "/run"))
       row.push_back(v);
-    table.row(row);
+    table.row_with_gaps(row);
   }
   log << "wrote " << folder << "/sweep_summary.csv\n";
   if (sweep.chart_x.empty())

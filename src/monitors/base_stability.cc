@@ -19,6 +19,7 @@ using units::to_days;
 namespace {
 
 constexpr unsigned int n_line_samples = 40;
+const char* const not_dug = "the pit is not dug yet (no stage has reached a dig_level)";
 
 /// Midpoints of n equal parts of [a, b] at elevation y.
 std::vector<Point<2>> along(double a, double b, double y) {
@@ -36,202 +37,306 @@ std::pair<double, double> pit_span(const scenario::Section& s, AnalysisType anal
   return {s.half_model ? 0.0 : -half, half};
 }
 
-double mean_head(const SamplePoints& p, const RunView& view) {
-  double h = 0.0;
-  for (const auto& v : p.evaluate(view.run.problem, view.run.derivation))
-    h += v.head / p.points().size();
-  return h;
-}
-
-std::vector<std::string> csv_header(const BaseState& b) {
-  std::vector<std::string> h{"time_days", "exit_gradient", "exit_x_m",
-                             "critical_gradient", "piping_factor"};
-  for (const auto& heave : b.heave) {
-    h.push_back("heave_excess_head_" + heave.side + "_m");
-    h.push_back("heave_factor_" + heave.side);
+/// The mean head of a line of samples, by area in axisymmetric (weights r).
+double mean_head(const SamplePoints& p, const RunView& view, bool axisymmetric) {
+  double sum = 0.0, weights = 0.0;
+  const auto values = p.evaluate(view.run.problem, view.run.derivation);
+  for (std::size_t i = 0; i < values.size(); ++i) {
+    const double w = axisymmetric ? p.points()[i][0] : 1.0;
+    sum += w * values[i].head, weights += w;
   }
-  for (const auto& u : b.uplift) {
-    h.push_back("uplift_pore_pressure_" + u.layer + "_kPa");
-    h.push_back("uplift_factor_" + u.layer);
-  }
-  return h;
+  return sum / weights;
 }
 
-std::vector<double> csv_row(const BaseState& b) {
-  std::vector<double> row{to_days(b.time), b.exit_gradient, b.exit_x, b.critical_gradient,
-                          b.piping_factor};
-  for (const auto& heave : b.heave)
-    row.insert(row.end(), {heave.mean_excess_head, heave.factor});
-  for (const auto& u : b.uplift)
-    row.insert(row.end(), {u.pore_pressure, u.factor});
-  return row;
+/// The least of some factors (none evaluated: empty).
+Factor least_of(const std::vector<Factor>& factors) {
+  Factor least;
+  for (const auto& f : factors)
+    if (f && (!least || *f < *least))
+      least = f;
+  return least;
 }
 
-/// TOML has no infinity that every reader takes; a factor with nothing driving
-/// the failure is written as -1 and read as "not applicable".
-double factor_value(double f) {
-  return std::isfinite(f) ? f : -1.0;
+void insert_factor(toml::table& t, const std::string& key, const Factor& f) {
+  if (f)
+    t.insert(key, *f);
+  else
+    t.insert(key, "not evaluated");
 }
 
-/// A factor of safety over the output times: its least value, its value at the
-/// end, and the first time after which it stays at or above its limit (the time
-/// from which the base could be dug to the final level as far as this check goes).
-toml::table factor_history(const std::vector<double>& times,
-                           const std::vector<double>& factors,
-                           double limit) {
-  std::size_t worst = 0;
-  for (std::size_t i = 1; i < factors.size(); ++i)
-    if (factors[i] < factors[worst])
+/// A factor over the output times at which it was evaluated: its least value and
+/// when, its value at the last output time, and the first time after which it
+/// stays at or above its limit (the time from which the base holds as far as this
+/// check goes). +inf stands for a factor with nothing driving the failure.
+toml::table factor_history(const std::vector<BaseState>& history,
+                           const std::function<Factor(const BaseState&)>& factor,
+                           double limit,
+                           const std::string& reason) {
+  toml::table t{{"limit", limit}};
+  std::optional<std::size_t> worst;
+  std::optional<double> holds_from;
+  bool holds = true;
+  for (std::size_t i = history.size(); i-- > 0;) {
+    const Factor f = factor(history[i]);
+    if (!f)
+      continue;
+    if (!worst || *f < *factor(history[*worst]))
       worst = i;
-  double holds_from = -1.0;
-  for (std::size_t i = factors.size(); i-- > 0;) {
-    if (factors[i] < limit)
-      break;
-    holds_from = to_days(times[i]);
+    holds = holds && *f >= limit;
+    if (holds)
+      holds_from = to_days(history[i].time);
   }
-  return toml::table{{"least", factor_value(factors[worst])},
-                     {"least_at_days", to_days(times[worst])},
-                     {"at_end", factor_value(factors.back())},
-                     {"limit", limit},
-                     {"holds_from_days", holds_from}};
+  if (!worst) {
+    t.insert("evaluated", false);
+    t.insert("reason", reason);
+    return t;
+  }
+  t.insert("evaluated", true);
+  t.insert("least", *factor(history[*worst]));
+  t.insert("least_at_days", to_days(history[*worst].time));
+  const Factor last = factor(history.back());
+  if (last)
+    t.insert("at_end", *last);
+  else
+    t.insert("at_end", "not evaluated");
+  if (holds_from)
+    t.insert("holds_from_days", *holds_from);
+  else
+    t.insert("holds_from_days", "never");
+  return t;
 }
 
 } // namespace
 
+toml::array BaseStability::stage_table(const RunView& view) const {
+  toml::array stages;
+  const auto& schedule = view.run.schedule.stages();
+  for (const auto& stage : schedule) {
+    std::vector<Factor> piping, heave, uplift;
+    for (const auto& b : history_) {
+      if (!(b.time > stage.start && b.time <= stage.end * (1 + 1e-12)))
+        continue;
+      piping.push_back(b.piping);
+      for (const auto& h : b.heave)
+        heave.push_back(h.factor);
+      for (const auto& u : b.uplift)
+        uplift.push_back(u.factor);
+    }
+    toml::table t{{"name", stage.name}};
+    const auto level = dig_level_at(stage.end);
+    if (level)
+      t.insert("dig_level_m", *level);
+    else
+      t.insert("dig_level_m", "not dug");
+    insert_factor(t, "least_piping_factor", least_of(piping));
+    insert_factor(t, "least_heave_factor", least_of(heave));
+    insert_factor(t, "least_uplift_factor", least_of(uplift));
+    stages.push_back(t);
+  }
+  return stages;
+}
+
 BaseStability::BaseStability(const RunContext& run)
     : scenario_(run.scenario)
     , section_(*run.scenario.section) {
-  const auto& s = scenario_;
-  const auto& sec = section_;
-  const BiotProblem& problem = run.problem;
-  const auto [x0, x1] = pit_span(sec, s.analysis);
-  const double y_exc = sec.excavation_level();
-  const double delta = 1e-6 * (sec.ground_surface - sec.bottom);
-  exit_points_.emplace(problem, along(x0, x1, y_exc - delta), "exit-gradient samples");
-  if (sec.wall) {
-    const double d = y_exc - sec.wall->toe;
-    const double half = sec.excavation_width / 2;
-    for (const double side : {1.0, -1.0}) {
-      if (!(side > 0 ? sec.wall->right : sec.wall->left))
-        continue;
-      const double a = side > 0 ? std::max(x0, half - d / 2) : -half;
-      const double b = side > 0 ? half : std::min(x1, -half + d / 2);
-      prisms_.emplace_back(
-          side > 0 ? "right" : "left",
-          std::make_pair(
-              SamplePoints(problem, along(a, b, sec.wall->toe), "heave prism base"),
-              SamplePoints(problem, along(a, b, y_exc), "heave prism top")));
-    }
+  if (section_.wall) {
+    if (section_.wall->right)
+      sides_.push_back("right");
+    if (section_.wall->left)
+      sides_.push_back("left");
   }
-  for (std::size_t k = 0; k + 1 < sec.layers.size(); ++k) {
-    const double underside = sec.layers[k + 1].top;
-    const auto& m = s.materials.at(sec.layers[k].material).poroelastic;
-    const auto& below = s.materials.at(sec.layers[k + 1].material).poroelastic;
-    if (underside < y_exc && m.conductivity_y <= s.limits.low_permeability &&
-        below.conductivity_y > s.limits.low_permeability)
-      uplift_lines_.emplace_back(
-          sec.layers[k], SamplePoints(problem, along(x0, x1, underside), "uplift line"));
+  const auto& layers = section_.layers;
+  const double low_k = scenario_.limits.low_permeability;
+  for (std::size_t k = 0; k + 1 < layers.size(); ++k) {
+    const auto& m = scenario_.materials.at(layers[k].material).poroelastic;
+    const auto& below = scenario_.materials.at(layers[k + 1].material).poroelastic;
+    if (m.conductivity_y <= low_k && below.conductivity_y > low_k)
+      uplift_layers_.push_back(k);
   }
+  for (std::size_t k = 0; k < scenario_.stages.size(); ++k)
+    if (scenario_.stages[k].dig_level)
+      digs_.emplace_back(run.schedule.stages()[k].start, *scenario_.stages[k].dig_level);
 }
 
-BaseState BaseStability::evaluate(const RunView& view) const {
+std::optional<double> BaseStability::dig_level_at(double t) const {
+  // Cells leave the model in the first step after their stage starts.
+  std::optional<double> level;
+  for (const auto& [start, dig] : digs_)
+    if (start < t * (1 - 1e-12))
+      level = dig;
+  return level;
+}
+
+const BaseStability::Samples& BaseStability::samples_at(double dig,
+                                                        const BiotProblem& problem) {
+  const auto found = samples_.find(dig);
+  if (found != samples_.end())
+    return found->second;
+  Samples& s = samples_[dig];
   const auto& sec = section_;
-  const double gw = scenario_.gamma_w;
-  const double y_exc = sec.excavation_level();
+  const auto [x0, x1] = pit_span(sec, scenario_.analysis);
+  const double delta = 1e-6 * (sec.ground_surface - sec.bottom);
+  s.exit.emplace(problem, along(x0, x1, dig - delta), "exit-gradient samples");
+  const double half = sec.excavation_width / 2;
+  for (const auto& side : sides_) {
+    // Terzaghi's prism: d/2 wide beside the toe, or as wide as the pit (a shaft's
+    // whole floor) when that is narrower.
+    const double d = std::max(dig - sec.wall->toe, 0.0);
+    const double a = side == "right" ? std::max(x0, half - d / 2) : -half;
+    const double b = side == "right" ? half : std::min(x1, -half + d / 2);
+    s.prism_widths.push_back(b - a);
+    s.prisms.emplace_back(
+        SamplePoints(problem, along(a, b, sec.wall->toe), "heave prism base"),
+        SamplePoints(problem, along(a, b, dig), "heave prism top"));
+  }
+  for (const std::size_t k : uplift_layers_) {
+    const double underside = sec.layers[k + 1].top;
+    if (underside < dig)
+      s.uplift_lines.emplace_back(std::in_place, problem, along(x0, x1, underside),
+                                  "uplift line");
+    else
+      s.uplift_lines.emplace_back(std::nullopt);
+  }
+  return s;
+}
+
+BaseState BaseStability::evaluate(const RunView& view) {
   BaseState b;
   b.time = view.time();
-  const auto exits = exit_points_->evaluate(view.run.problem, view.run.derivation);
+  b.dig_level = dig_level_at(b.time);
+  const auto& sec = section_;
+  for (const auto& side : sides_)
+    b.heave.push_back({side, 0.0, 0.0, 0.0, std::nullopt});
+  for (const std::size_t k : uplift_layers_)
+    b.uplift.push_back(
+        {sec.layers[k].name, sec.layers[k + 1].top, 0.0, 0.0, std::nullopt});
+  if (!b.dig_level)
+    return b;
+  const double dig = *b.dig_level;
+  const Samples& s = samples_at(dig, view.run.problem);
+  const double gw = scenario_.gamma_w;
+  const bool axisymmetric = scenario_.analysis == AnalysisType::axisymmetric;
+  const auto exits = s.exit->evaluate(view.run.problem, view.run.derivation);
   b.exit_gradient = -std::numeric_limits<double>::infinity();
   for (std::size_t i = 0; i < exits.size(); ++i)
     if (-exits[i].gradient_y > b.exit_gradient) {
       b.exit_gradient = -exits[i].gradient_y; // upward flow: head falls upward
-      b.exit_x = exit_points_->points()[i][0];
+      b.exit_x = s.exit->points()[i][0];
     }
-  const auto& base_layer = layer_at(sec.layers, y_exc - 1e-6);
+  const auto& floor_layer = layer_at(sec.layers, dig - 1e-6);
   b.critical_gradient = checks::critical_gradient(
-      scenario_.materials.at(base_layer.material).unit_weight, gw);
-  b.piping_factor = checks::piping_factor(b.critical_gradient, b.exit_gradient);
+      scenario_.materials.at(floor_layer.material).unit_weight, gw);
+  b.piping = checks::piping_factor(b.critical_gradient, b.exit_gradient);
   auto saturated = [&](const scenario::Layer& l) {
     return scenario_.materials.at(l.material).unit_weight;
   };
   auto submerged = [&](const scenario::Layer& l) { return saturated(l) - gw; };
-  for (const auto& [side, samples] : prisms_) {
-    BaseState::Heave h;
-    h.side = side;
-    h.depth = y_exc - sec.wall->toe;
-    h.mean_excess_head = mean_head(samples.first, view) - mean_head(samples.second, view);
+  for (std::size_t i = 0; i < b.heave.size(); ++i) {
+    auto& h = b.heave[i];
+    h.depth = dig - sec.wall->toe;
+    h.width = s.prism_widths[i];
+    if (!(h.depth > 0.0))
+      continue; // the toe is at or above the floor: no prism
+    h.mean_excess_head = mean_head(s.prisms[i].first, view, axisymmetric) -
+                         mean_head(s.prisms[i].second, view, axisymmetric);
     const double gamma_sub =
-        integrate_layers(sec.layers, sec.bottom, sec.wall->toe, y_exc, submerged) /
-        h.depth;
+        integrate_layers(sec.layers, sec.bottom, sec.wall->toe, dig, submerged) / h.depth;
     h.factor = checks::heave_factor(gamma_sub, h.depth, h.mean_excess_head, gw);
-    b.heave.push_back(h);
   }
-  for (const auto& [layer, samples] : uplift_lines_) {
-    BaseState::Uplift u;
-    u.layer = layer.name;
-    u.underside = samples.points().front()[1];
-    u.overburden =
-        integrate_layers(sec.layers, sec.bottom, u.underside, y_exc, saturated);
+  for (std::size_t i = 0; i < b.uplift.size(); ++i) {
+    if (!s.uplift_lines[i])
+      continue; // the layer's underside is at or above the floor
+    auto& u = b.uplift[i];
+    u.overburden = integrate_layers(sec.layers, sec.bottom, u.underside, dig, saturated);
     u.pore_pressure = -std::numeric_limits<double>::infinity();
-    for (const auto& v : samples.evaluate(view.run.problem, view.run.derivation))
+    for (const auto& v :
+         s.uplift_lines[i]->evaluate(view.run.problem, view.run.derivation))
       u.pore_pressure = std::max(u.pore_pressure, v.pore_pressure);
     u.factor = checks::uplift_factor(u.overburden, u.pore_pressure);
-    b.uplift.push_back(u);
   }
   return b;
 }
 
 void BaseStability::start(const RunView& view) {
-  folder_ = view.folder + "/checks";
+  std::vector<std::string> header{"time_days", "dig_level_m",       "exit_gradient",
+                                  "exit_x_m",  "critical_gradient", "piping_factor"};
+  for (const auto& side : sides_)
+    header.insert(header.end(),
+                  {"heave_excess_head_" + side + "_m", "heave_factor_" + side});
+  for (const std::size_t k : uplift_layers_) {
+    const auto& name = section_.layers[k].name;
+    header.insert(header.end(),
+                  {"uplift_pore_pressure_" + name + "_kPa", "uplift_factor_" + name});
+  }
+  const std::string folder = view.folder + "/checks";
   if (dealii::Utilities::MPI::this_mpi_process(view.comm()) == 0)
-    std::filesystem::create_directories(folder_);
+    std::filesystem::create_directories(folder);
+  table_.emplace(folder + "/base_stability.csv", header, view.comm());
 }
 
 void BaseStability::at_output_time(const RunView& view) {
-  history_.push_back(evaluate(view));
-  if (!table_)
-    table_.emplace(folder_ + "/base_stability.csv", csv_header(history_.back()),
-                   view.comm());
-  table_->row(csv_row(history_.back()));
+  const BaseState b = evaluate(view);
+  history_.push_back(b);
+  // Cells of checks that are not evaluated at this time stay empty.
+  std::vector<std::optional<double>> row{to_days(b.time), b.dig_level};
+  if (b.dig_level)
+    row.insert(row.end(), {b.exit_gradient, b.exit_x, b.critical_gradient});
+  else
+    row.insert(row.end(), 3, std::nullopt);
+  row.push_back(b.piping);
+  for (const auto& h : b.heave) {
+    row.push_back(h.factor ? std::optional<double>(h.mean_excess_head) : std::nullopt);
+    row.push_back(h.factor);
+  }
+  for (const auto& u : b.uplift) {
+    row.push_back(u.factor ? std::optional<double>(u.pore_pressure) : std::nullopt);
+    row.push_back(u.factor);
+  }
+  table_->row_with_gaps(row);
 }
 
-void BaseStability::finish(const RunView&, toml::table& results) {
+void BaseStability::finish(const RunView& view, toml::table& results) {
   if (history_.empty())
     return;
   const auto& limits = scenario_.limits;
-  std::vector<double> times, piping;
-  for (const auto& b : history_)
-    times.push_back(b.time), piping.push_back(b.piping_factor);
-  const auto& last = history_.back();
-  toml::table t{{"piping", factor_history(times, piping, limits.piping_factor)},
-                {"exit_gradient_at_end", last.exit_gradient},
-                {"exit_x_at_end_m", last.exit_x},
-                {"critical_gradient", last.critical_gradient}};
-  // The history of the i-th entry of a per-time list (heave sides, uplift layers).
-  auto history_of = [&](auto member, std::size_t i, double limit) {
-    std::vector<double> f;
-    for (const auto& b : history_)
-      f.push_back(((b.*member)[i]).factor);
-    return factor_history(times, f, limit);
-  };
+  const BaseState& last = history_.back();
+  toml::table t{{"piping", factor_history(
+                               history_, [](const BaseState& b) { return b.piping; },
+                               limits.piping_factor, not_dug)}};
+  if (last.dig_level) {
+    t.insert("dig_level_at_end_m", *last.dig_level);
+    t.insert("exit_gradient_at_end", last.exit_gradient);
+    t.insert("exit_x_at_end_m", last.exit_x);
+    t.insert("critical_gradient", last.critical_gradient);
+  } else {
+    t.insert("dig_level_at_end_m", "not dug");
+  }
   toml::array heave, uplift;
   for (std::size_t i = 0; i < last.heave.size(); ++i) {
-    toml::table h = history_of(&BaseState::heave, i, limits.heave_factor);
+    toml::table h = factor_history(
+        history_, [i](const BaseState& b) { return b.heave[i].factor; },
+        limits.heave_factor,
+        last.dig_level ? "the wall toe is not below the dig level" : not_dug);
     h.insert("side", last.heave[i].side);
-    h.insert("depth_m", last.heave[i].depth);
+    h.insert("depth_at_end_m", last.heave[i].depth);
+    h.insert("width_at_end_m", last.heave[i].width);
     h.insert("mean_excess_head_at_end_m", last.heave[i].mean_excess_head);
     heave.push_back(h);
   }
   for (std::size_t i = 0; i < last.uplift.size(); ++i) {
-    toml::table u = history_of(&BaseState::uplift, i, limits.uplift_factor);
+    toml::table u = factor_history(
+        history_, [i](const BaseState& b) { return b.uplift[i].factor; },
+        limits.uplift_factor,
+        last.dig_level ? "the layer's underside is not below the dig level" : not_dug);
     u.insert("layer", last.uplift[i].layer);
     u.insert("underside_m", last.uplift[i].underside);
-    u.insert("overburden_kPa", last.uplift[i].overburden);
+    u.insert("overburden_at_end_kPa", last.uplift[i].overburden);
     u.insert("pore_pressure_at_end_kPa", last.uplift[i].pore_pressure);
     uplift.push_back(u);
   }
   t.insert("heave", heave);
   t.insert("uplift", uplift);
+  t.insert("stages", stage_table(view));
   results.insert("base_stability", t);
 }
 

@@ -1,37 +1,45 @@
 #pragma once
 
-// Private to src/monitors: the factors of safety of the excavation base at every
-// output time (checks/base_stability.csv) and their histories (results.toml).
+// Private to src/monitors: the factors of safety of the excavation base at the
+// level the pit is dug to, at every output time (checks/base_stability.csv), their
+// histories and each stage's least values (results.toml).
 #include "settlewell/monitors/monitor.h"
 #include "settlewell/output/csv_file.h"
 #include "settlewell/output/samples.h"
 
+#include <map>
 #include <optional>
 
 namespace settlewell::monitors {
 
-/// Base stability at one time (a section only).
+/// A factor of safety at one time: empty when it is not evaluated (the reason is
+/// said beside it); +infinity when nothing drives the failure.
+using Factor = std::optional<double>;
+
+/// Base stability at one time, with the pit as dug then.
 struct BaseState {
-  double time = 0.0;          ///< s
-  double exit_gradient = 0.0; ///< largest upward gradient below the base
-  double exit_x = 0.0;        ///< where, m
+  double time = 0.0;               ///< s
+  std::optional<double> dig_level; ///< m; empty: not dug yet
+  double exit_gradient = 0.0;      ///< largest upward gradient below the floor
+  double exit_x = 0.0;             ///< where, m
   double critical_gradient = 0.0;
-  double piping_factor = 0.0;
+  Factor piping;
   struct Heave {
     std::string side;              ///< "right" or "left"
-    double depth = 0.0;            ///< embedment below the excavation level, m
+    double depth = 0.0;            ///< embedment below the dig level, m
+    double width = 0.0;            ///< of the prism, m
     double mean_excess_head = 0.0; ///< m
-    double factor = 0.0;
+    Factor factor;
   };
-  std::vector<Heave> heave;
+  std::vector<Heave> heave; ///< one per wall side
   struct Uplift {
     std::string layer;
     double underside = 0.0;     ///< elevation, m
-    double overburden = 0.0;    ///< kPa, from the excavation level down
+    double overburden = 0.0;    ///< kPa, from the dig level down
     double pore_pressure = 0.0; ///< kPa, largest along the underside in the pit
-    double factor = 0.0;
+    Factor factor;
   };
-  std::vector<Uplift> uplift;
+  std::vector<Uplift> uplift; ///< one per low-permeability layer over a permeable one
 };
 
 class BaseStability : public Monitor {
@@ -43,15 +51,26 @@ public:
   void finish(const RunView& view, toml::table& results) override;
 
 private:
-  BaseState evaluate(const RunView& view) const;
+  /// Where the checks sample for one dig level.
+  struct Samples {
+    std::optional<SamplePoints> exit;
+    std::vector<std::pair<SamplePoints, SamplePoints>> prisms; ///< base, top per side
+    std::vector<double> prism_widths;
+    std::vector<std::optional<SamplePoints>> uplift_lines; ///< per candidate layer
+  };
+  const Samples& samples_at(double dig_level, const BiotProblem& problem);
+  std::optional<double> dig_level_at(double t) const;
+  BaseState evaluate(const RunView& view);
+  /// Per stage: the dig level at its end and the least factors of its output times.
+  toml::array stage_table(const RunView& view) const;
 
   const scenario::Scenario& scenario_;
   const scenario::Section& section_;
-  std::optional<SamplePoints> exit_points_;
-  std::vector<std::pair<std::string, std::pair<SamplePoints, SamplePoints>>> prisms_;
-  std::vector<std::pair<scenario::Layer, SamplePoints>> uplift_lines_;
+  std::vector<std::string> sides_;              ///< sides with a wall
+  std::vector<std::size_t> uplift_layers_;      ///< layer index of each candidate
+  std::vector<std::pair<double, double>> digs_; ///< (removal time, dig level)
+  std::map<double, Samples> samples_;
   std::vector<BaseState> history_;
-  std::string folder_;
   std::optional<CsvFile> table_;
 };
 

@@ -38,13 +38,22 @@ CsvFile::CsvFile(const std::string& path,
 
 void CsvFile::row(const std::vector<double>& values,
                   const std::vector<std::string>& labels) {
+  row_with_gaps(std::vector<std::optional<double>>(values.begin(), values.end()), labels);
+}
+
+void CsvFile::row_with_gaps(const std::vector<std::optional<double>>& values,
+                            const std::vector<std::string>& labels) {
   if (!out_)
     return;
   bool first = true;
   for (const auto& l : labels)
     *out_ << (first ? "" : ",") << csv_field(l), first = false;
-  for (const double v : values)
-    *out_ << (first ? "" : ",") << std::setprecision(9) << v, first = false;
+  for (const auto& v : values) {
+    *out_ << (first ? "" : ",");
+    if (v)
+      *out_ << std::setprecision(9) << *v;
+    first = false;
+  }
   *out_ << '\n' << std::flush;
 }
 

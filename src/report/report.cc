@@ -44,11 +44,16 @@ std::string text(const View& n) {
   return std::string(n.template value<std::string_view>().value_or(""));
 }
 
-/// A factor of safety and its flag; -1 in results.toml means nothing drives it.
-Cell factor_cell(double f, double limit) {
-  if (f < 0.0)
-    return {"not applicable", Flag::ok};
-  return {fixed(f, 2), f >= limit ? Flag::ok : Flag::attention};
+/// A factor of safety (a number, inf when nothing drives the failure, or the words
+/// "not evaluated") and its flag.
+template <typename View>
+Cell factor_cell(const View& node, double limit) {
+  const auto f = node.template value<double>();
+  if (!f)
+    return {text(node).empty() ? "not evaluated" : text(node), Flag::ok};
+  if (!std::isfinite(*f))
+    return {"∞ (nothing drives it)", Flag::ok};
+  return {fixed(*f, 2), *f >= limit ? Flag::ok : Flag::attention};
 }
 
 /// Runs the plotting script; returns "" or the reason it could not.
@@ -71,9 +76,11 @@ void cautions(Document& d) {
           {"Small strains, linear-elastic isotropic soil skeleton, Darcy flow with "
            "constant conductivity, full saturation (capillary saturation retained above "
            "the water table).",
-           "Dewatering only: the soil inside the walls stays in place; the base checks "
-           "are for the final excavation level as if the pit were dug to it at each "
-           "time.",
+           "The pit is dug as the stages say (stages[].dig_level): the soil above "
+           "each dig level leaves the model at the stage's start and the forces it "
+           "carried are released over the ramp; the dug surface drains to the pit's "
+           "water level. Soil that no stage digs stays in place, and the base checks "
+           "apply from the first dig on.",
            "A plane-strain section treats wells as rows (line sinks) and the pit as "
            "infinitely long; corners and 3D flow are not modelled.",
            "Damage categories are a preliminary screening and do not replace a "
@@ -198,43 +205,85 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
 }
 
+void base_stages_table(Section& s, const toml::table& b) {
+  const auto* stages = b["stages"].as_array();
+  if (stages == nullptr)
+    return;
+  Table t{{"stage", "dug to (m)", "least piping factor", "least heave factor",
+           "least uplift factor"},
+          {}};
+  const double piping = get(b["piping"]["limit"]);
+  const double heave = b["heave"][0]["limit"].value_or(0.0);
+  const double uplift = b["uplift"][0]["limit"].value_or(0.0);
+  for (const auto& node : *stages) {
+    const auto& st = *node.as_table();
+    const auto level = st["dig_level_m"].value<double>();
+    t.rows.push_back({{text(st["name"])},
+                      {level ? num(*level, 4) : text(st["dig_level_m"])},
+                      factor_cell(st["least_piping_factor"], piping),
+                      factor_cell(st["least_heave_factor"], heave),
+                      factor_cell(st["least_uplift_factor"], uplift)});
+  }
+  s.table(t);
+}
+
 void base_section(Document& d, const toml::table& r) {
   const auto* b = r["base_stability"].as_table();
   if (b == nullptr)
     return;
   Section& s = d.add("Base stability");
   s.paragraph(
-      "Each factor is for the final excavation level at each output time, as if the "
-      "pit were dug to it then. \"Holds from\" is the first day after which the "
-      "factor stays at or above its limit.");
+      "Each factor is for the level the pit is dug to at each output time, on the "
+      "field of that time with the pit as dug; a check that cannot apply (the pit not "
+      "dug yet, the wall toe or a layer's underside above the floor) says why. "
+      "\"Holds from\" is the first day after which the factor stays at or above its "
+      "limit.");
   Table t{{"check", "method", "least", "at the end", "limit", "holds from (day)"}, {}};
   auto row = [&](const std::string& name, const std::string& method,
                  const toml::table& f) {
     const double limit = get(f["limit"]);
-    const double holds = get(f["holds_from_days"], -1.0);
+    if (!f["evaluated"].value_or(false)) {
+      t.rows.push_back({{name},
+                        {method},
+                        {"not evaluated: " + text(f["reason"]), Flag::ok},
+                        {"-"},
+                        {fixed(limit, 2)},
+                        {"-"}});
+      return;
+    }
+    const auto holds = f["holds_from_days"].value<double>();
     t.rows.push_back(
         {{name},
          {method},
-         factor_cell(get(f["least"]), limit),
-         factor_cell(get(f["at_end"]), limit),
+         factor_cell(f["least"], limit),
+         factor_cell(f["at_end"], limit),
          {fixed(limit, 2)},
-         holds >= 0 ? Cell{num(holds, 6), Flag::ok} : Cell{"never", Flag::attention}});
+         holds ? Cell{num(*holds, 6), Flag::ok} : Cell{"never", Flag::attention}});
   };
-  row("piping at the base (exit gradient " + num(get((*b)["exit_gradient_at_end"])) +
-          " at the end, critical " + num(get((*b)["critical_gradient"])) + ")",
-      "i_c / i_exit, i_c = γ'/γw (Terzaghi 1922, 1943)", *(*b)["piping"].as_table());
+  const std::string exit =
+      (*b)["exit_gradient_at_end"].is_number()
+          ? " (exit gradient " + num(get((*b)["exit_gradient_at_end"])) +
+                " at the end, critical " + num(get((*b)["critical_gradient"])) + ")"
+          : "";
+  row("piping at the floor" + exit, "i_c / i_exit, i_c = γ'/γw (Terzaghi 1922, 1943)",
+      *(*b)["piping"].as_table());
   if (const auto* heave = (*b)["heave"].as_array())
     for (const auto& h : *heave)
-      row("heave beside the " + text((*h.as_table())["side"]) +
-              " wall toe (prism depth " + num(get((*h.as_table())["depth_m"])) + " m)",
-          "γ' d / (γw h_a) on the prism d × d/2 (Terzaghi 1943)", *h.as_table());
+      row("heave beside the " + text((*h.as_table())["side"]) + " wall toe (prism " +
+              num(get((*h.as_table())["depth_at_end_m"])) + " m deep, " +
+              num(get((*h.as_table())["width_at_end_m"])) + " m wide at the end)",
+          "γ' d / (γw h_a) on the prism d × d/2, or the whole floor when narrower "
+          "(Terzaghi 1943)",
+          *h.as_table());
   if (const auto* uplift = (*b)["uplift"].as_array())
     for (const auto& u : *uplift)
       row("uplift of " + text((*u.as_table())["layer"]) + " (underside " +
               num(get((*u.as_table())["underside_m"])) + " m)",
           "Σγt / u at the underside (common practice; Terzaghi, Peck & Mesri 1996)",
           *u.as_table());
-  s.table(t).image("plots/base_stability.png", "Factors of safety against time");
+  s.table(t);
+  base_stages_table(s, *b);
+  s.image("plots/base_stability.png", "Factors of safety against time");
 }
 
 void neighbours_section(Document& d, const toml::table& r) {

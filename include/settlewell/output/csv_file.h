@@ -4,6 +4,7 @@
 
 #include <fstream>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -18,6 +19,9 @@ public:
   /// The `labels` (text) first, then the numbers (9 significant digits).
   void row(const std::vector<double>& values,
            const std::vector<std::string>& labels = {});
+  /// The same with cells left empty where a value is missing (not evaluated).
+  void row_with_gaps(const std::vector<std::optional<double>>& values,
+                     const std::vector<std::string>& labels = {});
 
 private:
   std::unique_ptr<std::ofstream> out_;
