@@ -92,6 +92,10 @@ std::vector<AxisInterval> y_intervals(const SectionFrame& f,
     points.push_back(level);
     features.push_back({level, s.mesh.near_wall});
   }
+  for (const auto& prop : s.props) { // a node of the wall's face at each prop
+    points.push_back(prop.level);
+    features.push_back({prop.level, s.mesh.near_wall});
+  }
   for (const auto& layer : s.layers) {
     points.push_back(layer.top);
     features.push_back({layer.top, s.mesh.near_wall});

@@ -297,6 +297,35 @@ void add_excavation(const Scenario& s,
   pumped.push_back({"formation", "", true});
 }
 
+/// The props as springs on the wall's inner face: per wall side in plane strain
+/// (pushing the wall away from the pit), a ring in a shaft (radial stiffness
+/// 2 pi EA / R and preload 2 pi R p for the full circle).
+void add_props(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
+  if (!s.section)
+    return;
+  const auto& sec = *s.section;
+  const double half = sec.excavation_width / 2;
+  for (const auto& prop : sec.props) {
+    double from = 0.0;
+    for (std::size_t k = 0; k < s.stages.size(); ++k)
+      if (s.stages[k].name == prop.stage)
+        from = schedule.stages()[k].start;
+    if (s.analysis == AnalysisType::axisymmetric) {
+      setup.springs.push_back({"prop " + prop.name, Point<2>(half, prop.level), 0, 1.0,
+                               2 * units::pi * prop.stiffness / half,
+                               2 * units::pi * half * prop.preload, from});
+      continue;
+    }
+    if (sec.wall->right)
+      setup.springs.push_back({"prop " + prop.name, Point<2>(half, prop.level), 0, 1.0,
+                               prop.stiffness, prop.preload, from});
+    if (sec.wall->left)
+      setup.springs.push_back({"prop " + prop.name + " (left wall)",
+                               Point<2>(-half, prop.level), 0, -1.0, prop.stiffness,
+                               prop.preload, from});
+  }
+}
+
 } // namespace
 
 std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh& mesh) {
@@ -348,6 +377,7 @@ Model build_model(const Scenario& s,
   add_mechanical(mesh, roles, setup.conditions);
   add_loads(s, mesh, schedule, setup.conditions);
   add_excavation(s, schedule, setup, model.pumped);
+  add_props(s, schedule, setup);
   return model;
 }
 

@@ -4,6 +4,7 @@
 #include "field_series.h"
 #include "layer_stack.h"
 #include "neighbours.h"
+#include "prop_forces.h"
 #include "sampled_tables.h"
 #include "water_account.h"
 
@@ -18,6 +19,8 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   list.push_back(std::make_unique<Extremes>(run));
   if (run.scenario.section)
     list.push_back(std::make_unique<BaseStability>(run));
+  if (!run.problem.setup().springs.empty())
+    list.push_back(std::make_unique<PropForces>(run));
   list.push_back(std::make_unique<Neighbours>(run));
   if (layers_of(run.scenario) != nullptr) // a user's mesh has no layer stack
     list.push_back(std::make_unique<Columns>(run));

@@ -40,11 +40,15 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
     final_discharge_[p.label] = q;
     values.push_back(q * units::seconds_per_day);
   }
-  // Water balance of the step: what left plus what was stored must vanish.
-  const double net_outflow = problem.net_outflow();
+  // Water balance of the step: what left plus what was stored must vanish, relative
+  // to the water that crossed the boundaries (in plus out) or was stored: with the
+  // net outflow alone as the scale, a steady through-flow (in and out nearly equal)
+  // would turn round-off into a large relative error.
+  const auto exchange = problem.water_exchange();
+  const double net_outflow = exchange.net_outflow;
   const double out = net_outflow * dt;
   const double stored = problem.storage_gain();
-  const double scale = std::max({std::abs(out), std::abs(stored), 1e-30});
+  const double scale = std::max({exchange.gross * dt, std::abs(stored), 1e-30});
   const double error = std::abs(out + stored) / scale;
   worst_balance_ = std::max(worst_balance_, error);
   if (error > tolerance_ && !warned_) {

@@ -139,6 +139,7 @@ void BiotProblem::Impl::setup_dofs() {
     relevant.add_index(plate->master);
   }
   find_internal_lines();
+  locate_springs();
   // The pattern keeps the rows of prescribed pressures, so that conditions can be
   // switched on and off (wells that start pumping) without a new pattern.
   make_constraints(constraint_inputs(), 0.0, constraints, false);
@@ -191,6 +192,8 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
   matrix.compress(VectorOperation::add);
   if (with_schur)
     schur.compress(VectorOperation::add);
+  if (!setup.springs.empty())
+    add_spring_stiffness(matrix);
   if (!removed.empty()) {
     set_deactivated_diagonals(matrix);
     if (with_schur)
@@ -291,6 +294,7 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     }
   }
   add_release_loads(t_new, rhs);
+  add_spring_loads(rhs);
   rhs.compress(VectorOperation::add);
 }
 
@@ -312,6 +316,7 @@ StepReport BiotProblem::advance_to(double t_new) {
   report.drain_rounds = 0;
   m.old_solution = m.solution;
   bool new_geometry = m.excavate(m.time);
+  new_geometry = m.fit_springs(m.time) || new_geometry;
   if (new_geometry)
     m.find_exposed();
   // A drained surface may need several solves until the set of draining dofs

@@ -115,6 +115,19 @@ struct BiotProblem::Impl {
   };
   std::vector<ReleasedCell> released;
 
+  // Point springs, props (springs.cc).
+  /// Finds the dof of every spring (collective; throws if its node is missing).
+  void locate_springs();
+  /// Fits the springs whose time has come, at the displacement now. Returns whether
+  /// any was fitted.
+  bool fit_springs(double t);
+  void add_spring_stiffness(LA::MPI::SparseMatrix& target) const;
+  void add_spring_loads(LA::MPI::Vector& target) const;
+  /// A dof's value in the current solution, on every process. Collective.
+  double value_of(types::global_dof_index dof) const;
+  std::vector<types::global_dof_index> spring_dofs;
+  std::vector<double> spring_fitted_at; ///< displacement at fitting; NaN: not fitted
+
   // The drained surface that excavation exposes (drained_surface.cc).
   /// Finds the pressure dofs on faces between cells in the model and removed cells.
   void find_exposed();

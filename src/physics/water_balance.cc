@@ -148,19 +148,33 @@ double BiotProblem::outflow(const std::string& line) const {
   return 0.0;
 }
 
-double BiotProblem::net_outflow() const {
+BiotProblem::WaterExchange BiotProblem::water_exchange() const {
   const Impl& m = *impl_;
   if (!(m.time > 0.0))
-    return 0.0;
+    return {};
   std::set<types::global_dof_index> all;
   for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
                                               m.dof_handler, m.layout, m.time))
     all.insert(set.begin(), set.end());
   all.insert(m.draining.begin(), m.draining.end());
-  double total = m.reaction_outflow(all);
+  LA::MPI::Vector residual;
+  m.storage_residual(
+      m.time, m.matrix_dt, [&](types::global_dof_index d) { return all.count(d) != 0; },
+      residual);
+  WaterExchange local;
+  for (const auto d : all)
+    if (m.owned.is_element(d)) {
+      local.net_outflow -= residual(d) / m.matrix_dt;
+      local.gross += std::abs(residual(d)) / m.matrix_dt;
+    }
+  WaterExchange total{Utilities::MPI::sum(local.net_outflow, m.comm),
+                      Utilities::MPI::sum(local.gross, m.comm)};
   for (const auto& flux : m.conditions.fluxes)
-    if (flux.window.contains(m.time))
-      total += m.prescribed_outflow(flux);
+    if (flux.window.contains(m.time)) {
+      const double q = m.prescribed_outflow(flux);
+      total.net_outflow += q;
+      total.gross += std::abs(q);
+    }
   return total;
 }
 

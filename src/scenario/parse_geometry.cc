@@ -106,6 +106,27 @@ read_wells(const TableReader& r, const Scenario& s, const Section& section) {
   return wells;
 }
 
+std::vector<Prop> read_props(const TableReader& r, const Section& section) {
+  std::vector<Prop> props;
+  std::set<std::string> names;
+  for_each_table(r, "props", [&](const TableReader& p) {
+    Prop prop{p.text("name"), p.number("level"), p.positive("stiffness"),
+              p.number("preload"), p.text("stage")};
+    if (!section.wall)
+      p.fail_here("a prop needs a [section.wall]");
+    if (!(prop.level < section.ground_surface && prop.level > section.wall->toe))
+      p.fail("level", "must lie on the wall, between its toe (" +
+                          format_number(section.wall->toe) +
+                          " m) and the ground surface");
+    if (prop.preload < 0.0)
+      p.fail("preload", "must not be negative");
+    if (!names.insert(prop.name).second)
+      p.fail("name", "two props are named '" + prop.name + "'");
+    props.push_back(prop);
+  });
+  return props;
+}
+
 MeshSizes read_mesh_sizes(const TableReader& section) {
   MeshSizes m;
   const TableReader r = sub_table(section, "mesh", "section.mesh");
@@ -144,6 +165,7 @@ Section read_section(const TableReader& r, const Scenario& s) {
   if (section.wall && !(section.wall->toe < section.excavation_level()))
     r.fail("wall", "the wall toe must lie below the excavation level");
   section.wells = read_wells(r, s, section);
+  section.props = read_props(r, section);
   section.mesh = read_mesh_sizes(r);
   return section;
 }
@@ -199,6 +221,10 @@ void parse_geometry(const TableReader& top, Scenario& s) {
   if (const toml::table* t = top.table("section")) {
     s.section = read_section(TableReader(*t, "section", "section", top.file()), s);
     s.locations["section"] = position(top.file(), *t);
+    if (const toml::array* props = (*t)["props"].as_array())
+      for (std::size_t i = 0; i < s.section->props.size(); ++i)
+        s.locations["section.props." + s.section->props[i].name] =
+            position(top.file(), *(*props)[i].as_table()->get("stage"));
   } else if (const toml::table* b = top.table("box")) {
     s.box = read_box(TableReader(*b, "box", "box", top.file()), s);
     s.locations["box"] = position(top.file(), *b);

@@ -130,6 +130,13 @@ void parse_stages(const TableReader& top, Scenario& s) {
   });
   if (s.stages.empty())
     top.fail("stages", "needs at least one stage");
+  if (s.section)
+    for (const auto& prop : s.section->props)
+      if (!names.count(prop.stage))
+        throw InputError(s.location_of("section.props." + prop.name) +
+                         ": section.props: prop '" + prop.name +
+                         "' is installed in stage '" + prop.stage +
+                         "', which does not exist");
 }
 
 namespace {

@@ -49,20 +49,32 @@ public:
   /// heads. Collective.
   double outflow(const std::string& line) const;
 
-  /// Water leaving through every boundary and line with a condition during the
-  /// last step, each prescribed dof counted once, m^3/s. Collective.
-  double net_outflow() const;
+  /// The water that crossed the model's boundaries and lines in the last step,
+  /// m^3/s: the net outflow (out minus in) and the gross exchange (out plus in, each
+  /// prescribed dof and flux line counted once), the scale of the water balance.
+  struct WaterExchange {
+    double net_outflow = 0.0;
+    double gross = 0.0;
+  };
+  /// Collective.
+  WaterExchange water_exchange() const;
   /// Water leaving through the drained surface that excavation exposed, during the
   /// last step (consistent flux), m^3/s. Collective.
   double drained_surface_outflow() const;
   /// Water taken into storage during the last step, the integral of
   /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle). With
-  /// net_outflow() * dt it closes the water balance. Collective.
+  /// water_exchange().net_outflow * dt it closes the water balance. Collective.
   double storage_gain() const;
 
   /// Seconds for one product of the system matrix with a vector, averaged over
   /// `repeats` products (for benchmarks; the matrix must be assembled). Collective.
   double time_matrix_vector_product(unsigned int repeats) const;
+
+  /// The force in spring k of setup().springs (compression positive; its preload
+  /// before it is fitted), kN per metre run or for the full circle. Collective.
+  double spring_force(std::size_t k) const;
+  /// Whether spring k is fitted at time().
+  bool spring_fitted(std::size_t k) const;
 
   /// Whether the cell of this active index has been taken out by excavation.
   bool is_removed(unsigned int active_cell_index) const;

@@ -27,6 +27,22 @@ struct ExcavationEvent {
       removes;
 };
 
+/// A spring that holds one displacement component of the node at `at` from time
+/// `from` (s) on: a prop. The force it puts on the soil or wall, along the unit
+/// direction `direction` (0 = x, 1 = y) with sign `sense`, is
+///   N = preload - stiffness * (u - u_from) . sense e_direction,
+/// u_from the node's displacement when the spring is fitted (kN per metre run in
+/// plane strain, for the full circle in axisymmetric; compression positive).
+struct PointSpring {
+  std::string name;
+  dealii::Point<2> at;
+  unsigned int direction = 0;
+  double sense = 1.0;
+  double stiffness = 0.0; ///< kN/m (per metre run, or for the full circle)
+  double preload = 0.0;   ///< kN (per metre run, or for the full circle)
+  double from = 0.0;      ///< s
+};
+
 /// The geostatic state that excavation releases, kPa and kN/m^3.
 struct GeostaticState {
   /// Effective stress (xx, yy, zz = out of plane or hoop), tension positive.
@@ -59,6 +75,8 @@ struct BiotSetup {
   /// pit's, gamma_w max(0, h_pit - y), water leaving where it would be higher and
   /// none entering where it is lower (decided by an active set each step).
   TimeFunction pit_water_head;
+  /// Props and other point supports, fitted at their `from` times.
+  std::vector<PointSpring> springs;
 
   /// automatic: direct up to `direct_limit` unknowns, iterative above. MUMPS
   /// with a reused factorisation beat the iterative solver at every size

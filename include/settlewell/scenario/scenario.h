@@ -50,6 +50,16 @@ struct MeshSizes {
   double growth = 1.0;    ///< ratio of neighbouring cell sizes away from a feature
 };
 
+/// A prop (strut) level against the wall's inner face, installed at the start of a
+/// stage. In plane strain a spring per metre run; in a shaft a ring (waling).
+struct Prop {
+  std::string name;
+  double level = 0.0;     ///< elevation on the inner wall face, m
+  double stiffness = 0.0; ///< plane strain: kN/m per metre run; shaft: ring EA, kN
+  double preload = 0.0;   ///< kN per metre run of wall (of circumference in a shaft)
+  std::string stage;      ///< installed at this stage's start
+};
+
 /// Geometry (a): a parametric excavation section.
 struct Section {
   double ground_surface = 0.0;   ///< elevation, m
@@ -61,6 +71,7 @@ struct Section {
   std::vector<Layer> layers;     ///< top to bottom
   std::optional<Wall> wall;
   std::vector<Well> wells;
+  std::vector<Prop> props;
   MeshSizes mesh;
   double excavation_level() const { return ground_surface - excavation_depth; }
 };
