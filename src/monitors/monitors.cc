@@ -6,6 +6,7 @@
 #include "neighbours.h"
 #include "prop_forces.h"
 #include "sampled_tables.h"
+#include "wall_profile.h"
 #include "water_account.h"
 
 namespace settlewell::monitors {
@@ -21,6 +22,8 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
     list.push_back(std::make_unique<BaseStability>(run));
   if (!run.problem.setup().springs.empty())
     list.push_back(std::make_unique<PropForces>(run));
+  if (run.scenario.section && run.scenario.section->wall)
+    list.push_back(std::make_unique<WallProfile>(run));
   list.push_back(std::make_unique<Neighbours>(run));
   if (layers_of(run.scenario) != nullptr) // a user's mesh has no layer stack
     list.push_back(std::make_unique<Columns>(run));
