@@ -161,6 +161,51 @@ def section_view(run, geometry, axisymmetric, time, file, field, label, cmap, ou
     plt.close(fig)
 
 
+def stage_end_times(results):
+    """The end of every stage, in days."""
+    return [s["end_days"] for s in results.get("stages", [])]
+
+
+def nearest_times(available, wanted):
+    """For each wanted time, the nearest available one (each once, in order)."""
+    chosen = []
+    for t in wanted:
+        best = min(available, key=lambda a: abs(a - t))
+        if best not in chosen:
+            chosen.append(best)
+    return chosen
+
+
+def wall(run, results, out):
+    """Deflection and bending moment against elevation at the end of each stage."""
+    path = os.path.join(run, "checks", "wall.csv")
+    if not os.path.exists(path):
+        return False
+    rows = read_csv(path)
+    side = rows[0]["side"]
+    rows = [r for r in rows if r["side"] == side]
+    times = nearest_times(sorted({float(r["time_days"]) for r in rows}), stage_end_times(results))
+    names = {round(s["end_days"], 6): s["name"] for s in results.get("stages", [])}
+    fig, (left, right) = plt.subplots(1, 2, figsize=(9, 5), sharey=True)
+    for t in times:
+        at = [r for r in rows if float(r["time_days"]) == t]
+        label = f"{names.get(round(t, 6), 'day')} (day {t:g})"
+        left.plot(numbers(at, "deflection_towards_pit_mm"), numbers(at, "y_m"), label=label)
+        right.plot(numbers(at, "bending_moment_kNm_per_m"), numbers(at, "y_m"), label=label)
+    left.set_xlabel("deflection towards the pit (mm)")
+    right.set_xlabel("bending moment (kNm/m; + pit side in tension)")
+    left.set_ylabel("elevation (m)")
+    for ax in (left, right):
+        ax.axvline(0.0, color="0.6", lw=0.6)
+        ax.grid(alpha=0.3)
+    right.legend(fontsize=7)
+    fig.suptitle(f"Wall ({side} side) at the end of each stage")
+    fig.tight_layout()
+    fig.savefig(out, dpi=110)
+    plt.close(fig)
+    return True
+
+
 def trough(run, out):
     path = os.path.join(run, "profiles", "ground_surface.csv")
     if not os.path.exists(path):
@@ -281,6 +326,7 @@ def main():
             made.append(out)
     unit = "per metre run" if results.get("analysis") == "plane_strain" else "per well"
     for name, make in (("trough.png", lambda o: trough(run, o)),
+                       ("wall.png", lambda o: wall(run, results, o)),
                        ("histories.png", lambda o: histories(run, o)),
                        ("discharge.png", lambda o: discharge(run, unit, o)),
                        ("base_stability.png", lambda o: base_factors(run, results, o))):

@@ -41,6 +41,13 @@ struct SectionFrame {
     return wall_at_side(x) && std::abs(x) > half_width && std::abs(x) < outer &&
            y > s.wall->toe;
   }
+  /// In the interface zone beside either face of the wall, ground to toe.
+  bool in_interface(double x, double y) const {
+    const double t = s.wall ? s.wall->interface_thickness : 0.0;
+    const double a = std::abs(x);
+    return t > 0.0 && wall_at_side(x) && y > s.wall->toe &&
+           ((a > half_width - t && a < half_width) || (a > outer && a < outer + t));
+  }
   bool inside_pit(double x) const { return std::abs(x) < half_width; }
 };
 
@@ -71,6 +78,12 @@ std::vector<AxisInterval> x_intervals(const SectionFrame& f) {
     if (f.wall_at_side(side)) {
       points.push_back(side * f.outer);
       features.push_back({side * f.outer, s.mesh.near_wall});
+      const double t = s.wall->interface_thickness;
+      if (t > 0.0) // the interface zone is one column of cells
+        for (const double x : {side * (f.half_width - t), side * (f.outer + t)}) {
+          points.push_back(x);
+          features.push_back({x, t});
+        }
     }
   }
   for (const auto& w : s.wells) {
@@ -128,7 +141,10 @@ GridPlan section_plan(const Section& s,
 
   plan.region = [=](std::size_t i, std::size_t j) {
     const double xc = 0.5 * (X[i] + X[i + 1]), yc = 0.5 * (Y[j] + Y[j + 1]);
-    return f.in_wall(xc, yc) ? section_names::wall_region : layer_at(s.layers, yc);
+    if (f.in_wall(xc, yc))
+      return section_names::wall_region;
+    return f.in_interface(xc, yc) ? section_names::wall_interface
+                                  : layer_at(s.layers, yc);
   };
   plan.horizontal_groups = [=](std::size_t i, std::size_t j) {
     const double xc = 0.5 * (X[i] + X[i + 1]), y = Y[j];

@@ -24,6 +24,8 @@ std::map<std::string, std::string> region_materials(const Scenario& s, const Mes
       out[l.name] = l.material;
   if (s.section && s.section->wall)
     out[section_names::wall_region] = s.section->wall->material;
+  if (s.section && s.section->wall && s.section->wall->interface_thickness > 0.0)
+    out[section_names::wall_interface] = s.section->wall->interface_material;
   if (s.mesh_file) {
     for (const auto& [region, material] : s.mesh_file->region_materials) {
       if (!mesh.names.has_region(region))

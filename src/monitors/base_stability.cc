@@ -153,9 +153,22 @@ BaseStability::BaseStability(const RunContext& run)
     if (m.conductivity_y <= low_k && below.conductivity_y > low_k)
       uplift_layers_.push_back(k);
   }
-  for (std::size_t k = 0; k < scenario_.stages.size(); ++k)
+  for (std::size_t k = 0; k < scenario_.stages.size(); ++k) {
+    stage_start_.push_back(run.schedule.stages()[k].start);
     if (scenario_.stages[k].dig_level)
       digs_.emplace_back(run.schedule.stages()[k].start, *scenario_.stages[k].dig_level);
+  }
+}
+
+double BaseStability::pit_water_level_at(double t) const {
+  // As the model sets it: the stage's pit_water_level, else the dig level so far.
+  double dug_to = section_.ground_surface, level = dug_to;
+  for (std::size_t k = 0; k < stage_start_.size() && stage_start_[k] < t * (1 - 1e-12);
+       ++k) {
+    dug_to = scenario_.stages[k].dig_level.value_or(dug_to);
+    level = scenario_.stages[k].pit_water_level.value_or(dug_to);
+  }
+  return level;
 }
 
 std::optional<double> BaseStability::dig_level_at(double t) const {
@@ -216,17 +229,31 @@ BaseState BaseStability::evaluate(const RunView& view) {
   const Samples& s = samples_at(dig, view.run.problem);
   const double gw = scenario_.gamma_w;
   const bool axisymmetric = scenario_.analysis == AnalysisType::axisymmetric;
+  // Water exits the floor where it drains: where the pore pressure just below it
+  // has reached the pit water's (the floor is sealed elsewhere). Piping needs that
+  // exit; without it nothing drives it (the gradient is then -infinity).
   const auto exits = s.exit->evaluate(view.run.problem, view.run.derivation);
+  const double pit_pressure = gw * std::max(0.0, pit_water_level_at(b.time) - dig);
   b.exit_gradient = -std::numeric_limits<double>::infinity();
   for (std::size_t i = 0; i < exits.size(); ++i)
-    if (-exits[i].gradient_y > b.exit_gradient) {
+    if (exits[i].pore_pressure >= pit_pressure - 1e-3 &&
+        -exits[i].gradient_y > b.exit_gradient) {
       b.exit_gradient = -exits[i].gradient_y; // upward flow: head falls upward
       b.exit_x = s.exit->points()[i][0];
     }
   const auto& floor_layer = layer_at(sec.layers, dig - 1e-6);
   b.critical_gradient = checks::critical_gradient(
       scenario_.materials.at(floor_layer.material).unit_weight, gw);
-  b.piping = checks::piping_factor(b.critical_gradient, b.exit_gradient);
+  // Piping is a failure of permeable soil under exiting seepage; a floor of a
+  // low-permeability layer drains by consolidating, and heave and uplift cover it
+  // (the gradient at its drained surface is a boundary layer, not a seepage exit).
+  if (scenario_.materials.at(floor_layer.material).poroelastic.conductivity_y >
+      scenario_.limits.low_permeability)
+    b.piping = checks::piping_factor(b.critical_gradient, b.exit_gradient);
+  else
+    b.piping_reason = "the floor is in " + floor_layer.name +
+                      ", a low-permeability layer (checks.low_permeability): heave "
+                      "and uplift cover it";
   auto saturated = [&](const scenario::Layer& l) {
     return scenario_.materials.at(l.material).unit_weight;
   };
@@ -300,9 +327,13 @@ void BaseStability::finish(const RunView& view, toml::table& results) {
     return;
   const auto& limits = scenario_.limits;
   const BaseState& last = history_.back();
+  std::string piping_reason = not_dug;
+  for (const auto& b : history_)
+    if (!b.piping_reason.empty())
+      piping_reason = b.piping_reason;
   toml::table t{{"piping", factor_history(
                                history_, [](const BaseState& b) { return b.piping; },
-                               limits.piping_factor, not_dug)}};
+                               limits.piping_factor, piping_reason)}};
   if (last.dig_level) {
     t.insert("dig_level_at_end_m", *last.dig_level);
     t.insert("exit_gradient_at_end", last.exit_gradient);

@@ -24,6 +24,7 @@ struct BaseState {
   double exit_x = 0.0;             ///< where, m
   double critical_gradient = 0.0;
   Factor piping;
+  std::string piping_reason; ///< why piping is not evaluated, if it is dug
   struct Heave {
     std::string side;              ///< "right" or "left"
     double depth = 0.0;            ///< embedment below the dig level, m
@@ -60,6 +61,8 @@ private:
   };
   const Samples& samples_at(double dig_level, const BiotProblem& problem);
   std::optional<double> dig_level_at(double t) const;
+  /// The pit's water level at an output time, m.
+  double pit_water_level_at(double t) const;
   BaseState evaluate(const RunView& view);
   /// Per stage: the dig level at its end and the least factors of its output times.
   toml::array stage_table(const RunView& view) const;
@@ -69,6 +72,7 @@ private:
   std::vector<std::string> sides_;              ///< sides with a wall
   std::vector<std::size_t> uplift_layers_;      ///< layer index of each candidate
   std::vector<std::pair<double, double>> digs_; ///< (removal time, dig level)
+  std::vector<double> stage_start_;             ///< s, per stage
   std::map<double, Samples> samples_;
   std::vector<BaseState> history_;
   std::optional<CsvFile> table_;

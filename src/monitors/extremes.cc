@@ -85,7 +85,10 @@ std::vector<double> Extremes::after_step(const RunView& view) {
   const BiotProblem& problem = view.run.problem;
   const double to_drawdown = -1.0 / problem.setup().gamma_w;
   pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
-  outside_ = std::max(outside_, largest(problem, outside_surface_uy_, -1.0));
+  const double outside_now = largest(problem, outside_surface_uy_, -1.0);
+  outside_ = std::max(outside_, outside_now);
+  stage_outside_.resize(view.run.schedule.stages().size(), 0.0);
+  stage_outside_[view.stage()] = std::max(stage_outside_[view.stage()], outside_now);
   anywhere_ = std::max(anywhere_, largest(problem, all_uy_, -1.0));
   drawdown_outside_ =
       std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
@@ -93,13 +96,18 @@ std::vector<double> Extremes::after_step(const RunView& view) {
   return {};
 }
 
-void Extremes::finish(const RunView&, toml::table& results) {
+void Extremes::finish(const RunView& view, toml::table& results) {
   toml::table summary{{"settlement_anywhere_m", anywhere_},
                       {"drawdown_anywhere_m", drawdown_}};
   if (has_wall_zone_) {
     summary.insert("settlement_inside_m", pit_);
     summary.insert("settlement_outside_m", outside_);
     summary.insert("drawdown_outside_m", drawdown_outside_);
+    toml::array stages;
+    for (std::size_t k = 0; k < stage_outside_.size(); ++k)
+      stages.push_back(toml::table{{"stage", view.run.schedule.stages()[k].name},
+                                   {"settlement_outside_m", stage_outside_[k]}});
+    summary.insert("stages", stages);
   }
   results.insert("summary", summary);
 }

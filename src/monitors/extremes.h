@@ -1,7 +1,8 @@
 #pragma once
 
 // Private to src/monitors: the largest settlement and drawdown of the run, inside
-// and outside the wall and anywhere (results.toml [summary]).
+// and outside the wall and anywhere (results.toml [summary]), and the largest
+// settlement outside the wall in each stage.
 #include "settlewell/monitors/monitor.h"
 
 namespace settlewell::monitors {
@@ -20,6 +21,7 @@ private:
   bool has_wall_zone_ = false;
   Dofs pit_surface_uy_, outside_surface_uy_, all_uy_, outside_p_, all_p_;
   double pit_ = 0, outside_ = 0, anywhere_ = 0, drawdown_outside_ = 0, drawdown_ = 0;
+  std::vector<double> stage_outside_; ///< per stage, m
 };
 
 } // namespace settlewell::monitors

@@ -41,14 +41,18 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
     values.push_back(q * units::seconds_per_day);
   }
   // Water balance of the step: what left plus what was stored must vanish, relative
-  // to the water that crossed the boundaries (in plus out) or was stored: with the
-  // net outflow alone as the scale, a steady through-flow (in and out nearly equal)
-  // would turn round-off into a large relative error.
+  // to the water that moved: in plus out through the boundaries, and the storage
+  // change of every cell whatever its sign, in this step or in the run's largest
+  // step so far. With net values as the scale, a steady through-flow would turn
+  // round-off into a large relative error; with this step's alone, so would the
+  // round-off of a model that has come to rest.
   const auto exchange = problem.water_exchange();
   const double net_outflow = exchange.net_outflow;
   const double out = net_outflow * dt;
-  const double stored = problem.storage_gain();
-  const double scale = std::max({exchange.gross * dt, std::abs(stored), 1e-30});
+  const auto storage = problem.storage_change();
+  const double stored = storage.net;
+  largest_moved_ = std::max({largest_moved_, exchange.gross * dt, storage.gross});
+  const double scale = std::max(largest_moved_, 1e-30);
   const double error = std::abs(out + stored) / scale;
   worst_balance_ = std::max(worst_balance_, error);
   if (error > tolerance_ && !warned_) {

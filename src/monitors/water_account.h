@@ -21,6 +21,7 @@ private:
   std::map<std::string, double> volume_, final_discharge_;  ///< m^3; m^3/s
   std::map<std::string, std::vector<double>> stage_volume_; ///< m^3 per stage
   double worst_balance_ = 0.0;
+  double largest_moved_ = 0.0; ///< water moved in the largest step so far, m^3
   bool warned_ = false;
 };
 

@@ -8,6 +8,7 @@
 
 #include <array>
 #include <iterator>
+#include <limits>
 #include <sstream>
 
 namespace settlewell {
@@ -107,10 +108,16 @@ std::vector<SampleValues> SamplePoints::evaluate(const BiotProblem& problem,
       const DoFHandler<2>::active_cell_iterator cell(&dof_handler.get_triangulation(),
                                                      cells.cells[c].first,
                                                      cells.cells[c].second, &dof_handler);
+      // A point in soil that has been dug away has no values.
+      const bool removed = problem.is_removed(cell->active_cell_index());
       for (unsigned int q = cells.reference_point_ptrs[c];
-           q < cells.reference_point_ptrs[c + 1]; ++q)
-        out[q] =
-            pack(sample_at(problem, derivation, cell, cells.reference_point_values[q]));
+           q < cells.reference_point_ptrs[c + 1]; ++q) {
+        if (removed)
+          out[q].fill(std::numeric_limits<double>::quiet_NaN());
+        else
+          out[q] =
+              pack(sample_at(problem, derivation, cell, cells.reference_point_values[q]));
+      }
     }
   };
   std::vector<Packed> packed, buffer;

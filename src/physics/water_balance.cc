@@ -183,13 +183,13 @@ double BiotProblem::drained_surface_outflow() const {
   return m.time > 0.0 ? m.reaction_outflow(m.draining) : 0.0;
 }
 
-double BiotProblem::storage_gain() const {
+BiotProblem::StorageChange BiotProblem::storage_change() const {
   // add_old_state puts (alpha eps_v + S p) phi_i into the p rows; the Q1 shape
   // functions sum to one, so the rows sum to the stored volume.
   const Impl& m = *impl_;
   CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
   Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
-  double gain = 0.0;
+  StorageChange local;
   for (const auto& cell : m.dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !m.in_model(cell))
       continue;
@@ -199,10 +199,14 @@ double BiotProblem::storage_gain() const {
     const CellCoefficients& c = m.coefficients[cell->material_id()];
     kernel.add_old_state(c, m.solution, now);
     kernel.add_old_state(c, m.old_solution, before);
+    double cell_change = 0.0;
     for (unsigned int i = 0; i < now.size(); ++i)
-      gain += now(i) - before(i);
+      cell_change += now(i) - before(i);
+    local.net += cell_change;
+    local.gross += std::abs(cell_change);
   }
-  return Utilities::MPI::sum(gain, m.comm);
+  return {Utilities::MPI::sum(local.net, m.comm),
+          Utilities::MPI::sum(local.gross, m.comm)};
 }
 
 } // namespace settlewell

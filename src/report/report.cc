@@ -286,6 +286,72 @@ void base_section(Document& d, const toml::table& r) {
   s.image("plots/base_stability.png", "Factors of safety against time");
 }
 
+/// A value of a per-stage list ([[x.stages]] with a "stage" or "name" key).
+const toml::table* stage_entry(const toml::node_view<const toml::node>& list,
+                               const std::string& stage) {
+  if (const auto* entries = list.as_array())
+    for (const auto& e : *entries) {
+      const auto& t = *e.as_table();
+      if (text(t["stage"]) == stage || text(t["name"]) == stage)
+        return &t;
+    }
+  return nullptr;
+}
+
+/// Per construction stage: the dig level, the least base factors, the props' and
+/// the wall's largest forces and movements, and the settlement behind the wall.
+void stages_section(Document& d, const toml::table& r) {
+  const auto* stages = r["stages"].as_array();
+  const bool digs = r["base_stability"]["dig_level_at_end_m"].is_number();
+  if (stages == nullptr || (!digs && !r["props"].is_array()))
+    return;
+  Section& s = d.add("Construction stages");
+  s.paragraph(
+      "The largest values of each stage (its output times). Wall deflection is towards "
+      "the pit; the bending moment is positive with the pit-side face in tension.");
+  Table t{{"stage", "dug to (m)", "least piping / heave / uplift factor",
+           "largest prop force", "largest wall deflection (mm)",
+           "largest wall moment (kNm/m)", "largest settlement behind the wall (mm)"},
+          {}};
+  const auto base = r["base_stability"]["stages"];
+  const auto wall = r["wall"]["sides"][0]["stages"];
+  for (const auto& node : *stages) {
+    const std::string name = text((*node.as_table())["name"]);
+    std::vector<Cell> row{{name}};
+    const auto* b = stage_entry(base, name);
+    const auto level = b ? (*b)["dig_level_m"].value<double>() : std::nullopt;
+    row.push_back({level ? num(*level, 4) : "not dug"});
+    std::string factors;
+    for (const char* key :
+         {"least_piping_factor", "least_heave_factor", "least_uplift_factor"}) {
+      const auto f = b ? (*b)[key].value<double>() : std::nullopt;
+      factors += std::string(factors.empty() ? "" : " / ") +
+                 (f ? (std::isfinite(*f) ? fixed(*f, 2) : "∞") : "-");
+    }
+    row.push_back({factors});
+    std::string props;
+    if (const auto* ps = r["props"].as_array())
+      for (const auto& p : *ps) {
+        const auto* e = stage_entry((*p.as_table())["stages"], name);
+        const auto f = e ? (*e)["largest_force"].value<double>() : std::nullopt;
+        props += std::string(props.empty() ? "" : "; ") + text((*p.as_table())["name"]) +
+                 " " + (f ? num(*f, 3) : "-");
+      }
+    row.push_back({props.empty() ? "-" : props});
+    const auto* w = stage_entry(wall, name);
+    row.push_back({w ? fixed(get((*w)["largest_deflection_mm"]["value"]), 1) : "-"});
+    row.push_back({w ? num(get((*w)["largest_moment_kNm_per_m"]["value"]), 4) : "-"});
+    const auto* e = stage_entry(r["summary"]["stages"], name);
+    row.push_back({e ? fixed(1000 * get((*e)["settlement_outside_m"]), 1) : "-"});
+    t.rows.push_back(row);
+  }
+  s.table(t);
+  if (r["props"].is_array())
+    s.paragraph("Prop forces are " + text(r["props"][0]["unit"]) + ".");
+  s.image("plots/wall.png",
+          "Wall deflection and bending moment at the end of each stage");
+}
+
 void neighbours_section(Document& d, const toml::table& r) {
   const auto* ns = r["neighbours"].as_array();
   if (ns == nullptr || ns->empty())
@@ -464,6 +530,7 @@ void write_report(const std::string& run, std::ostream& log) {
   inputs_section(d, r);
   discharge_section(d, r, unit);
   base_section(d, r);
+  stages_section(d, r);
   neighbours_section(d, r);
   columns_section(d, r);
   views_section(d, run);

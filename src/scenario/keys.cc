@@ -56,6 +56,8 @@ const std::vector<KeySpec>& all_keys() {
     {"section.wall.thickness", "number", "m", "required", "Cutoff wall thickness"},
     {"section.wall.toe", "number", "m", "required", "Elevation of the wall toe"},
     {"section.wall.material", "string", "", "required", "Material of the wall"},
+    {"section.wall.interface_thickness", "number", "m", "-", "Thickness of an interface zone of soil along both wall faces, ground to toe (thin-layer elements after Desai et al. 1984; about 0.01 to 0.1 of the wall's height of cells beside it); none if not given"},
+    {"section.wall.interface_material", "string", "", "-", "Material of the interface zone: its shear stiffness (from E' and nu') sets how the soil slides along the wall"},
     {"section.wall.sides", "string", "", "both (right in a half model or a shaft)", "left, right or both"},
     {"section.wells[].name", "string", "", "required", "Well name, used by stages and outputs"},
     {"section.wells[].x", "number", "m", "required", "Position (plane strain: a row of wells seen in section; axisymmetric: 0 = the axis)"},

@@ -48,6 +48,16 @@ Wall read_wall(const TableReader& w, const Scenario& s, const Section& section) 
   if (!(wall.toe > section.bottom))
     w.fail("toe", "lies at or below the model base (" + format_number(section.bottom) +
                       " m); deepen the model");
+  if (w.has("interface_thickness") != w.has("interface_material"))
+    w.fail_here("give interface_thickness and interface_material together");
+  if (w.has("interface_thickness")) {
+    wall.interface_thickness = w.positive("interface_thickness");
+    wall.interface_material = w.text("interface_material");
+    if (!s.materials.count(wall.interface_material))
+      w.fail("interface_material", "no material named '" + wall.interface_material + "'");
+    if (!(wall.interface_thickness < 0.5 * section.excavation_width / 2))
+      w.fail("interface_thickness", "must be less than a quarter of the pit's width");
+  }
   const std::string sides =
       w.optional_text("sides").value_or(section.half_model ? "right" : "both");
   if (sides != "left" && sides != "right" && sides != "both")

@@ -6,6 +6,9 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <filesystem>
+
 class ExampleMesh : public ::testing::TestWithParam<std::string> {};
 
 TEST_P(ExampleMesh, KeptMeshMatchesTheGeneratedOne) {
@@ -24,9 +27,21 @@ TEST_P(ExampleMesh, KeptMeshMatchesTheGeneratedOne) {
     EXPECT_EQ(kept.internal_lines.at(name).size(), segments.size()) << name;
 }
 
+/// Every example (a folder of examples/ with a scenario.toml), so that a new one
+/// cannot be left without its kept mesh.
+std::vector<std::string> examples() {
+  std::vector<std::string> names;
+  for (const auto& entry : std::filesystem::directory_iterator(
+           std::string(SETTLEWELL_SOURCE_DIR) + "/examples"))
+    if (std::filesystem::exists(entry.path() / "scenario.toml"))
+      names.push_back(entry.path().filename().string());
+  std::sort(names.begin(), names.end());
+  return names;
+}
+
 INSTANTIATE_TEST_SUITE_P(Examples,
                          ExampleMesh,
-                         ::testing::Values("basement-pit", "shaft", "layered-column"),
+                         ::testing::ValuesIn(examples()),
                          [](const auto& info) {
                            std::string n = info.param;
                            for (auto& c : n)

@@ -17,6 +17,7 @@ inline const std::string symmetry_axis = "symmetry_axis";
 inline const std::string well_casing = "well_casing";
 inline const std::string excavation_level = "excavation_level";
 inline const std::string wall_region = "wall";
+inline const std::string wall_interface = "wall_interface";
 inline const std::string wall_inner_face = "wall_inner_face";
 inline const std::string wall_outer_face = "wall_outer_face";
 inline const std::string wall_toe = "wall_toe";

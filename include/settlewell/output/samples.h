@@ -30,6 +30,7 @@ struct SampleValues {
 /// once in the mesh and evaluated whenever asked, by deal.II's remote point
 /// evaluation: each point is evaluated on the process that owns the cell holding it
 /// (one cell per point, also on a cell edge) and every process gets every value.
+/// A point in a cell that excavation removed gets NaN values.
 class SamplePoints {
 public:
   /// Collective. Throws InputError naming `what` and the first point outside the mesh.

@@ -62,9 +62,15 @@ public:
   /// last step (consistent flux), m^3/s. Collective.
   double drained_surface_outflow() const;
   /// Water taken into storage during the last step, the integral of
-  /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle). With
-  /// water_exchange().net_outflow * dt it closes the water balance. Collective.
-  double storage_gain() const;
+  /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle): the net
+  /// change, which with water_exchange().net_outflow * dt closes the water balance,
+  /// and the gross (the sum of every cell's change, whatever its sign), its scale.
+  struct StorageChange {
+    double net = 0.0;
+    double gross = 0.0;
+  };
+  /// Collective.
+  StorageChange storage_change() const;
 
   /// Seconds for one product of the system matrix with a vector, averaged over
   /// `repeats` products (for benchmarks; the matrix must be assembled). Collective.

@@ -33,6 +33,10 @@ struct Wall {
   double toe = 0.0;       ///< elevation of the toe, m
   std::string material;
   bool left = false, right = true; ///< sides that have a wall (half model: right only)
+  /// A thin zone of soil along both faces, ground to toe, with its own material:
+  /// the wall-soil interface as thin-layer elements (Desai et al. 1984). 0: none.
+  double interface_thickness = 0.0; ///< m
+  std::string interface_material;
 };
 
 struct Well {
