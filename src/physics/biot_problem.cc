@@ -61,24 +61,30 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     check_axisymmetric_domain(mesh);
   if (setup.rigid_skeleton && conditions.plate)
     throw InputError("a rigid plate cannot load a rigid skeleton");
+  if (setup.geostatic.effective_stress)
+    map_unit_weights();
   if (!setup.excavation.empty())
     prepare_excavation();
   setup_dofs();
   choose_solver();
 }
 
-void BiotProblem::Impl::prepare_excavation() {
-  if (!setup.geostatic.effective_stress)
-    throw InternalError("excavation needs the geostatic state it releases");
+void BiotProblem::Impl::map_unit_weights() {
   for (const auto& region : mesh.names.region_names()) {
     const auto found = setup.geostatic.unit_weights.find(region);
     if (found == setup.geostatic.unit_weights.end())
-      throw InternalError("excavation needs the unit weight of region '" + region + "'");
+      throw InternalError("the geostatic state needs the unit weight of region '" +
+                          region + "'");
     const auto id = mesh.names.region_id(region);
     if (unit_weights.size() <= id)
       unit_weights.resize(id + 1);
     unit_weights[id] = found->second;
   }
+}
+
+void BiotProblem::Impl::prepare_excavation() {
+  if (!setup.geostatic.effective_stress)
+    throw InternalError("excavation needs the geostatic state it releases");
   removed.assign(mesh.triangulation->n_active_cells(), false);
   excavated.assign(setup.excavation.size(), false);
 }

@@ -77,13 +77,18 @@ struct BiotProblem::Impl {
   bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
 
   // Excavation (excavation.cc).
-  /// Unit weights by region id, removal flags and event flags (constructor).
+  /// Unit weights by region id from the geostatic state (constructor).
+  void map_unit_weights();
+  /// Removal flags and event flags (constructor).
   void prepare_excavation();
   /// Takes out the cells of every event that has started by time t and not been
   /// applied yet, keeping the forces they carried. Returns whether any was applied.
   bool excavate(double t);
   /// Minus the forces the removed cells carried, released by the fraction due at t.
   void add_release_loads(double t, LA::MPI::Vector& target) const;
+  /// The owned dofs where cells that different events remove meet, or dug cells meet
+  /// cells that stay: the future dug boundaries. Collective.
+  IndexSet dug_boundary_dofs() const;
   /// Gives the deactivated dofs (those of removed cells only) a unit-scaled diagonal.
   void set_deactivated_diagonals(LA::MPI::SparseMatrix& target) const;
 

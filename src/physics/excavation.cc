@@ -87,6 +87,90 @@ void BiotProblem::Impl::add_release_loads(double t, LA::MPI::Vector& target) con
   }
 }
 
+namespace {
+
+/// 0 for a cell no event removes, else 1 + the first event that removes it.
+double removal_tag(const std::vector<ExcavationEvent>& events,
+                   const Point<2>& centre,
+                   types::material_id region) {
+  for (std::size_t k = 0; k < events.size(); ++k)
+    if (events[k].removes(centre, region))
+      return double(k + 1);
+  return 0.0;
+}
+
+} // namespace
+
+IndexSet BiotProblem::Impl::dug_boundary_dofs() const {
+  // A dof where cells of different removal tags meet has count * sum of squares >
+  // sum^2 (the tags' variance is positive).
+  LA::MPI::Vector count(owned, comm), sum(owned, comm), squares(owned, comm);
+  std::vector<types::global_dof_index> dofs(layout.fe.n_dofs_per_cell());
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned() || !in_model(cell))
+      continue;
+    cell->get_dof_indices(dofs);
+    const double tag = removal_tag(setup.excavation, cell->center(), cell->material_id());
+    for (const auto i : dofs) {
+      count(i) += 1.0;
+      sum(i) += tag;
+      squares(i) += tag * tag;
+    }
+  }
+  for (auto* v : {&count, &sum, &squares})
+    v->compress(VectorOperation::add);
+  IndexSet meeting(owned.size());
+  for (const auto i : owned)
+    if (double(count(i)) * double(squares(i)) > double(sum(i)) * double(sum(i)) + 0.5)
+      meeting.add_index(i);
+  return meeting;
+}
+
+BiotProblem::OutOfBalance BiotProblem::geostatic_out_of_balance() const {
+  const Impl& m = *impl_;
+  if (!m.setup.geostatic.effective_stress)
+    throw InternalError("no geostatic state to check");
+  // force: the summed imbalance; released: the size of what the dug cells carry.
+  LA::MPI::Vector force(m.owned, m.comm), released(m.owned, m.comm);
+  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
+  Vector<double> local(kernel.dofs_per_cell());
+  std::vector<types::global_dof_index> dofs(kernel.dofs_per_cell());
+  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned() || !m.in_model(cell))
+      continue;
+    kernel.reinit(cell);
+    cell->get_dof_indices(dofs);
+    const auto region = cell->material_id();
+    local = 0.0;
+    kernel.add_geostatic_imbalance(
+        m.coefficients[region], m.unit_weights.at(region),
+        [&](const Point<2>& x) { return m.setup.geostatic.effective_stress(x, region); },
+        [&](const Point<2>& x) {
+          return m.setup.gamma_w * (m.setup.initial_head(x) - x[1]);
+        },
+        local);
+    m.constraints.distribute_local_to_global(local, dofs, force);
+    if (removal_tag(m.setup.excavation, cell->center(), region) > 0.0) {
+      for (auto& v : local)
+        v = std::abs(v);
+      m.constraints.distribute_local_to_global(local, dofs, released);
+    }
+  }
+  force.compress(VectorOperation::add);
+  released.compress(VectorOperation::add);
+  OutOfBalance local_result;
+  for (const auto i : m.dug_boundary_dofs())
+    if (!m.constraints.is_constrained(i)) {
+      const double f = std::abs(double(force(i)));
+      local_result.largest = std::max(local_result.largest, f);
+      local_result.summed += f;
+      local_result.released += double(released(i));
+    }
+  return {Utilities::MPI::max(local_result.largest, m.comm),
+          Utilities::MPI::sum(local_result.summed, m.comm),
+          Utilities::MPI::sum(local_result.released, m.comm)};
+}
+
 void BiotProblem::Impl::set_deactivated_diagonals(LA::MPI::SparseMatrix& target) const {
   const auto dead = deactivated_dofs(dof_handler, removed);
   // A diagonal of the size of the others keeps the matrix well scaled.

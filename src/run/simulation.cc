@@ -20,7 +20,9 @@
 
 #include <filesystem>
 #include <fstream>
+#include <iomanip>
 #include <iostream>
+#include <optional>
 
 namespace settlewell {
 
@@ -63,6 +65,8 @@ struct Simulation::Impl {
   void prepare_folder(const RunOptions& options) const;
   void start(const monitors::RunView& view);
   void step(const monitors::RunView& view, CsvFile& steps);
+  void check_initial_balance();
+  void add_initial_balance(toml::table& results) const;
 
   scenario::Scenario scenario;
   MPI_Comm comm;
@@ -75,6 +79,7 @@ struct Simulation::Impl {
   std::unique_ptr<monitors::RunContext> context;
   std::vector<std::unique_ptr<monitors::Monitor>> monitors;
   TimerOutput timer; ///< wall time of the parts of a run, for the manifest
+  std::optional<BiotProblem::OutOfBalance> initial_balance; ///< when digging
 };
 
 Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
@@ -123,6 +128,36 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
       m->at_output_time(view);
 }
 
+// Digging releases the geostatic stress, so a geostatic state far from equilibrium
+// (a wall, sloping layers with their own K0) moves the ground at the first lift for
+// reasons that are not the dig. Say so, with the size, rather than hide it.
+void Simulation::Impl::check_initial_balance() {
+  if (model.setup.excavation.empty())
+    return;
+  initial_balance = problem->geostatic_out_of_balance();
+  const auto& b = *initial_balance;
+  const double ratio = b.released > 0.0 ? b.summed / b.released : 0.0;
+  if (is_root(comm) && ratio > 0.01)
+    std::cout << "note: where the lifts meet the ground that stays, the initial "
+                 "stresses are out of balance by "
+              << std::setprecision(2) << 100.0 * ratio
+              << " % of the force digging releases (up to " << b.largest
+              << " kN/m at a node, from K0 or unit weight that differ across the "
+                 "wall face); the movements the digging causes carry that as an "
+                 "error\n"
+              << std::setprecision(6);
+}
+
+void Simulation::Impl::add_initial_balance(toml::table& results) const {
+  if (!initial_balance)
+    return;
+  const auto& b = *initial_balance;
+  results.insert_or_assign("initial_state",
+                           toml::table{{"largest_out_of_balance_kN_per_m", b.largest},
+                                       {"summed_out_of_balance_kN_per_m", b.summed},
+                                       {"summed_released_force_kN_per_m", b.released}});
+}
+
 Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
     : impl_(std::make_unique<Impl>(std::move(scenario), comm)) {}
 
@@ -134,6 +169,7 @@ RunSummary Simulation::run(const RunOptions& options) {
   const std::string started = utc_now();
   const std::string& dir = options.run_directory;
   m.prepare_folder(options);
+  m.check_initial_balance();
 
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*m.context, dir, report, 0};
@@ -170,6 +206,7 @@ RunSummary Simulation::run(const RunOptions& options) {
     for (auto& monitor : m.monitors)
       monitor->finish(view, results);
   }
+  m.add_initial_balance(results);
   read_summary(results, summary);
   if (is_root(m.comm))
     std::ofstream(dir + "/results.toml") << results << '\n';

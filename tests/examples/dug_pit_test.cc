@@ -51,6 +51,17 @@ TEST(DugPitExample, BaseChecksFollowTheDigLevels) {
   const double heave = results["base_stability"]["heave"][0]["at_end"].value_or(0.0);
   EXPECT_GT(heave, 1.0);
   EXPECT_TRUE(std::isfinite(heave));
+  // The initial stresses differ across the wall face (K0 0.5 in the wall, 0.65 and
+  // 0.45 beside it; 24 kN/m3 against the layers' weight), so the nodes where the
+  // lifts meet the wall are out of balance, but by a small part of the force the
+  // digging releases (0.7 % on the fine mesh): the run stays quiet about it.
+  const double released =
+      results["initial_state"]["summed_released_force_kN_per_m"].value_or(0.0);
+  const double out_of_balance =
+      results["initial_state"]["summed_out_of_balance_kN_per_m"].value_or(-1.0);
+  EXPECT_GT(released, 0.0);
+  EXPECT_GT(out_of_balance, 0.0);
+  EXPECT_LT(out_of_balance, 0.01 * released);
   // The floor of lifts 1 and 2 is in the silty clay (low permeability): no piping.
   EXPECT_EQ((*stage(results, "base_stability", "lift 1"))["least_piping_factor"].value_or(
                 std::string()),

@@ -2,6 +2,8 @@
 
 #include "settlewell/scenario/parse.h"
 
+#include <gtest/gtest.h>
+
 #include <fstream>
 #include <sstream>
 #include <stdexcept>
@@ -17,7 +19,11 @@ fs::path write_variant(const std::string& example,
                                           "/examples/" + example + "/scenario.toml");
   if (change)
     change(scenario);
-  const fs::path folder = fs::temp_directory_path() / "settlewell_examples";
+  // One folder per test: ctest runs the tests of one executable side by side, and
+  // two of them writing the same run folder read each other's half-written files.
+  fs::path folder = fs::temp_directory_path() / "settlewell_examples";
+  if (const auto* test = ::testing::UnitTest::GetInstance()->current_test_info())
+    folder /= std::string(test->test_suite_name()) + "." + test->name();
   fs::create_directories(folder);
   const fs::path file = folder / (example + "-" + variant + ".toml");
   int rank = 0;

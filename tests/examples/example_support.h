@@ -20,7 +20,9 @@ struct ExampleRun {
 };
 
 /// Reads examples/<example>/scenario.toml, lets `change` edit it, writes the
-/// variant next to its run folder and runs it quietly.
+/// variant next to its run folder and runs it quietly. Both go into
+/// <tmp>/settlewell_examples/<suite>.<test>/ (without the last part outside a test),
+/// so tests that ctest runs side by side never share a folder.
 ExampleRun run_example(const std::string& example,
                        const std::string& variant,
                        const std::function<void(toml::table&)>& change);

@@ -82,6 +82,19 @@ public:
   /// Whether spring k is fitted at time().
   bool spring_fitted(std::size_t k) const;
 
+  /// How far the geostatic state (setup().geostatic) is from equilibrium where
+  /// digging will release it, over the free displacement dofs on a future dug
+  /// boundary (where a lift meets what stays or another lift): the largest
+  /// out-of-balance force at one, their sum, and the sum of the forces the dug
+  /// cells carry there, kN per metre run (for the full circle in axisymmetric). Digging
+  /// releases only the forces of the dug cells, so an imbalance there moves the ground as
+  /// if it were load. Level, horizontally layered ground gives round-off; a wall with its
+  /// own K0 does not. Collective.
+  struct OutOfBalance {
+    double largest = 0.0, summed = 0.0, released = 0.0;
+  };
+  OutOfBalance geostatic_out_of_balance() const;
+
   /// Whether the cell of this active index has been taken out by excavation.
   bool is_removed(unsigned int active_cell_index) const;
 
