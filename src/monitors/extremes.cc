@@ -41,9 +41,11 @@ Extremes::Extremes(const RunContext& run) {
   double outer = 0.0;
   if (s.section) {
     has_wall_zone_ = true;
-    outer = s.section->excavation_width / 2 +
-            (s.section->wall ? s.section->wall->thickness : 0);
+    inner_ = s.section->excavation_width / 2;
+    outer = inner_ + (s.section->wall ? s.section->wall->thickness : 0);
   }
+  for (const auto& e : problem.setup().excavation)
+    first_dig_ = first_dig_ < 0.0 ? e.start : std::min(first_dig_, e.start);
   const auto& fe = dh.get_fe();
   std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
   std::map<types::global_dof_index, unsigned int> component;
@@ -81,10 +83,30 @@ double Extremes::largest(const BiotProblem& problem, const Dofs& dofs, double fa
   return Utilities::MPI::max(value, problem.communicator());
 }
 
+double Extremes::floor_heave_now(const BiotProblem& problem) const {
+  const auto& fe = problem.dof_handler().get_fe();
+  std::vector<types::global_dof_index> dofs(fe.n_dofs_per_cell());
+  double heave = 0.0;
+  for (const auto& cell : problem.dof_handler().active_cell_iterators()) {
+    if (!cell->is_locally_owned() || problem.is_removed(cell->active_cell_index()) ||
+        std::abs(cell->center()[0]) > inner_)
+      continue;
+    cell->get_dof_indices(dofs);
+    for (unsigned int i = 0; i < dofs.size(); ++i)
+      if (fe.system_to_component_index(i).first == FieldLayout::uy)
+        heave = std::max(heave, double(problem.solution()[dofs[i]]));
+  }
+  return Utilities::MPI::max(heave, problem.communicator());
+}
+
 std::vector<double> Extremes::after_step(const RunView& view) {
   const BiotProblem& problem = view.run.problem;
   const double to_drawdown = -1.0 / problem.setup().gamma_w;
-  pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
+  const bool dug = first_dig_ >= 0.0 && view.step.time > first_dig_;
+  if (!dug)
+    pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
+  else if (has_wall_zone_)
+    floor_heave_ = std::max(floor_heave_, floor_heave_now(problem));
   const double outside_now = largest(problem, outside_surface_uy_, -1.0);
   outside_ = std::max(outside_, outside_now);
   stage_outside_.resize(view.run.schedule.stages().size(), 0.0);
@@ -101,6 +123,8 @@ void Extremes::finish(const RunView& view, toml::table& results) {
                       {"drawdown_anywhere_m", drawdown_}};
   if (has_wall_zone_) {
     summary.insert("settlement_inside_m", pit_);
+    if (first_dig_ >= 0.0) // the pit surface only until it is dug
+      summary.insert("floor_heave_m", floor_heave_);
     summary.insert("settlement_outside_m", outside_);
     summary.insert("drawdown_outside_m", drawdown_outside_);
     toml::array stages;

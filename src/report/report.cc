@@ -156,9 +156,15 @@ void glance_section(Document& d, const toml::table& r, const std::string& unit) 
   Section& s = d.add("Results at a glance");
   const auto& sum = *r["summary"].as_table();
   std::vector<std::string> items;
+  const bool dug = sum.contains("floor_heave_m");
   if (sum.contains("settlement_inside_m"))
-    items.push_back("Largest settlement inside the wall (pit surface): " +
+    items.push_back(std::string("Largest settlement inside the wall (pit surface") +
+                    (dug ? ", until dug): " : "): ") +
                     fixed(1000 * get(sum["settlement_inside_m"]), 1) + " mm");
+  if (dug)
+    items.push_back(
+        "Largest heave inside the wall (ground left in the pit, since the start): " +
+        fixed(1000 * get(sum["floor_heave_m"]), 1) + " mm");
   if (sum.contains("settlement_outside_m"))
     items.push_back("Largest settlement outside the wall (ground surface): " +
                     fixed(1000 * get(sum["settlement_outside_m"]), 1) + " mm");

@@ -94,6 +94,7 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.settlement_anywhere = sum["settlement_anywhere_m"].value_or(0.0);
   summary.drawdown_anywhere = sum["drawdown_anywhere_m"].value_or(0.0);
   summary.settlement_inside = sum["settlement_inside_m"].value<double>();
+  summary.floor_heave = sum["floor_heave_m"].value<double>();
   summary.settlement_outside = sum["settlement_outside_m"].value<double>();
   summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
   if (const auto* lines = r["discharge"].as_array())
@@ -118,8 +119,12 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
       << " unknowns, " << std::setprecision(1) << r.wall_seconds << " s wall time\n";
   out << std::setprecision(1);
   if (r.settlement_inside)
-    out << "  largest settlement inside the wall (pit surface): "
-        << *r.settlement_inside * 1000 << " mm\n";
+    out << "  largest settlement inside the wall (pit surface"
+        << (r.floor_heave ? ", until dug): " : "): ") << *r.settlement_inside * 1000
+        << " mm\n";
+  if (r.floor_heave)
+    out << "  largest heave inside the wall (ground left in the pit, since the start): "
+        << *r.floor_heave * 1000 << " mm\n";
   if (r.settlement_outside)
     out << "  largest settlement outside the wall (ground surface): "
         << *r.settlement_outside * 1000 << " mm\n";

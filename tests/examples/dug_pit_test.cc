@@ -96,6 +96,16 @@ TEST(DugPitExample, PropsCarryLoadOnlyOnceFittedAndDugSoilHasNoValues) {
       found = true;
     }
   EXPECT_TRUE(found);
+  // The summary's heave is the largest nodal value inside the wall after the first
+  // lift; a point sampled there (bilinear between nodes) cannot exceed it.
+  const auto results = toml::parse_file((run.folder / "results.toml").string());
+  const double heave = results["summary"]["floor_heave_m"].value_or(-1.0);
+  for (std::size_t i = 0; i < points.rows(); ++i)
+    if (points.text("point")[i] == "under_floor" &&
+        points.column("time_days")[i] > 45.0) {
+      EXPECT_GE(heave, -points.column("settlement_m")[i] - 1e-12);
+    }
+  EXPECT_GT(heave, 0.0);
 }
 
 TEST(DugPitExample, WaterBalanceClosesThroughTheDigs) {

@@ -23,7 +23,8 @@ struct RunOptions {
 struct RunSummary {
   std::size_t cells = 0, dofs = 0, steps = 0;
   double wall_seconds = 0.0;
-  std::optional<double> settlement_inside;  ///< m, at the pit surface
+  std::optional<double> settlement_inside;  ///< m, at the pit surface (until dug)
+  std::optional<double> floor_heave;        ///< m, of the ground left in a dug pit
   std::optional<double> settlement_outside; ///< m, at the ground surface outside the wall
   double settlement_anywhere = 0.0;         ///< m, largest over the whole model
   std::optional<double> drawdown_outside;   ///< m, outside the wall, any depth
