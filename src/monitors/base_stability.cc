@@ -29,6 +29,15 @@ std::vector<Point<2>> along(double a, double b, double y) {
   return points;
 }
 
+/// As along(), with both ends (moved in by `inset`) as well: the exit gradient is
+/// largest at the wall face, half a sample spacing from the nearest midpoint.
+std::vector<Point<2>> along_with_ends(double a, double b, double y, double inset) {
+  std::vector<Point<2>> points = along(a, b, y);
+  points.emplace_back(a + inset, y);
+  points.emplace_back(b - inset, y);
+  return points;
+}
+
 /// The inside of the pit, [x0, x1].
 std::pair<double, double> pit_span(const scenario::Section& s, AnalysisType analysis) {
   const double half = s.excavation_width / 2;
@@ -189,7 +198,8 @@ const BaseStability::Samples& BaseStability::samples_at(double dig,
   const auto& sec = section_;
   const auto [x0, x1] = pit_span(sec, scenario_.analysis);
   const double delta = 1e-6 * (sec.ground_surface - sec.bottom);
-  s.exit.emplace(problem, along(x0, x1, dig - delta), "exit-gradient samples");
+  s.exit.emplace(problem, along_with_ends(x0, x1, dig - delta, delta),
+                 "exit-gradient samples");
   const double half = sec.excavation_width / 2;
   for (const auto& side : sides_) {
     // Terzaghi's prism: d/2 wide beside the toe, or as wide as the pit (a shaft's
@@ -200,7 +210,8 @@ const BaseStability::Samples& BaseStability::samples_at(double dig,
     s.prism_widths.push_back(b - a);
     s.prisms.emplace_back(
         SamplePoints(problem, along(a, b, sec.wall->toe), "heave prism base"),
-        SamplePoints(problem, along(a, b, dig), "heave prism top"));
+        // Just below the floor: on it, a sample may fall in a dug cell above.
+        SamplePoints(problem, along(a, b, dig - delta), "heave prism top"));
   }
   for (const std::size_t k : uplift_layers_) {
     const double underside = sec.layers[k + 1].top;
