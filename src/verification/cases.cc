@@ -45,6 +45,10 @@ const std::vector<VerificationCase>& all_cases() {
        "steady seepage through a dug column whose floor drains to the pit one way: "
        "upward flow leaves at the pit's pressure, downward drainage seals the floor",
        run_drained_formation},
+      {"strip-excavation",
+       "a long strip dug 0.05 m into level ground: undrained pore pressure and drained "
+       "stress changes below it against the strip-load solution, as an unloading",
+       run_strip_excavation},
   };
   return cases;
 }

@@ -22,6 +22,8 @@ struct SampleValues {
   double vertical_effective_stress = 0.0;    ///< kPa, compression positive
   double mean_effective_stress = 0.0;        ///< kPa, compression positive
   double deviator_stress = 0.0;              ///< kPa
+  double horizontal_effective_stress = 0.0;  ///< in-plane, kPa, compression positive
+  double shear_effective_stress = 0.0;       ///< sigma'_xy (y up, tension positive), kPa
   double flux_x = 0.0, flux_y = 0.0;         ///< Darcy flux, m/s
   double gradient_x = 0.0, gradient_y = 0.0; ///< hydraulic gradient grad h
 };
