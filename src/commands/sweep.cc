@@ -107,7 +107,8 @@ void run_sweep(const scenario::SweepSpec& sweep,
   const unsigned int size = dealii::Utilities::MPI::n_mpi_processes(world);
   if (options.group_size == 0 || options.group_size > size)
     throw InputError("--group-size must lie in 1.." + std::to_string(size));
-  prepare_run_folder(options.folder, options.overwrite, world);
+  prepare_run_folder(options.folder, options.overwrite, FolderKind::sweep,
+                     {sweep.source_path, sweep.scenario_path}, world);
   const std::size_t n = scenario::variant_count(sweep);
   if (rank == 0)
     for (std::size_t i = 0; i < n; ++i) {
@@ -141,6 +142,7 @@ void run_sweep(const scenario::SweepSpec& sweep,
   MPI_Barrier(world);
   if (rank == 0)
     write_summary(sweep, options.folder, log);
+  write_folder_state(options.folder, FolderKind::sweep, "finished", "", world);
 }
 
 } // namespace settlewell

@@ -177,6 +177,8 @@ void write_manifest(const std::string& path,
     parts.insert(part, seconds);
   const toml::table manifest{
       {"program", "settlewell"},
+      {"kind", "run"},
+      {"state", "finished"},
       {"version", version_string},
       {"input", s.source_path},
       {"input_sha256", sha256_of_file(s.source_path)},

@@ -63,6 +63,7 @@ step_row(const StepReport& r, std::size_t number, std::size_t stage, bool digs) 
 struct Simulation::Impl {
   Impl(scenario::Scenario s, MPI_Comm comm);
   void prepare_folder(const RunOptions& options) const;
+  RunSummary run(const RunOptions& options);
   void start(const monitors::RunView& view);
   void step(const monitors::RunView& view, CsvFile& steps);
   void check_initial_balance();
@@ -90,7 +91,9 @@ Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
     , initial(scenario, mesh)
     , schedule(scenario)
     , model(model::build_model(scenario, mesh, initial, schedule))
-    , timer(comm, std::cout, TimerOutput::never, TimerOutput::wall_times) {
+    // MPI_COMM_SELF: with a communicator, deal.II prints a page of warnings when the
+    // timer is destroyed while an error (a one-line InputError) is on its way out.
+    , timer(MPI_COMM_SELF, std::cout, TimerOutput::never, TimerOutput::wall_times) {
   problem = std::make_unique<BiotProblem>(mesh, model.setup);
   derivation = std::make_unique<Derivation>(*problem, initial.fields());
   context = std::make_unique<monitors::RunContext>(
@@ -100,7 +103,10 @@ Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
 
 void Simulation::Impl::prepare_folder(const RunOptions& options) const {
   const std::string& dir = options.run_directory;
-  prepare_run_folder(dir, options.overwrite, comm);
+  std::vector<std::string> inputs{scenario.source_path};
+  if (scenario.mesh_file)
+    inputs.push_back(scenario.mesh_file->path);
+  prepare_run_folder(dir, options.overwrite, FolderKind::run, inputs, comm);
   if (is_root(comm))
     std::filesystem::copy_file(scenario.source_path, dir + "/scenario.toml",
                                std::filesystem::copy_options::overwrite_existing);
@@ -164,11 +170,22 @@ Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
 Simulation::~Simulation() = default;
 
 RunSummary Simulation::run(const RunOptions& options) {
-  Impl& m = *impl_;
+  impl_->prepare_folder(options);
+  // The folder says how the run ended, also when it stopped on an error.
+  try {
+    return impl_->run(options);
+  } catch (const std::exception& e) {
+    write_folder_state(options.run_directory, FolderKind::run, "failed", e.what(),
+                       impl_->comm);
+    throw;
+  }
+}
+
+RunSummary Simulation::Impl::run(const RunOptions& options) {
+  Impl& m = *this;
   Timer wall(m.comm);
   const std::string started = utc_now();
   const std::string& dir = options.run_directory;
-  m.prepare_folder(options);
   m.check_initial_balance();
 
   StepReport report; // t = 0: no step yet

@@ -1,6 +1,7 @@
 // The report of the basement-pit example, and the water balance of its run.
 #include "example_support.h"
 
+#include "settlewell/output/run_folder.h"
 #include "settlewell/report/report.h"
 
 #include <gtest/gtest.h>
@@ -42,6 +43,12 @@ TEST(Report, OpensInHeadlessChromiumWithEveryFigure) {
   settlewell::report::write_report(run.folder.string(), std::cout);
   ASSERT_TRUE(std::filesystem::exists(run.folder / "report.html"));
   ASSERT_TRUE(std::filesystem::exists(run.folder / "report.md"));
+  // Everything the run and its report wrote is on the list that --overwrite may
+  // remove (else a second run into the folder would be refused).
+  for (const auto& entry : std::filesystem::directory_iterator(run.folder))
+    EXPECT_TRUE(settlewell::is_folder_entry(settlewell::FolderKind::run,
+                                            entry.path().filename().string()))
+        << entry.path();
   ASSERT_TRUE(std::filesystem::exists(CHROMIUM)) << "install Debian's chromium";
   const std::string command = "/usr/bin/python3 " + std::string(SETTLEWELL_SOURCE_DIR) +
                               "/tests/report/check_report.py " + run.folder.string() +
