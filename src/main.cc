@@ -3,10 +3,12 @@
 #include "settlewell/commands/check.h"
 #include "settlewell/commands/sweep.h"
 #include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
 #include "settlewell/mesh/mesh_files.h"
 #include "settlewell/report/report.h"
 #include "settlewell/run/simulation.h"
+#include "settlewell/run/stop_request.h"
 #include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
 #include "settlewell/scenario/sweep_file.h"
@@ -129,6 +131,16 @@ std::string default_folder(const std::string& scenario, const std::string& suffi
   return std::filesystem::path(scenario).stem().string() + suffix;
 }
 
+/// One line for a run that SIGINT or SIGTERM stopped; the shell's status for it.
+int report_stop(const settlewell::RunSummary& summary) {
+  err() << "settlewell: stopped by " << settlewell::signal_name(summary.stopped_by)
+        << " after step " << summary.steps << " of " << summary.steps_planned << " (day "
+        << settlewell::units::to_days(summary.stopped_at) << "); "
+        << summary.run_directory
+        << " holds the results of the steps done, marked stopped in manifest.json\n";
+  return 128 + summary.stopped_by;
+}
+
 int run_run(const ScenarioOptions& o) {
   auto scenario = settlewell::scenario::read_scenario(o.scenario);
   apply_overrides(o, scenario);
@@ -139,7 +151,10 @@ int run_run(const ScenarioOptions& o) {
   options.overwrite = o.overwrite;
   options.show_progress = !o.quiet;
   options.progress_in_place = isatty(STDERR_FILENO) != 0;
+  settlewell::catch_stop_signals();
   const auto summary = simulation.run(options);
+  if (summary.stopped_by != 0)
+    return report_stop(summary);
   if (out().is_active())
     settlewell::print_summary(out().get_stream(), summary,
                               settlewell::scenario::read_scenario(o.scenario));
@@ -192,9 +207,15 @@ int run_sweep_command(const SweepCommand& c) {
   options.group_size = c.group_size;
   options.overwrite = c.overwrite;
   std::ostringstream discarded; // the other ranks' log
-  settlewell::run_sweep(sweep, options, MPI_COMM_WORLD,
-                        out().is_active() ? out().get_stream() : discarded);
-  return exit_ok;
+  settlewell::catch_stop_signals();
+  const int stopped = settlewell::run_sweep(
+      sweep, options, MPI_COMM_WORLD, out().is_active() ? out().get_stream() : discarded);
+  if (stopped == 0)
+    return exit_ok;
+  err() << "settlewell: the sweep stopped on " << settlewell::signal_name(stopped) << "; "
+        << options.folder
+        << " holds the variants that ran, marked stopped in manifest.json\n";
+  return 128 + stopped;
 }
 
 CLI::App* add_verify(CLI::App& app, VerifyOptions& o) {

@@ -5,6 +5,7 @@
 #include "settlewell/output/csv_file.h"
 #include "settlewell/output/run_folder.h"
 #include "settlewell/run/simulation.h"
+#include "settlewell/run/stop_request.h"
 #include "settlewell/scenario/parse.h"
 
 #include <deal.II/base/mpi.h>
@@ -99,10 +100,10 @@ void write_summary(const scenario::SweepSpec& sweep,
 
 } // namespace
 
-void run_sweep(const scenario::SweepSpec& sweep,
-               const SweepOptions& options,
-               MPI_Comm world,
-               std::ostream& log) {
+int run_sweep(const scenario::SweepSpec& sweep,
+              const SweepOptions& options,
+              MPI_Comm world,
+              std::ostream& log) {
   const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(world);
   const unsigned int size = dealii::Utilities::MPI::n_mpi_processes(world);
   if (options.group_size == 0 || options.group_size > size)
@@ -120,6 +121,7 @@ void run_sweep(const scenario::SweepSpec& sweep,
 
   const unsigned int groups = size / options.group_size;
   const unsigned int group = rank / options.group_size;
+  int stopped = 0;
   MPI_Comm comm;
   MPI_Comm_split(world, group < groups ? int(group) : MPI_UNDEFINED, int(rank), &comm);
   if (comm != MPI_COMM_NULL) {
@@ -131,6 +133,8 @@ void run_sweep(const scenario::SweepSpec& sweep,
       run.run_directory = folder + "/run";
       run.show_progress = false;
       const RunSummary summary = simulation.run(run);
+      if ((stopped = summary.stopped_by) != 0)
+        break;
       if (group_root)
         log << "variant " << i << " of " << n << " done in " << std::fixed
             << std::setprecision(1) << summary.wall_seconds << " s (processes " << rank
@@ -139,10 +143,16 @@ void run_sweep(const scenario::SweepSpec& sweep,
     }
     MPI_Comm_free(&comm);
   }
-  MPI_Barrier(world);
+  stopped = dealii::Utilities::MPI::max(stopped, world);
+  if (stopped != 0) {
+    write_folder_state(options.folder, FolderKind::sweep, "stopped", signal_name(stopped),
+                       world);
+    return stopped;
+  }
   if (rank == 0)
     write_summary(sweep, options.folder, log);
   write_folder_state(options.folder, FolderKind::sweep, "finished", "", world);
+  return 0;
 }
 
 } // namespace settlewell

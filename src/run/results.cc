@@ -6,6 +6,7 @@
 #include "settlewell/core/version.h"
 #include "settlewell/model/model_builder.h"
 #include "settlewell/output/run_folder.h"
+#include "settlewell/run/stop_request.h"
 #include "settlewell/scenario/describe.h"
 
 #include <deal.II/base/mpi.h>
@@ -175,10 +176,10 @@ void write_manifest(const std::string& path,
   toml::table parts;
   for (const auto& [part, seconds] : wall_time_by_part)
     parts.insert(part, seconds);
-  const toml::table manifest{
+  toml::table manifest{
       {"program", "settlewell"},
       {"kind", "run"},
-      {"state", "finished"},
+      {"state", r.stopped_by != 0 ? "stopped" : "finished"},
       {"version", version_string},
       {"input", s.source_path},
       {"input_sha256", sha256_of_file(s.source_path)},
@@ -193,6 +194,11 @@ void write_manifest(const std::string& path,
       {"steps", int64_t(r.steps)},
       {"time_unit", "days"},
       {"stages", stages}};
+  if (r.stopped_by != 0) {
+    manifest.insert("stopped_by", signal_name(r.stopped_by));
+    manifest.insert("stopped_at_days", to_days(r.stopped_at));
+    manifest.insert("steps_planned", int64_t(r.steps_planned));
+  }
   std::ofstream out(path);
   toml::json_formatter json{manifest};
   out << json << '\n';

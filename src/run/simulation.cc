@@ -1,4 +1,5 @@
 #include "settlewell/run/simulation.h"
+#include "settlewell/run/stop_request.h"
 
 #include "results.h"
 
@@ -188,6 +189,7 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   const std::string& dir = options.run_directory;
   m.check_initial_balance();
 
+  RunSummary summary;
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*m.context, dir, report, 0};
   m.start(view);
@@ -207,14 +209,18 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
     progress.step(m.schedule.stages()[k].name, k + 1, m.schedule.stages().size(),
                   units::to_days(report.time), units::to_days(report.dt),
                   report.solve_seconds);
+    if ((summary.stopped_by = stop_signal(m.comm)) != 0) {
+      summary.stopped_at = report.time;
+      break;
+    }
   }
   progress.finish();
 
-  RunSummary summary;
   summary.run_directory = dir;
   summary.cells = m.mesh.triangulation->n_global_active_cells();
   summary.dofs = m.problem->dof_handler().n_dofs();
-  summary.steps = times.size();
+  summary.steps = view.step_number;
+  summary.steps_planned = times.size();
   summary.wall_seconds = wall.wall_time();
   toml::table results =
       run_results(m.scenario, m.mesh, m.schedule, summary, started, m.comm);

@@ -20,10 +20,12 @@ struct SweepOptions {
 /// processes of `world` (MPI sub-communicators; variant i goes to group
 /// i mod groups). Then rank 0 writes <folder>/sweep_summary.csv (the parameter
 /// values and the headline results of each variant) and, if the sweep names a
-/// chart, <folder>/sweep_chart.png. Collective on `world`.
-void run_sweep(const scenario::SweepSpec& sweep,
-               const SweepOptions& options,
-               MPI_Comm world,
-               std::ostream& log);
+/// chart, <folder>/sweep_chart.png. Collective on `world`. Returns 0, or the
+/// signal (SIGINT, SIGTERM) that stopped it: then the variants that ran are whole,
+/// the sweep's manifest.json says "stopped" and there is no summary.
+int run_sweep(const scenario::SweepSpec& sweep,
+              const SweepOptions& options,
+              MPI_Comm world,
+              std::ostream& log);
 
 } // namespace settlewell

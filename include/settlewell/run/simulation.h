@@ -22,6 +22,11 @@ struct RunOptions {
 /// The headline numbers of a run (maxima over all steps), read from its results.
 struct RunSummary {
   std::size_t cells = 0, dofs = 0, steps = 0;
+  /// Set when SIGINT or SIGTERM stopped the run after `steps` of `steps_planned`
+  /// steps, at `stopped_at` (s): the signal's number.
+  int stopped_by = 0;
+  std::size_t steps_planned = 0;
+  double stopped_at = 0.0;
   double wall_seconds = 0.0;
   std::optional<double> settlement_inside;  ///< m, at the pit surface (until dug)
   std::optional<double> floor_heave;        ///< m, of the ground left in a dug pit
@@ -49,7 +54,9 @@ public:
   ~Simulation();
 
   /// Runs every stage, writing the run folder (fields, histories, profiles, checks,
-  /// steps.csv, results.toml, manifest.json). Collective.
+  /// steps.csv, results.toml, manifest.json). Collective. After catch_stop_signals(),
+  /// SIGINT or SIGTERM ends the run after its current step with the folder written
+  /// for the steps done and marked stopped (RunSummary::stopped_by).
   RunSummary run(const RunOptions& options);
 
 private:
