@@ -3,6 +3,7 @@
 #include "section_plan.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/files.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 
 #include <deal.II/base/mpi.h>
@@ -11,6 +12,8 @@
 
 #include <gmsh.h>
 
+#include <algorithm>
+#include <cmath>
 #include <filesystem>
 #include <map>
 #include <set>
@@ -31,6 +34,8 @@ struct GmshMeshData {
   std::vector<Point<2>> vertices;
   std::vector<CellData<2>> cells;
   std::vector<std::string> cell_region;
+  std::vector<std::size_t> cell_element; ///< Gmsh element tag
+  std::vector<int> cell_turn;            ///< +1 counter-clockwise, -1 clockwise
   std::map<std::string, std::vector<Edge>> curve_groups;
 };
 
@@ -42,6 +47,11 @@ std::map<std::size_t, std::size_t> read_nodes(std::vector<Point<2>>& vertices,
   gmsh::model::mesh::getNodes(tags, coords, parametric);
   std::map<std::size_t, std::size_t> index;
   for (std::size_t n = 0; n < tags.size(); ++n) {
+    for (int c = 0; c < 3; ++c)
+      if (!std::isfinite(coords[3 * n + c]) || std::abs(coords[3 * n + c]) > 1e7)
+        throw InputError(source + ": node " + std::to_string(tags[n]) +
+                         " has a coordinate that is not a number within 1e7 m of the "
+                         "origin (coordinates are metres)");
     if (std::abs(coords[3 * n + 2]) > 1e-9 * (1 + std::abs(coords[3 * n])))
       throw InputError(source + ": the mesh must lie in the plane z = 0");
     index[tags[n]] = vertices.size();
@@ -50,12 +60,18 @@ std::map<std::size_t, std::size_t> read_nodes(std::vector<Point<2>>& vertices,
   return index;
 }
 
-/// Elements of one type on the entities of a physical group, as node-tag lists.
-std::vector<std::vector<std::size_t>>
+/// An element of a physical group: its Gmsh tag and node tags.
+struct Element {
+  std::size_t tag;
+  std::vector<std::size_t> nodes;
+};
+
+/// Elements of one type on the entities of a physical group.
+std::vector<Element>
 group_elements(int dim, int group, const std::string& name, const std::string& source) {
   std::vector<int> entities;
   gmsh::model::getEntitiesForPhysicalGroup(dim, group, entities);
-  std::vector<std::vector<std::size_t>> elements;
+  std::vector<Element> elements;
   for (const int entity : entities) {
     std::vector<int> types;
     std::vector<std::vector<std::size_t>> element_tags, node_tags;
@@ -70,11 +86,78 @@ group_elements(int dim, int group, const std::string& name, const std::string& s
                               : "curve elements that are not 2-node lines"));
       const std::size_t per = dim == 2 ? 4 : 2;
       for (std::size_t e = 0; e < element_tags[t].size(); ++e)
-        elements.emplace_back(node_tags[t].begin() + e * per,
-                              node_tags[t].begin() + (e + 1) * per);
+        elements.push_back(
+            {element_tags[t][e],
+             std::vector<std::size_t>(node_tags[t].begin() + e * per,
+                                      node_tags[t].begin() + (e + 1) * per)});
     }
   }
   return elements;
+}
+
+std::size_t node_index(const std::map<std::size_t, std::size_t>& index,
+                       std::size_t tag,
+                       const std::string& where) {
+  const auto found = index.find(tag);
+  if (found == index.end())
+    throw InputError(where + " uses node " + std::to_string(tag) +
+                     ", which the file does not define");
+  return found->second;
+}
+
+/// (b - a) x (c - a), positive when a, b, c turn counter-clockwise.
+double turn(const Point<2>& a, const Point<2>& b, const Point<2>& c) {
+  return (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
+}
+
+/// The sense in which a quadrilateral's nodes (Gmsh's order, round the cell) turn:
+/// +1 or -1. Throws InputError for a node used twice, three nodes in a line, or a
+/// twisted (bow-tie) or re-entrant cell, whose corners turn both ways: none of
+/// these maps onto a square without a zero or negative Jacobian.
+int quad_turn(const Element& element,
+              const std::map<std::size_t, std::size_t>& index,
+              const std::vector<Point<2>>& vertices,
+              const std::string& where) {
+  const auto& n = element.nodes;
+  for (std::size_t i = 0; i < 4; ++i)
+    for (std::size_t j = i + 1; j < 4; ++j)
+      if (n[i] == n[j])
+        throw InputError(where + " uses node " + std::to_string(n[i]) + " twice");
+  Point<2> p[4];
+  double size = 0.0;
+  for (std::size_t i = 0; i < 4; ++i)
+    p[i] = vertices[node_index(index, n[i], where)];
+  for (std::size_t i = 0; i < 4; ++i)
+    size = std::max(size, p[i].distance(p[(i + 1) % 4]));
+  int positive = 0, negative = 0;
+  for (std::size_t i = 0; i < 4; ++i) {
+    const double corner = turn(p[i], p[(i + 1) % 4], p[(i + 3) % 4]);
+    if (std::abs(corner) <= 1e-12 * size * size)
+      throw InputError(where + " has no area at node " + std::to_string(n[i]) +
+                       " (three of its nodes lie in a line)");
+    (corner > 0 ? positive : negative) += 1;
+  }
+  if (positive != 0 && negative != 0)
+    throw InputError(where + " is twisted or turned in on itself: its corners turn " +
+                     "both ways (nodes " + std::to_string(n[0]) + " " +
+                     std::to_string(n[1]) + " " + std::to_string(n[2]) + " " +
+                     std::to_string(n[3]) + ")");
+  return positive != 0 ? 1 : -1;
+}
+
+/// Cells whose nodes run the other way round from most of the mesh's lie folded
+/// over their neighbours.
+void check_no_folded_cells(const GmshMeshData& data, const std::string& source) {
+  const auto counter_clockwise =
+      std::count(data.cell_turn.begin(), data.cell_turn.end(), 1);
+  const int usual =
+      2 * counter_clockwise >= std::ptrdiff_t(data.cell_turn.size()) ? 1 : -1;
+  for (std::size_t c = 0; c < data.cells.size(); ++c)
+    if (data.cell_turn[c] != usual)
+      throw InputError(source + ": element " + std::to_string(data.cell_element[c]) +
+                       " of group '" + data.cell_region[c] +
+                       "' is inverted: its nodes run the other way round from the "
+                       "mesh's other cells, so it lies folded over its neighbours");
 }
 
 GmshMeshData read_current_model(const std::string& source) {
@@ -91,23 +174,32 @@ GmshMeshData read_current_model(const std::string& source) {
                        " of dimension " + std::to_string(dim) +
                        " has no name; Settlewell addresses groups by name");
     if (dim == 2) {
-      for (const auto& nodes : group_elements(2, tag, name, source)) {
+      for (const auto& element : group_elements(2, tag, name, source)) {
+        const std::string where = source + ": element " + std::to_string(element.tag) +
+                                  " of group '" + name + "'";
+        data.cell_turn.push_back(quad_turn(element, index, data.vertices, where));
         CellData<2> cell;
-        // Gmsh numbers quadrilateral nodes counter-clockwise, deal.II lexicographically.
+        // Gmsh numbers quadrilateral nodes round the cell, deal.II lexicographically.
         const std::size_t order[4] = {0, 1, 3, 2};
         for (unsigned int v = 0; v < 4; ++v)
-          cell.vertices[v] = index.at(nodes[order[v]]);
+          cell.vertices[v] = node_index(index, element.nodes[order[v]], where);
         data.cells.push_back(cell);
         data.cell_region.push_back(name);
+        data.cell_element.push_back(element.tag);
       }
     } else if (dim == 1) {
-      for (const auto& nodes : group_elements(1, tag, name, source))
+      for (const auto& element : group_elements(1, tag, name, source)) {
+        const std::string where = source + ": element " + std::to_string(element.tag) +
+                                  " of group '" + name + "'";
         data.curve_groups[name].push_back(
-            edge_of(index.at(nodes[0]), index.at(nodes[1])));
+            edge_of(node_index(index, element.nodes[0], where),
+                    node_index(index, element.nodes[1], where)));
+      }
     }
   }
   if (data.cells.empty())
     throw InputError(source + ": the mesh has no physical surface naming its regions");
+  check_no_folded_cells(data, source);
   return data;
 }
 
@@ -171,8 +263,9 @@ Mesh mesh_from_current_model(const std::string& source, MPI_Comm comm) {
 } // namespace
 
 Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
-  if (!std::filesystem::exists(path))
-    throw InputError(path + ": no such mesh file");
+  if (const auto problem = input_file_problem(path, largest_mesh_file_bytes);
+      !problem.empty())
+    throw InputError(path + ": " + problem);
   GmshSession session;
   try {
     gmsh::open(path);

@@ -2,6 +2,7 @@
 
 #include "parse_parts.h"
 #include "settlewell/core/errors.h"
+#include "settlewell/core/files.h"
 #include "settlewell/scenario/keys.h"
 
 #include <algorithm>
@@ -174,6 +175,9 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
 }
 
 Scenario read_scenario(const std::string& path) {
+  if (const auto problem = input_file_problem(path, largest_text_input_bytes);
+      !problem.empty())
+    throw InputError(path + ": " + problem);
   std::ifstream in(path);
   if (!in)
     throw InputError(path + ": cannot open the scenario file");

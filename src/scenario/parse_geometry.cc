@@ -1,5 +1,6 @@
 // Geometry of a scenario: a parametric section, a layered box, or a Gmsh file.
 #include "parse_parts.h"
+#include "settlewell/core/files.h"
 
 #include <filesystem>
 #include <fstream>
@@ -207,8 +208,9 @@ MeshFile read_mesh_file(const TableReader& r, const Scenario& s) {
   const std::filesystem::path relative(m.path);
   if (relative.is_relative())
     m.path = (std::filesystem::path(s.source_path).parent_path() / relative).string();
-  if (!std::ifstream(m.path))
-    r.fail("path", "cannot read '" + m.path + "'");
+  if (const auto problem = input_file_problem(m.path, largest_mesh_file_bytes);
+      !problem.empty())
+    r.fail("path", "cannot read '" + m.path + "': " + problem);
   if (const toml::table* regions = r.table("regions")) {
     const TableReader rr(*regions, "mesh_file.regions", "mesh_file.regions", r.file());
     for (const auto& [key, node] : *regions) {

@@ -1,6 +1,7 @@
 #include "reader.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/files.h"
 #include "settlewell/scenario/keys.h"
 
 #include <algorithm>
@@ -35,6 +36,9 @@ toml::table parse_toml(std::string_view text, const std::string& name) {
 }
 
 toml::table parse_toml_file(const std::string& path) {
+  if (const auto problem = input_file_problem(path, largest_text_input_bytes);
+      !problem.empty())
+    throw InputError(path + ": " + problem);
   try {
     return toml::parse_file(path);
   } catch (const toml::parse_error& e) {
