@@ -22,7 +22,7 @@ private:
   std::map<std::string, std::vector<double>> stage_volume_; ///< m^3 per stage
   double worst_balance_ = 0.0;
   double largest_moved_ = 0.0; ///< water moved in the largest step so far, m^3
-  bool warned_ = false;
+  std::size_t steps_off_ = 0;  ///< steps whose balance error exceeds the tolerance
 };
 
 } // namespace settlewell::monitors

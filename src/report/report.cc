@@ -105,7 +105,8 @@ void run_section(Document& d, const toml::table& r) {
          {num(get(r["processes"]), 4) + ", " + fixed(get(r["wall_time_s"]), 1) + " s"}},
         {{"water balance, worst step (relative)"},
          {num(get(r["water_balance"]["largest_relative_error"]), 2) + " (tolerance " +
-              num(get(r["water_balance"]["tolerance"]), 2) + ")",
+              num(get(r["water_balance"]["tolerance"]), 2) + "; " +
+              num(get(r["water_balance"]["steps_over_tolerance"]), 8) + " steps over it)",
           balance_ok ? Flag::ok : Flag::attention}}}});
 }
 

@@ -111,6 +111,8 @@ void read_summary(const toml::table& r, RunSummary& summary) {
     }
   summary.mass_balance = r["water_balance"]["largest_relative_error"].value_or(0.0);
   summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
+  summary.mass_balance_steps_off =
+      std::size_t(r["water_balance"]["steps_over_tolerance"].value_or(int64_t(0)));
 }
 
 void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scenario& s) {
@@ -145,6 +147,11 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   if (r.pumped_volume.size() > 1)
     out << "  pumped volume, total: " << total
         << (per_metre ? " m3 per metre run\n" : " m3\n");
+  if (r.mass_balance_steps_off > 0)
+    out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
+        << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance
+        << " (worst " << r.mass_balance << "); see steps.csv\n"
+        << std::fixed;
   out << "  results: " << r.run_directory
       << " (fields/fields.pvd, points.csv, profiles/, "
       << "steps.csv, manifest.json)\n";

@@ -1,8 +1,8 @@
 #include "settlewell/run/simulation.h"
-#include "settlewell/run/stop_request.h"
 
 #include "results.h"
 
+#include "settlewell/core/errors.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/mesh/mesh_files.h"
@@ -14,16 +14,19 @@
 #include "settlewell/output/run_folder.h"
 #include "settlewell/physics/biot_problem.h"
 #include "settlewell/run/progress.h"
+#include "settlewell/run/stop_request.h"
 #include "settlewell/solvers/linear_solver.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/timer.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <iomanip>
 #include <iostream>
 #include <optional>
+#include <sstream>
 
 namespace settlewell {
 
@@ -57,6 +60,20 @@ step_row(const StepReport& r, std::size_t number, std::size_t stage, bool digs) 
   if (digs)
     row.push_back(double(r.drain_rounds));
   return row;
+}
+
+/// Stops the run before a step whose solution is not finite reaches the outputs:
+/// those of the steps before stay as they are. A sum carries NaN and infinity
+/// where PETSc's max-norm would skip a NaN.
+void check_finite(const BiotProblem& problem, std::size_t step) {
+  if (std::isfinite(problem.solution().mean_value()))
+    return;
+  std::ostringstream os;
+  os << "step " << step << " (day " << units::to_days(problem.time())
+     << "): the solution is not finite (NaN or infinite); check the scenario's "
+        "conductivities, stiffnesses and heads for values out of range. The outputs "
+        "of the steps before are kept";
+  throw SolverError(os.str());
 }
 
 } // namespace
@@ -203,6 +220,7 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
       TimerOutput::Scope part(m.timer, "time steps (assembly and solve)");
       report = m.problem->advance_to(times[n]);
     }
+    check_finite(*m.problem, n + 1);
     view.step_number = n + 1;
     m.step(view, steps);
     const std::size_t k = view.stage();

@@ -25,10 +25,23 @@ std::string Scenario::location_of(const std::string& key_path) const {
 
 namespace {
 
+// The ranges that values of a material must lie in: wide enough for any soil, rock
+// or wall (steel: 78.5 kN/m3, E 2.1e8 kPa; clean gravel about 1 m/s, intact clay
+// 1e-13 m/s), narrow enough to catch a slip of units or exponent. Common practice,
+// no single source.
+const char* const material_bounds = "the range of soils, rock and walls";
+constexpr double lightest = 1.0, heaviest = 100.0;        // kN/m3
+constexpr double softest = 10.0, stiffest = 1e9;          // kPa
+constexpr double tightest = 1e-14, most_permeable = 10.0; // m/s
+
+double conductivity(const TableReader& r, const std::string& key) {
+  return r.within(key, tightest, most_permeable, "m/s", material_bounds);
+}
+
 Material read_material(const std::string& name, const TableReader& r) {
   Material m;
   m.name = name;
-  m.unit_weight = r.positive("unit_weight");
+  m.unit_weight = r.within("unit_weight", lightest, heaviest, "kN/m3", material_bounds);
   auto& p = m.poroelastic;
   p.poisson_ratio = r.number("poisson_ratio");
   if (!(p.poisson_ratio > -1.0 && p.poisson_ratio < 0.5))
@@ -38,21 +51,24 @@ Material read_material(const std::string& name, const TableReader& r) {
   if (n_stiffness != 1)
     r.fail_here("give exactly one of youngs_modulus, constrained_modulus and mv");
   if (r.has("youngs_modulus"))
-    p.youngs_modulus = r.positive("youngs_modulus");
+    p.youngs_modulus =
+        r.within("youngs_modulus", softest, stiffest, "kPa", material_bounds);
   else if (r.has("constrained_modulus"))
     p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(
-        1.0 / r.positive("constrained_modulus"), p.poisson_ratio);
+        1.0 / r.within("constrained_modulus", softest, stiffest, "kPa", material_bounds),
+        p.poisson_ratio);
   else
-    p.youngs_modulus =
-        PoroelasticMaterial::youngs_from_mv(r.positive("mv"), p.poisson_ratio);
+    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(
+        r.within("mv", 1.0 / stiffest, 1.0 / softest, "1/kPa", material_bounds),
+        p.poisson_ratio);
 
   if (r.has("conductivity") == (r.has("conductivity_x") || r.has("conductivity_y")))
     r.fail_here("give conductivity, or both conductivity_x and conductivity_y");
   if (r.has("conductivity")) {
-    p.conductivity_x = p.conductivity_y = r.positive("conductivity");
+    p.conductivity_x = p.conductivity_y = conductivity(r, "conductivity");
   } else {
-    p.conductivity_x = r.positive("conductivity_x");
-    p.conductivity_y = r.positive("conductivity_y");
+    p.conductivity_x = conductivity(r, "conductivity_x");
+    p.conductivity_y = conductivity(r, "conductivity_y");
   }
   p.biot_alpha = r.number("biot_alpha");
   if (!(p.biot_alpha > 0.0 && p.biot_alpha <= 1.0))
@@ -100,7 +116,7 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
   if (t == nullptr)
     top.fail_here("missing the required table [groundwater]");
   const TableReader r(*t, "groundwater", "groundwater", top.file());
-  s.groundwater.water_table = r.number("water_table");
+  s.groundwater.water_table = r.elevation("water_table");
   const toml::table* heads = r.table("layer_heads");
   if (heads == nullptr)
     return;
@@ -115,7 +131,7 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
                                            ? std::string()
                                            : "; did you mean '" + suggestion + "'?"));
     }
-    s.groundwater.layer_heads[name] = h.number(name);
+    s.groundwater.layer_heads[name] = h.elevation(name);
   }
 }
 
@@ -133,7 +149,7 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
       if (b.hydraulic == BoundarySpec::Hydraulic::no_flow)
         r.fail("head", "a no_flow boundary takes no head");
       b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
-      b.head = r.number("head");
+      b.head = r.elevation("head");
     }
     const std::string mechanical = r.optional_text("mechanical").value_or("");
     if (mechanical == "free")

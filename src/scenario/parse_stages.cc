@@ -26,7 +26,7 @@ Target read_target(const TableReader& r, const std::string& what) {
   if (r.has("head") == r.has("discharge"))
     r.fail_here("give either head or discharge for " + what);
   if (r.has("head"))
-    return {Target::Kind::head, r.number("head")};
+    return {Target::Kind::head, r.elevation("head")};
   const double q = r.number("discharge");
   if (q < 0.0)
     r.fail("discharge", "must not be negative (it is the pumped rate)");
@@ -59,7 +59,7 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
     stage.wells[name] = read_target(w, "well '" + name + "'");
   });
   for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
-    stage.boundary_heads[name] = b.number("head");
+    stage.boundary_heads[name] = b.elevation("head");
   });
   if (r.has("dig_level")) {
     if (!s.section)
@@ -82,14 +82,14 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
   if (r.has("pit_water_level")) {
     if (!s.section)
       r.fail("pit_water_level", "needs a [section] geometry");
-    stage.pit_water_level = r.number("pit_water_level");
+    stage.pit_water_level = r.elevation("pit_water_level");
     if (*stage.pit_water_level > s.section->ground_surface)
       r.fail("pit_water_level", "lies above the ground surface");
   }
   if (r.has("excavation_level_head")) {
     if (!s.section)
       r.fail("excavation_level_head", "needs a [section] geometry");
-    stage.excavation_level_head = r.number("excavation_level_head");
+    stage.excavation_level_head = r.elevation("excavation_level_head");
   }
   for_each_table(r, "loads", [&](const TableReader& l) {
     SurfaceLoad load;

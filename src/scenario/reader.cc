@@ -135,6 +135,22 @@ double TableReader::positive(const std::string& key) const {
   return value;
 }
 
+double TableReader::elevation(const std::string& key) const {
+  return within(key, -1e4, 1e4, "m", "heads and elevations within 10 km of the datum");
+}
+
+double TableReader::within(const std::string& key,
+                           double low,
+                           double high,
+                           const std::string& unit,
+                           const std::string& bounds) const {
+  const double value = number(key);
+  if (!(value >= low && value <= high))
+    fail(key, "must lie in [" + format_number(low) + ", " + format_number(high) + "] " +
+                  unit + ", " + bounds + " (got " + format_number(value) + ")");
+  return value;
+}
+
 std::optional<std::string> TableReader::optional_text(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)

@@ -34,6 +34,15 @@ public:
   // is read with optional_*() and computed by the caller.
   double number(const std::string& key) const;
   double positive(const std::string& key) const; ///< number(key), > 0
+  /// number(key) in [low, high], else an error naming the range, its `unit` and
+  /// what bounds it (values outside are typing slips, not ground).
+  /// A head or elevation, m: within(key, -1e4, 1e4, ...), ten kilometres of the datum.
+  double elevation(const std::string& key) const;
+  double within(const std::string& key,
+                double low,
+                double high,
+                const std::string& unit,
+                const std::string& bounds) const;
   std::string text(const std::string& key) const;
   bool boolean(const std::string& key) const;
   long long integer(const std::string& key) const;

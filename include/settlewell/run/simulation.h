@@ -42,6 +42,7 @@ struct RunSummary {
   std::map<std::string, double> final_discharge;
   /// Largest relative water-balance error of a step, and its tolerance.
   double mass_balance = 0.0, mass_balance_tolerance = 0.0;
+  std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
   std::string run_directory;
 };
 
