@@ -37,6 +37,7 @@ constexpr int exit_checks_failed = 1;
 constexpr int exit_usage = 2;
 constexpr int exit_solver = 3;
 constexpr int exit_internal = 3;
+constexpr int exit_system = 4;
 
 bool is_root() {
   return dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0;
@@ -378,6 +379,13 @@ int main(int argc, char** argv) {
   } catch (const settlewell::SolverError& e) {
     err() << "settlewell: solver error: " << e.what() << '\n';
     return exit_solver;
+  } catch (const settlewell::SystemError& e) {
+    err() << "settlewell: system error: " << e.what() << '\n';
+    return exit_system;
+  } catch (const std::filesystem::filesystem_error& e) {
+    err() << "settlewell: system error: " << e.path1().string() << ": "
+          << e.code().message() << '\n';
+    return exit_system;
   } catch (const dealii::ExceptionBase& e) {
     // A failed assertion (AssertThrow) in the library or in deal.II: its message,
     // on one line, without deal.II's multi-line frame.

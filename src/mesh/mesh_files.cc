@@ -3,6 +3,7 @@
 #include "settlewell/mesh/mesh_files.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 
 #include <deal.II/base/data_out_base.h>
@@ -20,13 +21,6 @@ using namespace dealii;
 
 namespace {
 
-std::ofstream open_for_writing(const std::string& path) {
-  std::ofstream out(path);
-  if (!out)
-    throw InputError(path + ": cannot write");
-  return out;
-}
-
 /// Cells with their region id as cell data.
 void write_cells(const Mesh& mesh, const std::string& path) {
   DataOut<2> data_out;
@@ -36,8 +30,7 @@ void write_cells(const Mesh& mesh, const std::string& path) {
     region[cell->active_cell_index()] = cell->material_id();
   data_out.add_data_vector(region, "region", DataOut<2>::type_cell_data);
   data_out.build_patches();
-  auto out = open_for_writing(path);
-  data_out.write_vtu(out);
+  write_whole_file(path, [&](std::ostream& out) { data_out.write_vtu(out); });
 }
 
 /// Every boundary face and internal-line segment as a two-point patch carrying the
@@ -68,8 +61,9 @@ std::vector<std::string> write_lines(const Mesh& mesh, const std::string& path) 
     for (const auto& s : segments)
       add_segment(s.a, s.b);
   }
-  auto out = open_for_writing(path);
-  DataOutBase::write_vtu(patches, {"line"}, {}, DataOutBase::VtkFlags(), out);
+  write_whole_file(path, [&](std::ostream& out) {
+    DataOutBase::write_vtu(patches, {"line"}, {}, DataOutBase::VtkFlags(), out);
+  });
   return names;
 }
 
@@ -81,10 +75,11 @@ void write_names(const Mesh& mesh,
     regions.insert(std::to_string(mesh.names.region_id(name)), name);
   for (std::size_t id = 0; id < lines.size(); ++id)
     line_names.insert(std::to_string(id), lines[id]);
-  auto out = open_for_writing(path);
-  out << "# The names of the region ids of mesh_cells.vtu and the line ids of\n"
-         "# mesh_lines.vtu.\n"
-      << toml::table{{"regions", regions}, {"lines", line_names}} << '\n';
+  write_whole_file(path, [&](std::ostream& out) {
+    out << "# The names of the region ids of mesh_cells.vtu and the line ids of\n"
+           "# mesh_lines.vtu.\n"
+        << toml::table{{"regions", regions}, {"lines", line_names}} << '\n';
+  });
 }
 
 } // namespace

@@ -1,9 +1,11 @@
 #include "settlewell/output/csv_file.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
 
 #include <deal.II/base/mpi.h>
 
+#include <cerrno>
 #include <iomanip>
 
 namespace settlewell {
@@ -28,9 +30,10 @@ CsvFile::CsvFile(const std::string& path,
                  MPI_Comm comm) {
   if (dealii::Utilities::MPI::this_mpi_process(comm) != 0)
     return;
+  errno = 0;
   out_ = std::make_unique<std::ofstream>(path);
-  if (!*out_)
-    throw InputError(path + ": cannot write");
+  path_ = path;
+  check_stream(*out_, path);
   for (std::size_t i = 0; i < header.size(); ++i)
     *out_ << (i ? "," : "") << csv_field(header[i]);
   *out_ << '\n';
@@ -55,6 +58,7 @@ void CsvFile::row_with_gaps(const std::vector<std::optional<double>>& values,
     first = false;
   }
   *out_ << '\n' << std::flush;
+  check_stream(*out_, path_);
 }
 
 } // namespace settlewell

@@ -1,5 +1,6 @@
 #include "settlewell/output/field_writer.h"
 
+#include "settlewell/core/file_writing.h"
 #include "settlewell/core/units.h"
 
 #include <deal.II/base/mpi.h>
@@ -143,16 +144,17 @@ std::string FieldWriter::write(const BiotProblem& problem) {
     std::ostringstream name;
     name << basename_ << '_' << std::setw(4) << std::setfill('0') << counter << ".vtu";
     file = name.str();
-    std::ofstream out(directory_ + "/" + file);
-    data_out.write_vtu(out);
+    write_whole_file(directory_ + "/" + file,
+                     [&](std::ostream& out) { data_out.write_vtu(out); });
   } else {
     file = data_out.write_vtu_with_pvtu_record(directory_ + "/", basename_, counter,
                                                comm_, 4, 0);
   }
   series_.emplace_back(units::to_days(problem.time()), file);
   if (Utilities::MPI::this_mpi_process(comm_) == 0) {
-    std::ofstream pvd(series_path());
-    DataOutBase::write_pvd_record(pvd, series_);
+    write_whole_file(series_path(), [&](std::ostream& pvd) {
+      DataOutBase::write_pvd_record(pvd, series_);
+    });
   }
   return directory_ + "/" + file;
 }

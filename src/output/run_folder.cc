@@ -1,6 +1,7 @@
 #include "settlewell/output/run_folder.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -129,6 +130,11 @@ bool is_folder_entry(FolderKind kind, const std::string& name) {
   static const std::set<std::string> sweep{"manifest.json", "sweep_summary.csv",
                                            "sweep_chart.png", "sweep_chart.log"};
   static const std::regex variant("variant_[0-9]+");
+  // A file being written (write_whole_file) when the run was killed.
+  const std::string suffix = ".partial";
+  if (name.size() > suffix.size() &&
+      name.compare(name.size() - suffix.size(), suffix.size(), suffix) == 0)
+    return is_folder_entry(kind, name.substr(0, name.size() - suffix.size()));
   if (kind == FolderKind::run)
     return run.count(name) != 0;
   return sweep.count(name) != 0 || std::regex_match(name, variant);
@@ -139,18 +145,22 @@ void prepare_run_folder(const std::string& path,
                         FolderKind kind,
                         const std::vector<std::string>& inputs,
                         MPI_Comm comm) {
+  // A refusal starts with 'I' for the user's choice to correct (exit 2) or 'S' for
+  // the system's (exit 4).
   std::string refusal;
   if (dealii::Utilities::MPI::this_mpi_process(comm) == 0) {
     try {
       if (const auto r = check_and_prepare(path, overwrite, kind, inputs))
-        refusal = r->message;
+        refusal = "I" + r->message;
     } catch (const fs::filesystem_error& e) {
-      refusal = path + ": " + e.code().message();
+      refusal = "S" + path + ": " + e.code().message();
     }
   }
   refusal = dealii::Utilities::MPI::broadcast(comm, refusal, 0);
+  if (!refusal.empty() && refusal[0] == 'S')
+    throw SystemError(refusal.substr(1));
   if (!refusal.empty())
-    throw InputError(refusal);
+    throw InputError(refusal.substr(1));
   write_folder_state(path, kind, "running", "", comm);
 }
 
@@ -161,13 +171,14 @@ void write_folder_state(const std::string& folder,
                         MPI_Comm comm) {
   if (dealii::Utilities::MPI::this_mpi_process(comm) != 0)
     return;
-  std::ofstream out(folder + "/manifest.json");
-  out << "{\n    \"program\" : \"settlewell\",\n    \"kind\" : \"" << kind_name(kind)
-      << "\",\n    \"state\" : \"" << state << "\",\n    \"updated\" : \"" << utc_now()
-      << '"';
-  if (!detail.empty())
-    out << ",\n    \"detail\" : \"" << json_escaped(detail) << '"';
-  out << "\n}\n";
+  write_whole_file(folder + "/manifest.json", [&](std::ostream& out) {
+    out << "{\n    \"program\" : \"settlewell\",\n    \"kind\" : \"" << kind_name(kind)
+        << "\",\n    \"state\" : \"" << state << "\",\n    \"updated\" : \"" << utc_now()
+        << '"';
+    if (!detail.empty())
+      out << ",\n    \"detail\" : \"" << json_escaped(detail) << '"';
+    out << "\n}\n";
+  });
 }
 
 std::string sha256_of_file(const std::string& path) {

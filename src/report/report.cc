@@ -1,6 +1,7 @@
 #include "settlewell/report/report.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
 #include "settlewell/core/python_scripts.h"
 #include "settlewell/report/document.h"
 
@@ -542,8 +543,9 @@ void write_report(const std::string& run, std::ostream& log) {
   columns_section(d, r);
   views_section(d, run);
   limits_section(d);
-  std::ofstream(run + "/report.html") << to_html(d, run);
-  std::ofstream(run + "/report.md") << to_markdown(d);
+  write_whole_file(run + "/report.html",
+                   [&](std::ostream& out) { out << to_html(d, run); });
+  write_whole_file(run + "/report.md", [&](std::ostream& out) { out << to_markdown(d); });
   log << "wrote " << run << "/report.html and " << run << "/report.md\n";
 }
 

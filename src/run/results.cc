@@ -2,6 +2,7 @@
 // closing lines a run prints and manifest.json.
 #include "results.h"
 
+#include "settlewell/core/file_writing.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
 #include "settlewell/model/model_builder.h"
@@ -206,9 +207,8 @@ void write_manifest(const std::string& path,
     manifest.insert("stopped_at_days", to_days(r.stopped_at));
     manifest.insert("steps_planned", int64_t(r.steps_planned));
   }
-  std::ofstream out(path);
-  toml::json_formatter json{manifest};
-  out << json << '\n';
+  write_whole_file(
+      path, [&](std::ostream& out) { out << toml::json_formatter{manifest} << '\n'; });
 }
 
 } // namespace settlewell

@@ -3,6 +3,7 @@
 #include "results.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/mesh/mesh_files.h"
@@ -250,7 +251,8 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   m.add_initial_balance(results);
   read_summary(results, summary);
   if (is_root(m.comm))
-    std::ofstream(dir + "/results.toml") << results << '\n';
+    write_whole_file(dir + "/results.toml",
+                     [&](std::ostream& out) { out << results << '\n'; });
   write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started,
                  m.timer.get_summary_data(TimerOutput::total_wall_time), m.comm);
   return summary;

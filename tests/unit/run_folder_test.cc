@@ -2,6 +2,8 @@
 // Settlewell wrote, of exactly what it wrote, and never the current folder or one
 // that holds an input.
 #include "settlewell/core/errors.h"
+#include "settlewell/core/file_writing.h"
+#include "settlewell/output/csv_file.h"
 #include "settlewell/output/run_folder.h"
 
 #include <gtest/gtest.h>
@@ -122,4 +124,41 @@ TEST(RunFolder, ARunDoesNotOverwriteASweepFolder) {
   EXPECT_TRUE(fs::exists(folder / "variant_000" / "scenario.toml"));
   EXPECT_EQ(refusal(folder, true, FolderKind::sweep), "");
   EXPECT_FALSE(fs::exists(folder / "variant_000"));
+}
+
+TEST(OutputFiles, AFullDiskIsASystemErrorNamingTheFile) {
+  // /dev/full takes a file open but refuses every byte with ENOSPC.
+  settlewell::CsvFile csv("/dev/full", {"time_days", "head_m"}, MPI_COMM_WORLD);
+  try {
+    csv.row({1.0, 2.0});
+    FAIL() << "a row written to a full disk must throw";
+  } catch (const settlewell::SystemError& e) {
+    EXPECT_NE(std::string(e.what()).find("/dev/full: cannot write (No space left"),
+              std::string::npos)
+        << e.what();
+  }
+}
+
+TEST(OutputFiles, AWholeFileAppearsOnlyWhenComplete) {
+  const fs::path folder = scratch();
+  const std::string path = (folder / "results.toml").string();
+  EXPECT_THROW(settlewell::write_whole_file(path,
+                                            [&](std::ostream& out) {
+                                              out << "half";
+                                              EXPECT_FALSE(fs::exists(path));
+                                              throw std::runtime_error("killed");
+                                            }),
+               std::runtime_error);
+  EXPECT_FALSE(fs::exists(path));
+  EXPECT_FALSE(fs::exists(path + ".partial"));
+  EXPECT_TRUE(settlewell::is_folder_entry(FolderKind::run, "results.toml.partial"));
+  settlewell::write_whole_file(path, [](std::ostream& out) { out << "whole\n"; });
+  std::ifstream in(path);
+  std::string text;
+  std::getline(in, text);
+  EXPECT_EQ(text, "whole");
+  EXPECT_FALSE(fs::exists(path + ".partial"));
+  const std::string missing = (folder / "gone" / "x.csv").string();
+  EXPECT_THROW(settlewell::write_whole_file(missing, [](std::ostream& out) { out << 1; }),
+               settlewell::SystemError);
 }

@@ -22,6 +22,15 @@ public:
       : std::runtime_error(message) {}
 };
 
+/// The system refused an operation the run needs (a full disk, a folder that
+/// vanished, no permission): the message names the file and the system's reason;
+/// the command line prints it on one line and exits with status 4.
+class SystemError : public std::runtime_error {
+public:
+  explicit SystemError(const std::string& message)
+      : std::runtime_error(message) {}
+};
+
 /// A broken promise inside the program (a programming error, not the user's):
 /// the command line reports it as an internal error with exit status 3.
 class InternalError : public std::logic_error {

@@ -12,7 +12,8 @@ namespace settlewell {
 
 /// A CSV file (RFC 4180) written by rank 0, one row at a time and flushed, so that
 /// a long run can be watched and an interrupted one keeps what was done. Text
-/// fields are quoted when they hold a comma, a quote or a line break.
+/// fields are quoted when they hold a comma, a quote or a line break. A row that
+/// cannot be written (a full disk) throws SystemError.
 class CsvFile {
 public:
   CsvFile(const std::string& path, const std::vector<std::string>& header, MPI_Comm comm);
@@ -25,6 +26,7 @@ public:
 
 private:
   std::unique_ptr<std::ofstream> out_;
+  std::string path_;
 };
 
 } // namespace settlewell
