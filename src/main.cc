@@ -111,6 +111,7 @@ struct ScenarioOptions {
   bool quiet = false;
   bool keys = false;
   bool report = false;
+  bool allow_large = false;
   int refine = -1;
   std::string solver;
 };
@@ -120,6 +121,7 @@ void apply_overrides(const ScenarioOptions& o, settlewell::scenario::Scenario& s
   using Solver = settlewell::SolverChoice;
   if (o.refine >= 0)
     s.numerics.refinements = static_cast<unsigned int>(o.refine);
+  s.numerics.allow_large = o.allow_large;
   if (o.solver == "direct")
     s.numerics.solver = Solver::direct;
   else if (o.solver == "iterative")
@@ -178,13 +180,15 @@ int run_check(const ScenarioOptions& o) {
   }
   if (o.scenario.empty())
     throw settlewell::InputError("check needs a scenario file (or --keys)");
-  settlewell::check_scenario(settlewell::scenario::read_scenario(o.scenario),
-                             MPI_COMM_WORLD, out().get_stream());
+  auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  scenario.numerics.allow_large = o.allow_large;
+  settlewell::check_scenario(scenario, MPI_COMM_WORLD, out().get_stream());
   return exit_ok;
 }
 
 int run_mesh(const ScenarioOptions& o) {
-  const auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  scenario.numerics.allow_large = o.allow_large;
   const std::string folder =
       o.output.empty() ? default_folder(o.scenario, "-mesh") : o.output;
   settlewell::write_scenario_mesh(scenario, folder, MPI_COMM_WORLD);
@@ -233,6 +237,13 @@ CLI::App* add_verify(CLI::App& app, VerifyOptions& o) {
   return cmd;
 }
 
+/// The override of the bounds on a model's memory and steps.
+void add_allow_large(CLI::App* cmd, bool& allow_large) {
+  cmd->add_flag("--allow-large", allow_large,
+                "Run a model whose estimated memory exceeds 80 % of this machine's, or "
+                "a stage of more than 200000 time steps");
+}
+
 /// The scenario file of a command, which must exist.
 void add_scenario_argument(CLI::App* cmd, std::string& scenario, bool required) {
   auto* option = cmd->add_option("scenario", scenario, "Scenario file (TOML)")
@@ -252,6 +263,7 @@ CLI::App* add_run(CLI::App& app, ScenarioOptions& o) {
                 "Replace the results in an existing run folder");
   cmd->add_flag("-q,--quiet", o.quiet, "No progress lines");
   cmd->add_flag("--report", o.report, "Write the report into the run folder at the end");
+  add_allow_large(cmd, o.allow_large);
   cmd->add_option("--refine", o.refine,
                   "Global refinements of the mesh (overrides numerics.refinements)")
       ->check(CLI::Range(0, 8));
@@ -291,6 +303,7 @@ CLI::App* add_check(CLI::App& app, ScenarioOptions& o) {
       "check", "Validate a scenario and print what it describes; writes nothing.");
   add_scenario_argument(cmd, o.scenario, false);
   cmd->add_flag("--keys", o.keys, "Print every scenario key with its unit and default");
+  add_allow_large(cmd, o.allow_large);
   return cmd;
 }
 
@@ -300,6 +313,7 @@ CLI::App* add_mesh(CLI::App& app, ScenarioOptions& o) {
   add_scenario_argument(cmd, o.scenario, true);
   cmd->add_option("-o,--output", o.output,
                   "Folder for the files (default: <scenario name>-mesh)");
+  add_allow_large(cmd, o.allow_large);
   return cmd;
 }
 

@@ -1,14 +1,45 @@
 #include "settlewell/model/schedule.h"
 
+#include "settlewell/core/errors.h"
+#include "settlewell/core/units.h"
 #include "settlewell/time/time_grid.h"
 
 #include <algorithm>
 #include <cmath>
+#include <iomanip>
 #include <memory>
+#include <sstream>
 
 namespace settlewell::model {
 
 namespace {
+
+/// Refuses a stage whose steps would number in the millions (a step of 1e-7 days
+/// over months) before their list is built: it would fill the memory, or run for
+/// days, on a slip of the exponent. The count: the growing steps, then the equal ones.
+void check_step_count(const scenario::Scenario& s,
+                      const StageTimes& st,
+                      double first,
+                      double growth,
+                      double largest) {
+  if (s.numerics.allow_large)
+    return;
+  const double duration = st.end - st.start;
+  const double growing =
+      growth > 1.0 ? std::log(largest / first) / std::log(growth) : 0.0;
+  const double count = std::min(growing, duration / first) + duration / largest;
+  if (count <= scenario::largest_step_count)
+    return;
+  std::ostringstream os;
+  os << s.location_of("stages." + st.name) << ": stage '" << st.name
+     << "' would take about " << std::setprecision(3) << count << " time steps (first "
+     << units::to_days(first) << " days, largest " << units::to_days(largest)
+     << " days, over " << units::to_days(duration) << " days), more than the "
+     << std::size_t(scenario::largest_step_count)
+     << " a run may take: raise time_steps.first or time_steps.largest, or run with "
+        "--allow-large";
+  throw InputError(os.str());
+}
 
 std::vector<double>
 stage_output_times(const StageTimes& st, double first, unsigned int n) {
@@ -58,6 +89,7 @@ Schedule::Schedule(const scenario::Scenario& s) {
     for (const double o : outputs_)
       if (o > st.start && o <= st.end)
         must_hit.push_back(o);
+    check_step_count(s, st, first, steps.growth, largest);
     const auto stage_steps = merge_times(
         growing_times(st.start, st.end, first, steps.growth, largest), must_hit);
     steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());

@@ -3,6 +3,7 @@
 
 #include "settlewell/core/units.h"
 
+#include <cmath>
 #include <set>
 
 namespace settlewell::scenario {
@@ -159,7 +160,11 @@ std::pair<double, double> read_xy(const TableReader& r, const toml::node& node) 
   if (a == nullptr || a->size() != 2 || !(*a)[0].is_number() || !(*a)[1].is_number())
     throw InputError(position(r.file(), node) + ": " + r.label() +
                      ".points: each point must be [x, y]");
-  return {(*a)[0].value<double>().value(), (*a)[1].value<double>().value()};
+  const double x = number_value((*a)[0]), y = number_value((*a)[1]);
+  if (!std::isfinite(x) || !std::isfinite(y))
+    throw InputError(position(r.file(), node) + ": " + r.label() +
+                     ".points: each point must be [x, y] in finite numbers");
+  return {x, y};
 }
 
 void read_output_sites(const TableReader& r, const Scenario& s, Output& out) {
@@ -202,7 +207,7 @@ void parse_output(const TableReader& top, Scenario& s) {
       if (!node.is_number())
         throw InputError(position(r.file(), node) +
                          ": output.times: must be numbers (days)");
-      const double t_s = units::days(node.value<double>().value());
+      const double t_s = units::days(number_value(node));
       if (!(t_s > 0.0) || t_s > s.end_time() * (1 + 1e-12))
         throw InputError(
             position(r.file(), node) +

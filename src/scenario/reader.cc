@@ -110,13 +110,19 @@ std::string TableReader::default_of(const std::string& key) const {
                       "' has no literal default; read it with an optional_ function");
 }
 
+double number_value(const toml::node& node) {
+  if (const auto* integer = node.as_integer())
+    return static_cast<double>(integer->get());
+  return node.as_floating_point()->get();
+}
+
 std::optional<double> TableReader::optional_number(const std::string& key) const {
   const toml::node* node = table_.get(key);
   if (node == nullptr)
     return std::nullopt;
   if (!node->is_number())
     fail(key, "must be a number");
-  const double value = node->value<double>().value();
+  const double value = number_value(*node);
   if (!std::isfinite(value))
     fail(key, "must be a finite number");
   return value;

@@ -19,6 +19,10 @@ toml::table parse_toml_file(const std::string& path);
 /// "FILE:LINE:COL" of a node.
 std::string position(const std::string& file, const toml::node& node);
 
+/// A TOML number (integer or float) as a double: an integer too large to be one
+/// exactly is rounded, where toml++'s value<double>() would give nothing.
+double number_value(const toml::node& node);
+
 /// Reads the keys of one table. `path` is the table's registry path
 /// ("section.wall", "stages[].wells.<name>"), `label` how messages name it.
 class TableReader {

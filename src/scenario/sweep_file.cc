@@ -163,7 +163,7 @@ void read_parameters(const toml::table& root, const std::string& path, SweepSpec
       if (!v.is_number())
         throw InputError(position(path, v) + ": parameter '" + p.key +
                          "': values must be numbers");
-      p.values.push_back(*v.value<double>());
+      p.values.push_back(number_value(v));
     }
     if (p.values.empty())
       throw InputError(position(path, entry) + ": parameter '" + p.key +

@@ -193,7 +193,14 @@ struct Numerics {
   SolverChoice solver = SolverChoice::automatic;
   double tolerance = 0.0;    ///< relative residual of the iterative solver
   std::string petsc_options; ///< extra PETSc options, for experts
+  /// Lift the bounds on steps and memory (command line --allow-large).
+  bool allow_large = false;
 };
+
+/// The most time steps a run may take, and the share of the machine's memory its
+/// estimate may reach, unless Numerics::allow_large.
+inline constexpr double largest_step_count = 200000;
+inline constexpr double largest_memory_share = 0.8;
 
 struct Scenario {
   std::string source_path; ///< the file it was read from
