@@ -7,6 +7,14 @@
 
 namespace settlewell {
 
+PoroelasticMaterial PoroelasticMaterial::isotropic(double youngs, double nu, double k) {
+  PoroelasticMaterial m;
+  m.youngs_modulus = youngs;
+  m.poisson_ratio = nu;
+  m.conductivity_x = m.conductivity_y = k;
+  return m;
+}
+
 double PoroelasticMaterial::youngs_from_mv(double mv, double nu) {
   // M_oed = E (1 - nu) / ((1 + nu)(1 - 2 nu)) = 1/mv (docs/verification-references.md,
   // section 9).

@@ -52,11 +52,8 @@ constexpr double undrained_tolerance = 0.005;
 constexpr double degree_tolerance = 0.01;
 
 PoroelasticMaterial soil(double mv, double k) {
-  PoroelasticMaterial m;
-  m.poisson_ratio = poisson;
-  m.youngs_modulus = PoroelasticMaterial::youngs_from_mv(mv, poisson);
-  m.conductivity_x = m.conductivity_y = k;
-  return m;
+  return PoroelasticMaterial::isotropic(PoroelasticMaterial::youngs_from_mv(mv, poisson),
+                                        poisson, k);
 }
 
 /// Total vertical stress at y before the dig, kPa (compression positive).

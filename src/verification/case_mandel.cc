@@ -47,11 +47,7 @@ Mesh mandel_mesh(MPI_Comm comm) {
 
 BiotSetup mandel_setup() {
   BiotSetup setup;
-  PoroelasticMaterial m;
-  m.youngs_modulus = youngs;
-  m.poisson_ratio = poisson;
-  m.conductivity_x = m.conductivity_y = conductivity;
-  setup.materials["soil"] = m;
+  setup.materials["soil"] = PoroelasticMaterial::isotropic(youngs, poisson, conductivity);
   // Initial head h0 = y: zero initial pore pressure, so the drained side is p = 0.
   setup.initial_head = [](const dealii::Point<2>& x) { return x[1]; };
   auto& bc = setup.conditions;

@@ -74,11 +74,7 @@ Mesh strip_mesh(MPI_Comm comm) {
 
 BiotSetup strip_setup() {
   BiotSetup setup;
-  PoroelasticMaterial soil;
-  soil.youngs_modulus = youngs;
-  soil.poisson_ratio = poisson;
-  soil.conductivity_x = soil.conductivity_y = conductivity;
-  setup.materials["soil"] = soil;
+  setup.materials["soil"] = PoroelasticMaterial::isotropic(youngs, poisson, conductivity);
   setup.initial_head = [](const dealii::Point<2>&) { return 0.0; };
   auto& bc = setup.conditions;
   bc.fix("left", true, false).fix("right", true, false).fix("bottom", true, true);

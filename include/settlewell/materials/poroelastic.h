@@ -17,6 +17,8 @@ struct PoroelasticMaterial {
   /// E' from the coefficient of volume compressibility mv (1/kPa), i.e. the
   /// constrained modulus 1/mv, and nu'.
   static double youngs_from_mv(double mv, double nu);
+  /// E' (kPa), nu' and one conductivity k (m/s) in both directions; alpha = 1, S = 0.
+  static PoroelasticMaterial isotropic(double youngs, double nu, double k);
 
   double lame_lambda() const;
   double shear_modulus() const;
