@@ -2,9 +2,10 @@
 # Builds the scenario-reader fuzz target with clang 14 (libFuzzer, AddressSanitizer,
 # UndefinedBehaviorSanitizer) and runs it on the corpus for SECONDS seconds.
 #   tests/fuzz/fuzz.sh BUILD_DIR SECONDS [more libFuzzer options]
-# Inputs that reach new code go into BUILD_DIR/corpus (fold them into the kept
-# corpus with: scenario_fuzz -merge=1 tests/fuzz/corpus BUILD_DIR/corpus); a crash
-# leaves its input as BUILD_DIR/crash-* and the script fails.
+# Inputs that reach new code go into BUILD_DIR/corpus; to keep them, merge a
+# minimal set (scenario_fuzz -merge=1 NEW tests/fuzz/corpus BUILD_DIR/corpus) and
+# pack NEW as tests/fuzz/found_corpus.tar.gz. A crash leaves its input as
+# BUILD_DIR/crash-* and the script fails.
 set -euo pipefail
 here="$(cd "$(dirname "$0")" && pwd)"
 source_dir="$(cd "$here/../.." && pwd)"
@@ -29,6 +30,8 @@ fi
 corpus="$build/corpus"
 mkdir -p "$corpus"
 cp "$here"/corpus/* "$corpus"/ 2>/dev/null || true
+# What earlier runs found (a minimised merge, packed to keep the tree small).
+tar xzf "$here/found_corpus.tar.gz" -C "$corpus"
 cd "$build"
 "$binary" -max_total_time="$seconds" -max_len=16384 -timeout=10 -rss_limit_mb=2048 \
   -print_final_stats=1 "$@" "$corpus" "$here/corpus"
