@@ -16,6 +16,8 @@
 #include <cmath>
 #include <filesystem>
 #include <iomanip>
+#include <iostream>
+#include <limits>
 #include <map>
 #include <set>
 #include <sstream>
@@ -163,6 +165,37 @@ void check_no_folded_cells(const GmshMeshData& data, const std::string& source) 
                        "mesh's other cells, so it lies folded over its neighbours");
 }
 
+/// Warns (rank 0) of cells far longer than wide, which a file may hold but whose
+/// gradients (flux, stress) are poor: the count, and the worst with its group.
+void warn_of_slender_cells(const GmshMeshData& data,
+                           const std::string& source,
+                           MPI_Comm comm) {
+  constexpr double slender = 50.0;
+  std::size_t count = 0, worst = 0;
+  double worst_ratio = 0.0;
+  for (std::size_t c = 0; c < data.cells.size(); ++c) {
+    const auto& v = data.cells[c].vertices;
+    double shortest = std::numeric_limits<double>::max(), longest = 0.0;
+    for (const auto& [a, b] : {std::pair{0, 1}, {1, 3}, {3, 2}, {2, 0}}) {
+      const double length = data.vertices[v[a]].distance(data.vertices[v[b]]);
+      shortest = std::min(shortest, length);
+      longest = std::max(longest, length);
+    }
+    const double ratio = longest / shortest;
+    if (ratio > slender)
+      ++count;
+    if (ratio > worst_ratio)
+      worst_ratio = ratio, worst = c;
+  }
+  if (count > 0 && Utilities::MPI::this_mpi_process(comm) == 0)
+    std::cerr << "settlewell: warning: " << source << ": " << count
+              << " cells are more than " << slender
+              << " times longer than wide (the worst: element "
+              << data.cell_element[worst] << " of group '" << data.cell_region[worst]
+              << "', " << std::setprecision(3) << worst_ratio
+              << "); their fluxes and stresses are less accurate\n";
+}
+
 GmshMeshData read_current_model(const std::string& source) {
   GmshMeshData data;
   const auto index = read_nodes(data.vertices, source);
@@ -243,8 +276,12 @@ boundary_edges(const GmshMeshData& data,
   return boundary;
 }
 
-Mesh mesh_from_current_model(const std::string& source, MPI_Comm comm) {
+/// `user_file`: a mesh from a user's file, whose slender cells are worth a warning
+/// (a generated section's are the grading's, by design).
+Mesh mesh_from_current_model(const std::string& source, MPI_Comm comm, bool user_file) {
   GmshMeshData data = read_current_model(source);
+  if (user_file)
+    warn_of_slender_cells(data, source, comm);
   Mesh mesh(comm);
   for (std::size_t c = 0; c < data.cells.size(); ++c)
     data.cells[c].material_id = mesh.names.add_region(data.cell_region[c]);
@@ -300,7 +337,7 @@ double planned_cells(const GridPlan& plan) {
 
 } // namespace
 
-Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
+Mesh read_gmsh_file(const std::string& path, MPI_Comm comm, bool quiet) {
   if (const auto problem = input_file_problem(path, largest_mesh_file_bytes);
       !problem.empty())
     throw InputError(path + ": " + problem);
@@ -314,7 +351,7 @@ Mesh read_gmsh_file(const std::string& path, MPI_Comm comm) {
   } catch (...) {
     throw InputError(path + ": Gmsh cannot read it");
   }
-  return mesh_from_current_model(path, comm);
+  return mesh_from_current_model(path, comm, !quiet);
 }
 
 Mesh make_scenario_mesh(const scenario::Scenario& s,
@@ -359,7 +396,7 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
       std::filesystem::create_directories(folder);
     gmsh::write(msh_path);
   }
-  return mesh_from_current_model(s.source_path, comm);
+  return mesh_from_current_model(s.source_path, comm, false);
 }
 
 MeshSummary summarise(const Mesh& mesh) {

@@ -92,7 +92,7 @@ void write_scenario_mesh(const scenario::Scenario& s,
     return;
   std::filesystem::create_directories(directory);
   const std::string msh = directory + "/mesh.msh";
-  const Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF)
+  const Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF, true)
                                 : coarse_scenario_mesh(s, MPI_COMM_SELF, msh);
   if (s.mesh_file)
     std::filesystem::copy_file(s.mesh_file->path, msh,

@@ -49,8 +49,9 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
                           const std::string& msh_path = "");
 
 /// Reads a Gmsh file whose physical groups name the regions (surfaces) and the
-/// boundaries or internal lines (curves). Collective.
-Mesh read_gmsh_file(const std::string& path, MPI_Comm comm);
+/// boundaries or internal lines (curves). Collective. Warns of slender cells
+/// unless `quiet` (a second reading of the same file).
+Mesh read_gmsh_file(const std::string& path, MPI_Comm comm, bool quiet = false);
 
 /// Cells and vertices of a mesh, for `settlewell check` (no dofs are made).
 MeshSummary summarise(const Mesh& mesh);
