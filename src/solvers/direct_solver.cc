@@ -18,7 +18,7 @@ public:
     petsc_check(PCSetType(pc, PCLU), "PCSetType");
     petsc_check(PCFactorSetMatSolverType(pc, MATSOLVERMUMPS), "PCFactorSetMatSolverType");
     petsc_check(KSPSetOptionsPrefix(ksp_, "settlewell_direct_"), "KSPSetOptionsPrefix");
-    petsc_check(KSPSetFromOptions(ksp_), "KSPSetFromOptions");
+    set_from_user_options(ksp_, comm);
   }
   ~MumpsSolver() override { KSPDestroy(&ksp_); }
   MumpsSolver(const MumpsSolver&) = delete;

@@ -85,7 +85,7 @@ public:
     petsc_check(PCFieldSplitSetType(pc, PC_COMPOSITE_SCHUR), "PCFieldSplitSetType");
     petsc_check(PCFieldSplitSetSchurFactType(pc, PC_FIELDSPLIT_SCHUR_FACT_UPPER),
                 "PCFieldSplitSetSchurFactType");
-    petsc_check(KSPSetFromOptions(ksp_), "KSPSetFromOptions");
+    set_from_user_options(ksp_, comm);
   }
   void attach_rigid_body_modes(const std::vector<double>& coordinates) {
     Vec xy;
