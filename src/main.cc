@@ -203,6 +203,7 @@ struct SweepCommand {
   std::string file, output;
   unsigned int group_size = 1;
   bool overwrite = false;
+  bool allow_large = false;
 };
 
 int run_sweep_command(const SweepCommand& c) {
@@ -211,6 +212,7 @@ int run_sweep_command(const SweepCommand& c) {
   options.folder = c.output.empty() ? sweep.output : c.output;
   options.group_size = c.group_size;
   options.overwrite = c.overwrite;
+  options.allow_large = c.allow_large;
   std::ostringstream discarded; // the other ranks' log
   settlewell::catch_stop_signals();
   const int stopped = settlewell::run_sweep(
@@ -285,6 +287,7 @@ CLI::App* add_sweep(CLI::App& app, SweepCommand& o) {
   cmd->add_option("--group-size", o.group_size, "Processes per variant")
       ->check(CLI::Range(1, 100000));
   cmd->add_flag("--overwrite", o.overwrite, "Replace an existing sweep folder");
+  add_allow_large(cmd, o.allow_large);
   return cmd;
 }
 

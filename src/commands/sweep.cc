@@ -128,7 +128,9 @@ int run_sweep(const scenario::SweepSpec& sweep,
     const bool group_root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
     for (std::size_t i = group; i < n; i += groups) {
       const std::string folder = variant_folder(options.folder, i);
-      Simulation simulation(scenario::read_scenario(folder + "/scenario.toml"), comm);
+      auto variant = scenario::read_scenario(folder + "/scenario.toml");
+      variant.numerics.allow_large = options.allow_large;
+      Simulation simulation(std::move(variant), comm);
       RunOptions run;
       run.run_directory = folder + "/run";
       run.show_progress = false;

@@ -13,6 +13,7 @@ struct SweepOptions {
   std::string folder;          ///< the sweep's folder (one run folder per variant)
   unsigned int group_size = 1; ///< processes per variant
   bool overwrite = false;
+  bool allow_large = false; ///< lift the bounds on each variant's memory and steps
 };
 
 /// Runs every variant of a sweep, each in its own run folder
