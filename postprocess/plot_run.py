@@ -53,6 +53,12 @@ def read_csv(path):
     return rows
 
 
+def read_table(run, *parts):
+    """The rows of a table in the run folder, or None if the run did not write it."""
+    path = os.path.join(run, *parts)
+    return read_csv(path) if os.path.exists(path) else None
+
+
 def numbers(rows, key):
     """A column as numbers; an empty cell (not evaluated) is NaN."""
     return [float(r[key]) if r[key] != "" else math.nan for r in rows]
@@ -178,10 +184,9 @@ def nearest_times(available, wanted):
 
 def wall(run, results, out):
     """Deflection and bending moment against elevation at the end of each stage."""
-    path = os.path.join(run, "checks", "wall.csv")
-    if not os.path.exists(path):
+    rows = read_table(run, "checks", "wall.csv")
+    if rows is None:
         return False
-    rows = read_csv(path)
     side = rows[0]["side"]
     rows = [r for r in rows if r["side"] == side]
     times = nearest_times(sorted({float(r["time_days"]) for r in rows}), stage_end_times(results))
@@ -207,10 +212,9 @@ def wall(run, results, out):
 
 
 def trough(run, out):
-    path = os.path.join(run, "profiles", "ground_surface.csv")
-    if not os.path.exists(path):
+    rows = read_table(run, "profiles", "ground_surface.csv")
+    if rows is None:
         return False
-    rows = read_csv(path)
     times = sorted({float(r["time_days"]) for r in rows})
     chosen = [t for t in times if t > 0]
     step = max(1, len(chosen) // 6)
@@ -278,10 +282,9 @@ def discharge(run, unit, out):
 
 
 def base_factors(run, results, out):
-    path = os.path.join(run, "checks", "base_stability.csv")
-    if not os.path.exists(path):
+    rows = read_table(run, "checks", "base_stability.csv")
+    if rows is None:
         return False
-    rows = read_csv(path)
     t = numbers(rows, "time_days")
     fig, ax = plt.subplots(figsize=(8, 3.6))
     limits = results.get("base_stability", {})
