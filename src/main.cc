@@ -7,6 +7,7 @@
 #include "settlewell/core/version.h"
 #include "settlewell/mesh/mesh_files.h"
 #include "settlewell/report/report.h"
+#include "settlewell/run/checkpoint.h"
 #include "settlewell/run/simulation.h"
 #include "settlewell/run/stop_request.h"
 #include "settlewell/scenario/keys.h"
@@ -114,6 +115,8 @@ struct ScenarioOptions {
   bool allow_large = false;
   int refine = -1;
   std::string solver;
+  std::string resume;               ///< a run folder to resume
+  double checkpoint_minutes = 30.0; ///< 0: checkpoints at output times only
 };
 
 /// Command-line overrides of the scenario's [numerics].
@@ -144,26 +147,50 @@ int report_stop(const settlewell::RunSummary& summary) {
   return 128 + summary.stopped_by;
 }
 
-int run_run(const ScenarioOptions& o) {
-  auto scenario = settlewell::scenario::read_scenario(o.scenario);
-  apply_overrides(o, scenario);
-  settlewell::Simulation simulation(std::move(scenario), MPI_COMM_WORLD);
+settlewell::RunOptions run_options(const ScenarioOptions& o, const std::string& folder) {
   settlewell::RunOptions options;
-  options.run_directory =
-      o.output.empty() ? default_folder(o.scenario, "-run") : o.output;
+  options.run_directory = folder;
   options.overwrite = o.overwrite;
   options.show_progress = !o.quiet;
   options.progress_in_place = isatty(STDERR_FILENO) != 0;
-  settlewell::catch_stop_signals();
-  const auto summary = simulation.run(options);
+  options.checkpoint_minutes = o.checkpoint_minutes;
+  return options;
+}
+
+/// The summary lines and the report of a run that ended, or its stop line.
+int after_run(const ScenarioOptions& o,
+              const settlewell::RunSummary& summary,
+              const settlewell::scenario::Scenario& scenario) {
   if (summary.stopped_by != 0)
     return report_stop(summary);
   if (out().is_active())
-    settlewell::print_summary(out().get_stream(), summary,
-                              settlewell::scenario::read_scenario(o.scenario));
+    settlewell::print_summary(out().get_stream(), summary, scenario);
   if (o.report && out().is_active())
-    settlewell::report::write_report(options.run_directory, out().get_stream());
+    settlewell::report::write_report(summary.run_directory, out().get_stream());
   return exit_ok;
+}
+
+int resume_run(const ScenarioOptions& o) {
+  const std::string checkpoint = settlewell::checkpoint_to_resume(o.resume);
+  const auto header = settlewell::read_checkpoint_header(checkpoint, MPI_COMM_WORLD);
+  const auto scenario = settlewell::resumed_scenario(o.resume, header);
+  settlewell::Simulation simulation(scenario, MPI_COMM_WORLD, checkpoint);
+  settlewell::catch_stop_signals();
+  return after_run(o, simulation.resume(run_options(o, o.resume)), scenario);
+}
+
+int run_run(const ScenarioOptions& o) {
+  if (!o.resume.empty())
+    return resume_run(o);
+  if (o.scenario.empty())
+    throw settlewell::InputError("run needs a scenario file (or --resume RUN_FOLDER)");
+  auto scenario = settlewell::scenario::read_scenario(o.scenario);
+  apply_overrides(o, scenario);
+  settlewell::Simulation simulation(scenario, MPI_COMM_WORLD);
+  settlewell::catch_stop_signals();
+  const auto options =
+      run_options(o, o.output.empty() ? default_folder(o.scenario, "-run") : o.output);
+  return after_run(o, simulation.run(options), scenario);
 }
 
 int run_report(const std::string& folder) {
@@ -247,31 +274,45 @@ void add_allow_large(CLI::App* cmd, bool& allow_large) {
 }
 
 /// The scenario file of a command, which must exist.
-void add_scenario_argument(CLI::App* cmd, std::string& scenario, bool required) {
+CLI::Option* add_scenario_argument(CLI::App* cmd, std::string& scenario, bool required) {
   auto* option = cmd->add_option("scenario", scenario, "Scenario file (TOML)")
                      ->check(CLI::ExistingFile);
   if (required)
     option->required();
+  return option;
 }
 
 CLI::App* add_run(CLI::App& app, ScenarioOptions& o) {
   auto* cmd = app.add_subcommand(
       "run", "Run a scenario through all its stages and write a run folder (fields, "
              "time histories, profiles, manifest).");
-  add_scenario_argument(cmd, o.scenario, true);
-  cmd->add_option("-o,--output", o.output,
-                  "Run folder (default: <scenario name>-run in the current folder)");
-  cmd->add_flag("--overwrite", o.overwrite,
-                "Replace the results in an existing run folder");
+  auto* scenario = add_scenario_argument(cmd, o.scenario, false);
+  auto* output =
+      cmd->add_option("-o,--output", o.output,
+                      "Run folder (default: <scenario name>-run in the current folder)");
+  auto* overwrite = cmd->add_flag("--overwrite", o.overwrite,
+                                  "Replace the results in an existing run folder");
   cmd->add_flag("-q,--quiet", o.quiet, "No progress lines");
   cmd->add_flag("--report", o.report, "Write the report into the run folder at the end");
   add_allow_large(cmd, o.allow_large);
-  cmd->add_option("--refine", o.refine,
-                  "Global refinements of the mesh (overrides numerics.refinements)")
-      ->check(CLI::Range(0, 8));
-  cmd->add_option("--solver", o.solver,
-                  "direct, iterative or auto (overrides numerics.solver)")
-      ->check(CLI::IsMember({"direct", "iterative", "auto"}));
+  auto* refine =
+      cmd->add_option("--refine", o.refine,
+                      "Global refinements of the mesh (overrides numerics.refinements)")
+          ->check(CLI::Range(0, 8));
+  auto* solver = cmd->add_option("--solver", o.solver,
+                                 "direct, iterative or auto (overrides numerics.solver)")
+                     ->check(CLI::IsMember({"direct", "iterative", "auto"}));
+  cmd->add_option(
+         "--checkpoint-minutes", o.checkpoint_minutes,
+         "Also write a checkpoint after a step that ends this many minutes after "
+         "the last (they are written at output times and on a stop; 0: only "
+         "then)")
+      ->check(CLI::Range(0.0, 1e6));
+  cmd->add_option("--resume", o.resume,
+                  "Continue a stopped or killed run from its last checkpoint, with the "
+                  "scenario and choices it was started with")
+      ->check(CLI::ExistingDirectory)
+      ->excludes(scenario, output, overwrite, refine, solver);
   return cmd;
 }
 

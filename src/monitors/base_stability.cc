@@ -382,4 +382,22 @@ void BaseStability::finish(const RunView& view, toml::table& results) {
   results.insert("base_stability", t);
 }
 
+static void visit(StateArchive& a, BaseState::Heave& h) {
+  a& h.side& h.depth& h.width& h.mean_excess_head& h.factor;
+}
+
+static void visit(StateArchive& a, BaseState::Uplift& u) {
+  a& u.layer& u.underside& u.overburden& u.pore_pressure& u.factor;
+}
+
+static void visit(StateArchive& a, BaseState& b) {
+  a& b.time& b.dig_level& b.exit_gradient& b.exit_x& b.critical_gradient& b.piping& b
+      .piping_reason& b.heave& b.uplift;
+}
+
+void BaseStability::visit_state(StateArchive& a) {
+  a.mark("base stability");
+  a& history_& table_;
+}
+
 } // namespace settlewell::monitors

@@ -47,6 +47,7 @@ class BaseStability : public Monitor {
 public:
   /// A section scenario only (make_monitors asks).
   explicit BaseStability(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;

@@ -285,4 +285,10 @@ void Columns::finish(const RunView& view, toml::table& results) {
   results.insert("columns", tables);
 }
 
+void Columns::visit_state(StateArchive& a) {
+  a.mark("columns");
+  for (auto& c : columns_)
+    a& c.times& c.settlement_2d;
+}
+
 } // namespace settlewell::monitors

@@ -24,6 +24,7 @@ class Columns : public Monitor {
 public:
   /// A section or box scenario only (make_monitors asks).
   explicit Columns(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   std::vector<double> after_step(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;

@@ -136,4 +136,10 @@ void Extremes::finish(const RunView& view, toml::table& results) {
   results.insert("summary", summary);
 }
 
+void Extremes::visit_state(StateArchive& a) {
+  a.mark("extremes");
+  a& floor_heave_& pit_& outside_& anywhere_& drawdown_outside_& drawdown_&
+      stage_outside_;
+}
+
 } // namespace settlewell::monitors

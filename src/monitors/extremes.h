@@ -12,6 +12,7 @@ namespace settlewell::monitors {
 class Extremes : public Monitor {
 public:
   explicit Extremes(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   std::vector<double> after_step(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;
 

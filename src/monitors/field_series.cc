@@ -13,4 +13,10 @@ void FieldSeries::at_output_time(const RunView& view) {
   writer_->write(view.run.problem);
 }
 
+void FieldSeries::visit_state(StateArchive& a) {
+  if (a.loading())
+    writer_.emplace(a.folder() + "/fields", "fields", a.comm(), initial_);
+  a&* writer_;
+}
+
 } // namespace settlewell::monitors

@@ -14,6 +14,7 @@ public:
   explicit FieldSeries(const RunContext& run);
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
+  void visit_state(StateArchive& a) override;
 
 private:
   InitialFields initial_;

@@ -6,6 +6,21 @@
 
 #include <filesystem>
 
+namespace settlewell::checks {
+
+static void visit(StateArchive& a, Distortion& d) {
+  a& d.max_settlement& d.differential& d.tilt& d.angular_distortion& d.deflection_ratio& d
+      .hogging& d.horizontal_strain& d.length;
+}
+static void visit(StateArchive& a, BeamStrains& b) {
+  a& b.bending& b.diagonal;
+}
+static void visit(StateArchive& a, DamageCategory& c) {
+  a& c.category& c.degree& c.crack_width;
+}
+
+} // namespace settlewell::checks
+
 namespace settlewell::monitors {
 
 using dealii::Point;
@@ -136,6 +151,15 @@ void Neighbours::finish(const RunView&, toml::table& results) {
       "neighbour_limits",
       toml::table{{"settlement_m", scenario_.limits.settlement},
                   {"angular_distortion", scenario_.limits.angular_distortion}});
+}
+
+static void visit(StateArchive& a, NeighbourState& s) {
+  a& s.name& s.time& s.distortion& s.principal_strain& s.beam& s.category;
+}
+
+void Neighbours::visit_state(StateArchive& a) {
+  a.mark("neighbours");
+  a& history_& table_;
 }
 
 } // namespace settlewell::monitors

@@ -25,6 +25,7 @@ struct NeighbourState {
 class Neighbours : public Monitor {
 public:
   explicit Neighbours(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;

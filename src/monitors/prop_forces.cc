@@ -86,4 +86,9 @@ void PropForces::finish(const RunView& view, toml::table& results) {
   results.insert("props", props);
 }
 
+void PropForces::visit_state(StateArchive& a) {
+  a.mark("prop forces");
+  a& times_& forces_& table_;
+}
+
 } // namespace settlewell::monitors

@@ -14,6 +14,7 @@ class PropForces : public Monitor {
 public:
   /// A section scenario with props only (make_monitors asks).
   explicit PropForces(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;

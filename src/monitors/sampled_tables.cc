@@ -153,4 +153,14 @@ void LineProfiles::at_output_time(const RunView& view) {
   }
 }
 
+void PointHistory::visit_state(StateArchive& a) {
+  a.mark("point history");
+  a& table_;
+}
+
+void LineProfiles::visit_state(StateArchive& a) {
+  a.mark("line profiles");
+  a& tables_;
+}
+
 } // namespace settlewell::monitors

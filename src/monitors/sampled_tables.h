@@ -13,6 +13,7 @@ namespace settlewell::monitors {
 class PointHistory : public Monitor {
 public:
   explicit PointHistory(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   std::vector<double> after_step(const RunView& view) override;
 
@@ -25,6 +26,7 @@ private:
 class LineProfiles : public Monitor {
 public:
   explicit LineProfiles(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
 

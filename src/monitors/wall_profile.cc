@@ -153,4 +153,9 @@ void WallProfile::finish(const RunView&, toml::table& results) {
                              {"sides", sides}});
 }
 
+void WallProfile::visit_state(StateArchive& a) {
+  a.mark("wall profile");
+  a& deflection_& moment_& stage_deflection_& stage_moment_& table_;
+}
+
 } // namespace settlewell::monitors

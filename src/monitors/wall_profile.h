@@ -15,6 +15,7 @@ class WallProfile : public Monitor {
 public:
   /// A section scenario with a wall (make_monitors asks).
   explicit WallProfile(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
   void at_output_time(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;
@@ -39,6 +40,7 @@ private:
   std::vector<Side> sides_;
   struct Extreme {
     double value = 0.0, y = 0.0, time = 0.0;
+    friend void visit(StateArchive& a, Extreme& e) { a& e.value& e.y& e.time; }
   };
   /// Per side: the largest deflection and |moment|, overall and per stage.
   std::vector<std::optional<Extreme>> deflection_, moment_;

@@ -91,4 +91,9 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
                              {"closes", worst_balance_ <= tolerance_}});
 }
 
+void WaterAccount::visit_state(StateArchive& a) {
+  a.mark("water account");
+  a& volume_& final_discharge_& stage_volume_& worst_balance_& largest_moved_& steps_off_;
+}
+
 } // namespace settlewell::monitors

@@ -11,6 +11,7 @@ namespace settlewell::monitors {
 class WaterAccount : public Monitor {
 public:
   explicit WaterAccount(const RunContext& run);
+  void visit_state(StateArchive& a) override;
   std::vector<std::string> step_columns() const override;
   std::vector<double> after_step(const RunView& view) override;
   void finish(const RunView& view, toml::table& results) override;

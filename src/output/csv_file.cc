@@ -6,6 +6,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <cerrno>
+#include <filesystem>
 #include <iomanip>
 
 namespace settlewell {
@@ -59,6 +60,26 @@ void CsvFile::row_with_gaps(const std::vector<std::optional<double>>& values,
   }
   *out_ << '\n' << std::flush;
   check_stream(*out_, path_);
+}
+
+void visit(StateArchive& a, CsvFile& file) {
+  const std::string prefix = a.folder() + "/";
+  std::string name =
+      file.path_.rfind(prefix, 0) == 0 ? file.path_.substr(prefix.size()) : file.path_;
+  std::uint64_t length = file.out_ ? std::uint64_t(file.out_->tellp()) : 0;
+  a& name& length;
+  if (!a.loading() || dealii::Utilities::MPI::this_mpi_process(a.comm()) != 0)
+    return;
+  file.path_ = prefix + name;
+  std::error_code error;
+  const auto on_disk = std::filesystem::file_size(file.path_, error);
+  if (error || on_disk < length)
+    throw InputError(file.path_ + ": is missing or shorter than at the checkpoint; the "
+                                  "run folder was changed and cannot be resumed");
+  std::filesystem::resize_file(file.path_, length);
+  errno = 0;
+  file.out_ = std::make_unique<std::ofstream>(file.path_, std::ios::app);
+  check_stream(*file.out_, file.path_);
 }
 
 } // namespace settlewell

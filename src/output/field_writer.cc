@@ -70,7 +70,7 @@ public:
   std::vector<DataComponentInterpretation::DataComponentInterpretation>
   get_data_component_interpretation() const override {
     using namespace DataComponentInterpretation;
-    std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds(
+    std::vector<dealii::DataComponentInterpretation::DataComponentInterpretation> kinds(
         9, component_is_scalar);
     kinds.insert(kinds.end(), 2, component_is_part_of_vector);
     kinds.insert(kinds.end(), 4, component_is_part_of_tensor);
@@ -157,6 +157,10 @@ std::string FieldWriter::write(const BiotProblem& problem) {
     });
   }
   return directory_ + "/" + file;
+}
+
+void visit(StateArchive& a, FieldWriter& writer) {
+  a& writer.series_;
 }
 
 } // namespace settlewell

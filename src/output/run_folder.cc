@@ -124,9 +124,10 @@ const char* kind_name(FolderKind kind) {
 
 bool is_folder_entry(FolderKind kind, const std::string& name) {
   static const std::set<std::string> run{
-      "manifest.json", "scenario.toml", "results.toml", "steps.csv", "points.csv",
-      "fields",        "profiles",      "checks",       "mesh",      "one_d",
-      "plots",         "plots.log",     "report.html",  "report.md"};
+      "manifest.json", "scenario.toml", "results.toml", "steps.csv",
+      "points.csv",    "fields",        "profiles",     "checks",
+      "mesh",          "one_d",         "plots",        "plots.log",
+      "report.html",   "report.md",     "checkpoint",   "checkpoint.old"};
   static const std::set<std::string> sweep{"manifest.json", "sweep_summary.csv",
                                            "sweep_chart.png", "sweep_chart.log"};
   static const std::regex variant("variant_[0-9]+");

@@ -89,6 +89,9 @@ struct BiotProblem::Impl {
   /// The owned dofs where cells that different events remove meet, or dug cells meet
   /// cells that stay: the future dug boundaries. Collective.
   IndexSet dug_boundary_dofs() const;
+  /// Sets `removed` from the events applied (`excavated`): a cell is out if one of
+  /// them removes it. For a checkpoint's state (checkpoint.cc).
+  void mark_removed_cells();
   /// Gives the deactivated dofs (those of removed cells only) a unit-scaled diagonal.
   void set_deactivated_diagonals(LA::MPI::SparseMatrix& target) const;
 
@@ -115,6 +118,7 @@ struct BiotProblem::Impl {
   /// geostatic out-of-balance force and the force of its stress change at removal.
   struct ReleasedCell {
     std::size_t event;
+    unsigned int cell; ///< active cell index
     std::vector<types::global_dof_index> dofs;
     Vector<double> geostatic, carried;
   };

@@ -50,7 +50,8 @@ bool BiotProblem::Impl::excavate(double t) {
     removed[cell->active_cell_index()] = true;
     if (!cell->is_locally_owned())
       continue;
-    ReleasedCell r{*event, std::vector<types::global_dof_index>(n), Vector<double>(n),
+    ReleasedCell r{*event, cell->active_cell_index(),
+                   std::vector<types::global_dof_index>(n), Vector<double>(n),
                    Vector<double>(n)};
     cell->get_dof_indices(r.dofs);
     kernel.reinit(cell);
@@ -185,6 +186,15 @@ void BiotProblem::Impl::set_deactivated_diagonals(LA::MPI::SparseMatrix& target)
     if (owned.is_element(i))
       target.set(i, i, mean > 0.0 ? mean : 1.0);
   target.compress(VectorOperation::insert);
+}
+
+void BiotProblem::Impl::mark_removed_cells() {
+  for (const auto& cell : dof_handler.active_cell_iterators())
+    if (!cell->is_artificial())
+      for (std::size_t k = 0; k < excavated.size(); ++k)
+        if (excavated[k] &&
+            setup.excavation[k].removes(cell->center(), cell->material_id()))
+          removed[cell->active_cell_index()] = true;
 }
 
 } // namespace settlewell

@@ -9,11 +9,14 @@ namespace settlewell {
 Progress::Progress(std::ostream& out,
                    bool in_place,
                    std::size_t total_steps,
-                   bool enabled)
+                   bool enabled,
+                   std::size_t done_before)
     : out_(out)
     , in_place_(in_place)
     , enabled_(enabled)
-    , total_(total_steps) {}
+    , total_(total_steps)
+    , done_(done_before)
+    , before_(done_before) {}
 
 namespace {
 std::string duration_text(double seconds) {
@@ -38,7 +41,7 @@ void Progress::step(const std::string& stage,
   if (!enabled_)
     return;
   const double elapsed = timer_.wall_time();
-  const double left = done_ > 0 ? elapsed / done_ * (total_ - done_) : 0.0;
+  const double left = elapsed / double(done_ - before_) * double(total_ - done_);
   std::ostringstream line;
   line << "stage " << stage_number << "/" << n_stages << " " << stage << " | t "
        << std::fixed << std::setprecision(2) << time_days << " d | dt "

@@ -14,6 +14,7 @@
 #include "settlewell/output/csv_file.h"
 #include "settlewell/output/run_folder.h"
 #include "settlewell/physics/biot_problem.h"
+#include "settlewell/run/checkpoint.h"
 #include "settlewell/run/progress.h"
 #include "settlewell/run/stop_request.h"
 #include "settlewell/solvers/linear_solver.h"
@@ -24,8 +25,10 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <iomanip>
 #include <iostream>
+#include <iterator>
 #include <limits>
 #include <optional>
 #include <sstream>
@@ -103,12 +106,71 @@ void warn_of_large_movement(const RunSummary& summary, const Mesh& mesh, MPI_Com
                  "stiffnesses and loads\n";
 }
 
+std::string text_of(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  return std::string((std::istreambuf_iterator<char>(in)),
+                     std::istreambuf_iterator<char>());
+}
+
+/// Runs `act` on rank 0; a file-system failure there becomes a SystemError on every
+/// rank (the others would wait for rank 0 forever). Collective.
+void on_root(MPI_Comm comm, const std::function<void()>& act) {
+  std::string failure;
+  if (is_root(comm)) {
+    try {
+      act();
+    } catch (const std::filesystem::filesystem_error& e) {
+      failure = e.path1().string() + ": " + e.code().message();
+    } catch (const SystemError& e) {
+      failure = e.what();
+    }
+  }
+  failure = Utilities::MPI::broadcast(comm, failure, 0);
+  if (!failure.empty())
+    throw SystemError(failure);
+}
+
+/// The mesh of a resumed run: the scenario's, with the checkpoint's partition loaded.
+/// The mesh must have the checkpoint's cells: a scenario or mesh file changed since
+/// the run started is refused.
+Mesh resumed_mesh(Mesh mesh,
+                  const scenario::Scenario& s,
+                  const std::string& checkpoint,
+                  MPI_Comm comm) {
+  if (checkpoint.empty())
+    return mesh;
+  const CheckpointHeader header = read_checkpoint_header(checkpoint, comm);
+  const bool same_file =
+      !s.mesh_file || sha256_of_file(s.mesh_file->path) == header.mesh_sha256;
+  if (!same_file || mesh.triangulation->n_global_active_cells() != header.cells)
+    throw InputError(checkpoint + ": was written for another mesh (" +
+                     std::to_string(header.cells) + " cells" +
+                     (same_file ? "" : ", another mesh file") +
+                     "): the scenario or its mesh changed since the run started");
+  mesh.triangulation->load(checkpoint + "/mesh");
+  return mesh;
+}
+
 } // namespace
 
+static void visit(StateArchive& a, BiotProblem::OutOfBalance& b) {
+  a& b.largest& b.summed& b.released;
+}
+
 struct Simulation::Impl {
-  Impl(scenario::Scenario s, MPI_Comm comm);
+  Impl(scenario::Scenario s, MPI_Comm comm, const std::string& checkpoint);
   void prepare_folder(const RunOptions& options) const;
   RunSummary run(const RunOptions& options);
+  RunSummary resume(const RunOptions& options);
+  RunSummary run_steps(const RunOptions& options,
+                       monitors::RunView& view,
+                       StepReport& report,
+                       CsvFile& steps,
+                       CheckpointHeader& header);
+  CheckpointHeader new_header() const;
+  void write_checkpoint(const std::string& dir,
+                        const CheckpointHeader& header,
+                        CsvFile& steps);
   void start(const monitors::RunView& view);
   void step(const monitors::RunView& view, CsvFile& steps);
   void check_initial_balance();
@@ -126,19 +188,26 @@ struct Simulation::Impl {
   std::vector<std::unique_ptr<monitors::Monitor>> monitors;
   TimerOutput timer; ///< wall time of the parts of a run, for the manifest
   std::optional<BiotProblem::OutOfBalance> initial_balance; ///< when digging
+  std::string checkpoint; ///< to resume from; empty for a new run
 };
 
-Simulation::Impl::Impl(scenario::Scenario s, MPI_Comm comm_)
+Simulation::Impl::Impl(scenario::Scenario s,
+                       MPI_Comm comm_,
+                       const std::string& checkpoint_)
     : scenario(std::move(s))
     , comm(comm_)
-    , mesh((add_petsc_options(scenario.numerics.petsc_options),
-            make_scenario_mesh(scenario, comm)))
+    , mesh(resumed_mesh((add_petsc_options(scenario.numerics.petsc_options),
+                         make_scenario_mesh(scenario, comm)),
+                        scenario,
+                        checkpoint_,
+                        comm))
     , initial(scenario, mesh)
     , schedule(scenario)
     , model(model::build_model(scenario, mesh, initial, schedule))
     // MPI_COMM_SELF: with a communicator, deal.II prints a page of warnings when the
     // timer is destroyed while an error (a one-line InputError) is on its way out.
-    , timer(MPI_COMM_SELF, std::cout, TimerOutput::never, TimerOutput::wall_times) {
+    , timer(MPI_COMM_SELF, std::cout, TimerOutput::never, TimerOutput::wall_times)
+    , checkpoint(checkpoint_) {
   problem = std::make_unique<BiotProblem>(mesh, model.setup);
   derivation = std::make_unique<Derivation>(*problem, initial.fields());
   context = std::make_unique<monitors::RunContext>(
@@ -210,7 +279,12 @@ void Simulation::Impl::add_initial_balance(toml::table& results) const {
 }
 
 Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
-    : impl_(std::make_unique<Impl>(std::move(scenario), comm)) {}
+    : impl_(std::make_unique<Impl>(std::move(scenario), comm, "")) {}
+
+Simulation::Simulation(scenario::Scenario scenario,
+                       MPI_Comm comm,
+                       const std::string& checkpoint)
+    : impl_(std::make_unique<Impl>(std::move(scenario), comm, checkpoint)) {}
 
 Simulation::~Simulation() = default;
 
@@ -226,23 +300,111 @@ RunSummary Simulation::run(const RunOptions& options) {
   }
 }
 
-RunSummary Simulation::Impl::run(const RunOptions& options) {
-  Impl& m = *this;
-  Timer wall(m.comm);
-  const std::string started = utc_now();
-  const std::string& dir = options.run_directory;
-  m.check_initial_balance();
+RunSummary Simulation::resume(const RunOptions& options) {
+  try {
+    return impl_->resume(options);
+  } catch (const std::exception& e) {
+    write_folder_state(options.run_directory, FolderKind::run, "failed", e.what(),
+                       impl_->comm);
+    throw;
+  }
+}
 
-  RunSummary summary;
+CheckpointHeader Simulation::Impl::new_header() const {
+  CheckpointHeader h;
+  h.scenario_path = std::filesystem::absolute(scenario.source_path).string();
+  h.refinements = scenario.numerics.refinements;
+  h.solver = static_cast<int>(scenario.numerics.solver);
+  h.allow_large = scenario.numerics.allow_large;
+  if (scenario.mesh_file)
+    h.mesh_sha256 = sha256_of_file(scenario.mesh_file->path);
+  h.cells = mesh.triangulation->n_global_active_cells();
+  h.steps_planned = schedule.step_times().size();
+  h.started = utc_now();
+  return h;
+}
+
+RunSummary Simulation::Impl::run(const RunOptions& options) {
+  check_initial_balance();
   StepReport report; // t = 0: no step yet
-  monitors::RunView view{*m.context, dir, report, 0};
-  m.start(view);
-  CsvFile steps(dir + "/steps.csv",
-                step_header(m.monitors, !m.model.setup.excavation.empty()), m.comm);
+  monitors::RunView view{*context, options.run_directory, report, 0};
+  start(view);
+  CsvFile steps(options.run_directory + "/steps.csv",
+                step_header(monitors, !model.setup.excavation.empty()), comm);
+  CheckpointHeader header = new_header();
+  return run_steps(options, view, report, steps, header);
+}
+
+RunSummary Simulation::Impl::resume(const RunOptions& options) {
+  const std::string source = checkpoint + "/state.bin";
+  std::istringstream in(text_of(source));
+  StateArchive a(in, source, options.run_directory, comm);
+  CheckpointHeader header;
+  a& header;
+  if (header.steps_planned != schedule.step_times().size())
+    throw InputError(
+        source + ": the run planned " + std::to_string(header.steps_planned) +
+        " steps; its scenario now gives " + std::to_string(schedule.step_times().size()));
+  problem->load_checkpoint(a);
+  for (auto& m : monitors)
+    m->visit_state(a);
+  CsvFile steps;
+  a& steps& initial_balance;
+  write_folder_state(options.run_directory, FolderKind::run, "running", "", comm);
+  if (is_root(comm) && options.show_progress)
+    std::cerr << "settlewell: resuming " << options.run_directory << " after step "
+              << header.step << " of " << header.steps_planned << " (day "
+              << units::to_days(header.time) << ")\n";
+  StepReport report;
+  monitors::RunView view{*context, options.run_directory, report, header.step};
+  return run_steps(options, view, report, steps, header);
+}
+
+void Simulation::Impl::write_checkpoint(const std::string& dir,
+                                        const CheckpointHeader& header,
+                                        CsvFile& steps) {
+  TimerOutput::Scope part(timer, "checkpoints");
+  namespace fs = std::filesystem;
+  const std::string partial = dir + "/checkpoint.partial";
+  on_root(comm, [&] {
+    fs::remove_all(partial);
+    fs::create_directories(partial);
+  });
+  std::ostringstream bytes;
+  StateArchive a(bytes, dir, comm);
+  CheckpointHeader h = header;
+  a& h;
+  problem->save_checkpoint(a, partial + "/mesh");
+  for (auto& m : monitors)
+    m->visit_state(a);
+  a& steps& initial_balance;
+  // At every moment `checkpoint` or `checkpoint.old` holds a complete checkpoint.
+  on_root(comm, [&] {
+    write_whole_file(partial + "/state.bin",
+                     [&](std::ostream& out) { out << bytes.str(); });
+    const fs::path current = dir + "/checkpoint", old = dir + "/checkpoint.old";
+    if (fs::exists(current)) {
+      fs::remove_all(old);
+      fs::rename(current, old);
+    }
+    fs::rename(partial, current);
+    fs::remove_all(old);
+  });
+}
+
+RunSummary Simulation::Impl::run_steps(const RunOptions& options,
+                                       monitors::RunView& view,
+                                       StepReport& report,
+                                       CsvFile& steps,
+                                       CheckpointHeader& header) {
+  Impl& m = *this;
+  Timer wall(m.comm), since_checkpoint;
+  const std::string& dir = options.run_directory;
+  RunSummary summary;
   const auto& times = m.schedule.step_times();
   Progress progress(std::cerr, options.progress_in_place, times.size(),
-                    options.show_progress && is_root(m.comm));
-  for (std::size_t n = 0; n < times.size(); ++n) {
+                    options.show_progress && is_root(m.comm), header.step);
+  for (std::size_t n = header.step; n < times.size(); ++n) {
     {
       TimerOutput::Scope part(m.timer, "time steps (assembly and solve)");
       report = m.problem->advance_to(times[n]);
@@ -254,7 +416,21 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
     progress.step(m.schedule.stages()[k].name, k + 1, m.schedule.stages().size(),
                   units::to_days(report.time), units::to_days(report.dt),
                   report.solve_seconds);
-    if ((summary.stopped_by = stop_signal(m.comm)) != 0) {
+    summary.stopped_by = stop_signal(m.comm);
+    const bool overdue =
+        options.checkpoint_minutes > 0.0 &&
+        Utilities::MPI::logical_or(
+            since_checkpoint.wall_time() > 60.0 * options.checkpoint_minutes, m.comm);
+    if (n + 1 < times.size() &&
+        (summary.stopped_by != 0 || overdue || m.schedule.is_output_time(report.time))) {
+      header.step = n + 1;
+      header.time = report.time;
+      header.wall_seconds_before += wall.wall_time();
+      wall.restart();
+      m.write_checkpoint(dir, header, steps);
+      since_checkpoint.restart();
+    }
+    if (summary.stopped_by != 0) {
       summary.stopped_at = report.time;
       break;
     }
@@ -266,9 +442,9 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   summary.dofs = m.problem->dof_handler().n_dofs();
   summary.steps = view.step_number;
   summary.steps_planned = times.size();
-  summary.wall_seconds = wall.wall_time();
+  summary.wall_seconds = header.wall_seconds_before + wall.wall_time();
   toml::table results =
-      run_results(m.scenario, m.mesh, m.schedule, summary, started, m.comm);
+      run_results(m.scenario, m.mesh, m.schedule, summary, header.started, m.comm);
   {
     TimerOutput::Scope part(m.timer, "monitors and output");
     for (auto& monitor : m.monitors)
@@ -280,8 +456,14 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   if (is_root(m.comm))
     write_whole_file(dir + "/results.toml",
                      [&](std::ostream& out) { out << results << '\n'; });
-  write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, started,
+  write_manifest(dir + "/manifest.json", m.scenario, m.schedule, summary, header.started,
                  m.timer.get_summary_data(TimerOutput::total_wall_time), m.comm);
+  // A finished run needs no checkpoint; a stopped one resumes from it.
+  if (summary.stopped_by == 0)
+    on_root(m.comm, [&] {
+      for (const char* name : {"/checkpoint", "/checkpoint.old", "/checkpoint.partial"})
+        std::filesystem::remove_all(dir + name);
+    });
   return summary;
 }
 

@@ -1,5 +1,6 @@
 #pragma once
 
+#include "settlewell/core/state_archive.h"
 #include "settlewell/model/initial_state.h"
 #include "settlewell/model/model_builder.h"
 #include "settlewell/model/schedule.h"
@@ -59,6 +60,10 @@ public:
   virtual void at_output_time(const RunView&) {}
   /// After the last step: its last files, and its part of results.toml.
   virtual void finish(const RunView&, toml::table& results) { (void)results; }
+  /// Saves or loads (a checkpoint) what it has gathered since start() and its open
+  /// files; loading stands in for start() when a run resumes. Rank 0's state is
+  /// saved and loaded on every rank: a monitor keeps the same state on each.
+  virtual void visit_state(StateArchive&) {}
 };
 
 /// The monitors a scenario asks for, in the order they are called: fields, point

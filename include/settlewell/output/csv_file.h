@@ -1,5 +1,7 @@
 #pragma once
 
+#include "settlewell/core/state_archive.h"
+
 #include <mpi.h>
 
 #include <fstream>
@@ -16,6 +18,8 @@ namespace settlewell {
 /// cannot be written (a full disk) throws SystemError.
 class CsvFile {
 public:
+  /// A file not opened: writes nothing (until a checkpoint's state reopens it).
+  CsvFile() = default;
   CsvFile(const std::string& path, const std::vector<std::string>& header, MPI_Comm comm);
   /// The `labels` (text) first, then the numbers (9 significant digits).
   void row(const std::vector<double>& values,
@@ -25,8 +29,14 @@ public:
                      const std::vector<std::string>& labels = {});
 
 private:
+  friend void visit(StateArchive& a, CsvFile& file);
   std::unique_ptr<std::ofstream> out_;
   std::string path_;
 };
+
+/// Saves the file's path (within the run folder) and length; loading cuts the file
+/// back to that length (rows written after the checkpoint go) and reopens it to
+/// append. Throws InputError if the file is missing or shorter.
+void visit(StateArchive& a, CsvFile& file);
 
 } // namespace settlewell

@@ -1,5 +1,6 @@
 #pragma once
 
+#include "settlewell/core/state_archive.h"
 #include "settlewell/output/derived.h"
 #include "settlewell/physics/biot_problem.h"
 
@@ -30,11 +31,15 @@ public:
   std::string series_path() const;
 
 private:
+  friend void visit(StateArchive& a, FieldWriter& writer);
   std::string directory_;
   std::string basename_;
   MPI_Comm comm_;
   std::optional<InitialFields> initial_;
   std::vector<std::pair<double, std::string>> series_;
 };
+
+/// The times and files written so far (a resumed run numbers on from them).
+void visit(StateArchive& a, FieldWriter& writer);
 
 } // namespace settlewell

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "settlewell/core/linear_algebra.h"
+#include "settlewell/core/state_archive.h"
 #include "settlewell/mesh/mesh.h"
 #include "settlewell/physics/biot_setup.h"
 #include "settlewell/physics/field_layout.h"
@@ -94,6 +95,16 @@ public:
     double largest = 0.0, summed = 0.0, released = 0.0;
   };
   OutOfBalance geostatic_out_of_balance() const;
+
+  /// Checkpoints (checkpoint.cc). Saves the time, the digging and props done so far
+  /// into `a`, and with deal.II's distributed serialisation, into the files named
+  /// from `mesh_file`: the triangulation, the solution, the drained surface's
+  /// active set and the forces the dug cells released. Collective.
+  void save_checkpoint(StateArchive& a, const std::string& mesh_file) const;
+  /// Restores the state save_checkpoint saved, on any number of processes. The
+  /// triangulation must have been loaded from the same `mesh_file` (load_mesh) before
+  /// this problem was built. Collective.
+  void load_checkpoint(StateArchive& a);
 
   /// Whether the cell of this active index has been taken out by excavation.
   bool is_removed(unsigned int active_cell_index) const;

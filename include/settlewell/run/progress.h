@@ -11,7 +11,13 @@ namespace settlewell {
 /// the output goes to a file or a pipe.
 class Progress {
 public:
-  Progress(std::ostream& out, bool in_place, std::size_t total_steps, bool enabled);
+  /// `done_before`: steps a resumed run did before (the time left is estimated
+  /// from the steps of this session).
+  Progress(std::ostream& out,
+           bool in_place,
+           std::size_t total_steps,
+           bool enabled,
+           std::size_t done_before = 0);
 
   void step(const std::string& stage,
             std::size_t stage_number,
@@ -24,7 +30,7 @@ public:
 private:
   std::ostream& out_;
   bool in_place_, enabled_;
-  std::size_t total_, done_ = 0;
+  std::size_t total_, done_, before_;
   dealii::Timer timer_; ///< started with the first line
 };
 

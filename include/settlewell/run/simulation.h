@@ -17,6 +17,10 @@ struct RunOptions {
   bool overwrite = false;
   bool show_progress = true;
   bool progress_in_place = false; ///< true on a terminal
+  /// Checkpoints are written at output times, on a stop by signal, and after any
+  /// step that ends this many minutes (wall time) after the last one; 0: only at
+  /// output times and stops.
+  double checkpoint_minutes = 30.0;
 };
 
 /// The headline numbers of a run (maxima over all steps), read from its results.
@@ -52,6 +56,10 @@ struct RunSummary {
 class Simulation {
 public:
   Simulation(scenario::Scenario scenario, MPI_Comm comm);
+  /// A simulation to resume from `checkpoint` (checkpoint_to_resume): the scenario
+  /// must be the run's (resumed_scenario); the mesh is loaded with the run's
+  /// partition and state. Throws InputError if the checkpoint does not fit it.
+  Simulation(scenario::Scenario scenario, MPI_Comm comm, const std::string& checkpoint);
   ~Simulation();
 
   /// Runs every stage, writing the run folder (fields, histories, profiles, checks,
@@ -59,6 +67,10 @@ public:
   /// SIGINT or SIGTERM ends the run after its current step with the folder written
   /// for the steps done and marked stopped (RunSummary::stopped_by).
   RunSummary run(const RunOptions& options);
+  /// Continues the run whose folder is options.run_directory from the checkpoint
+  /// this simulation was built with, to the same results as a run never
+  /// interrupted. `overwrite` is ignored. Collective.
+  RunSummary resume(const RunOptions& options);
 
 private:
   struct Impl;

@@ -1,0 +1,121 @@
+// A problem's state in a checkpoint. What lives on cells and dofs goes through
+// deal.II's distributed serialisation (the triangulation's save and load with
+// SolutionTransfer and CellDataTransfer), so that a run may resume on another
+// number of processes: the solution, the drained surface's active set (as a dof
+// vector of flags) and, per dug cell, the forces it released. The few global
+// values go into the run's state archive. Everything else (matrix, factorisation,
+// constraints) is rebuilt by the first step after loading.
+#include "biot_problem_impl.h"
+
+#include "settlewell/core/errors.h"
+
+// The library instantiates CellDataTransfer for its vector types only.
+#include <deal.II/distributed/cell_data_transfer.templates.h>
+#include <deal.II/distributed/solution_transfer.h>
+
+#include <algorithm>
+
+namespace settlewell {
+
+namespace {
+
+using DofTransfer = parallel::distributed::SolutionTransfer<2, LA::MPI::Vector>;
+/// Per active cell: empty, or for a dug cell of this process its place in the
+/// order of release (summed in the same order after loading, so that a resumed
+/// run repeats the sums bit for bit), its event, and the two force vectors.
+using CellValues = std::vector<std::vector<double>>;
+using CellTransfer = parallel::distributed::CellDataTransfer<2, 2, CellValues>;
+
+const parallel::distributed::Triangulation<2>& triangulation_of(const Mesh& mesh) {
+  return *mesh.triangulation;
+}
+
+} // namespace
+
+void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file) const {
+  const Impl& m = *impl_;
+  a.mark("biot problem");
+  double time = m.time;
+  std::vector<bool> excavated = m.excavated;
+  std::vector<double> fitted = m.spring_fitted_at;
+  a& time& excavated& fitted;
+
+  LA::MPI::Vector owned_flags(m.owned, m.comm);
+  for (const auto d : m.draining)
+    if (m.owned.is_element(d))
+      owned_flags(d) = 1.0;
+  owned_flags.compress(VectorOperation::insert);
+  LA::MPI::Vector flags(m.owned, m.relevant, m.comm);
+  flags = owned_flags;
+  DofTransfer dofs(m.dof_handler);
+  dofs.prepare_for_serialization(
+      std::vector<const LA::MPI::Vector*>{&m.solution, &flags});
+
+  const auto& tria = triangulation_of(m.mesh);
+  CellValues released(tria.n_active_cells());
+  for (std::size_t k = 0; k < m.released.size(); ++k) {
+    const auto& r = m.released[k];
+    auto& values = released[r.cell];
+    values = {double(k), double(r.event)};
+    values.insert(values.end(), r.geostatic.begin(), r.geostatic.end());
+    values.insert(values.end(), r.carried.begin(), r.carried.end());
+  }
+  CellTransfer cells(tria, /*transfer_variable_size_data=*/true);
+  cells.prepare_for_serialization(released);
+  tria.save(mesh_file);
+}
+
+void BiotProblem::load_checkpoint(StateArchive& a) {
+  Impl& m = *impl_;
+  a.mark("biot problem");
+  a& m.time& m.excavated& m.spring_fitted_at;
+  if (m.excavated.size() != m.setup.excavation.size() ||
+      m.spring_fitted_at.size() != m.setup.springs.size())
+    throw InputError("the checkpoint's digging or props do not match the scenario's");
+
+  LA::MPI::Vector solution(m.owned, m.comm), owned_flags(m.owned, m.comm);
+  DofTransfer dofs(m.dof_handler);
+  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags};
+  dofs.deserialize(vectors);
+  m.owned_solution = solution;
+  m.solution = solution;
+  m.old_solution = m.solution;
+
+  const auto& tria = triangulation_of(m.mesh);
+  CellValues released(tria.n_active_cells());
+  CellTransfer cells(tria, /*transfer_variable_size_data=*/true);
+  cells.deserialize(released);
+  if (!m.excavated.empty())
+    m.mark_removed_cells();
+  std::vector<std::pair<double, Impl::ReleasedCell>> ordered;
+  const unsigned int n = m.layout.fe.n_dofs_per_cell();
+  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
+    const auto& values = released[cell->active_cell_index()];
+    if (!cell->is_locally_owned() || values.empty())
+      continue;
+    if (values.size() != 2 + 2 * n)
+      throw InputError("the checkpoint's released forces do not fit the elements");
+    Impl::ReleasedCell r{std::size_t(values[1]), cell->active_cell_index(),
+                         std::vector<types::global_dof_index>(n), Vector<double>(n),
+                         Vector<double>(n)};
+    cell->get_dof_indices(r.dofs);
+    std::copy(values.begin() + 2, values.begin() + 2 + n, r.geostatic.begin());
+    std::copy(values.begin() + 2 + n, values.end(), r.carried.begin());
+    ordered.emplace_back(values[0], std::move(r));
+  }
+  std::stable_sort(ordered.begin(), ordered.end(),
+                   [](const auto& x, const auto& y) { return x.first < y.first; });
+  m.released.clear();
+  for (auto& [order, r] : ordered)
+    m.released.push_back(std::move(r));
+
+  LA::MPI::Vector flags(m.owned, m.relevant, m.comm);
+  flags = owned_flags;
+  m.find_exposed();
+  m.draining.clear();
+  for (const auto& [d, x] : m.exposed)
+    if (flags(d) > 0.5)
+      m.draining.insert(d);
+}
+
+} // namespace settlewell
