@@ -143,7 +143,9 @@ int report_stop(const settlewell::RunSummary& summary) {
         << " after step " << summary.steps << " of " << summary.steps_planned << " (day "
         << settlewell::units::to_days(summary.stopped_at) << "); "
         << summary.run_directory
-        << " holds the results of the steps done, marked stopped in manifest.json\n";
+        << " holds the results of the steps done, marked stopped in manifest.json; "
+           "settlewell run --resume "
+        << summary.run_directory << " continues it\n";
   return 128 + summary.stopped_by;
 }
 

@@ -4,6 +4,7 @@
 #include "field_series.h"
 #include "layer_stack.h"
 #include "neighbours.h"
+#include "plausibility.h"
 #include "prop_forces.h"
 #include "sampled_tables.h"
 #include "wall_profile.h"
@@ -18,6 +19,7 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   list.push_back(std::make_unique<LineProfiles>(run));
   list.push_back(std::make_unique<WaterAccount>(run));
   list.push_back(std::make_unique<Extremes>(run));
+  list.push_back(std::make_unique<Plausibility>(run));
   if (run.scenario.section)
     list.push_back(std::make_unique<BaseStability>(run));
   if (!run.problem.setup().springs.empty())

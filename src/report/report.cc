@@ -90,6 +90,8 @@ void cautions(Document& d) {
 
 void run_section(Document& d, const toml::table& r) {
   const bool balance_ok = r["water_balance"]["closes"].value_or(false);
+  const auto& movement = r["plausibility"];
+  const double steps_over = get(movement["steps_over_movement_limit"]);
   d.add("Run").table(
       {{"item", "value"},
        {{{"scenario"}, {text(r["input"])}},
@@ -108,7 +110,12 @@ void run_section(Document& d, const toml::table& r) {
          {num(get(r["water_balance"]["largest_relative_error"]), 2) + " (tolerance " +
               num(get(r["water_balance"]["tolerance"]), 2) + "; " +
               num(get(r["water_balance"]["steps_over_tolerance"]), 8) + " steps over it)",
-          balance_ok ? Flag::ok : Flag::attention}}}});
+          balance_ok ? Flag::ok : Flag::attention}},
+        {{"largest movement of a step (small-strain limit: 5 % of the model's height)"},
+         {fixed(1000 * get(movement["largest_movement_m"]), 1) + " mm (limit " +
+              fixed(1000 * get(movement["movement_limit_m"]), 0) + " mm; " +
+              num(steps_over, 8) + " steps over it)",
+          steps_over > 0 ? Flag::attention : Flag::ok}}}});
 }
 
 void inputs_section(Document& d, const toml::table& r) {

@@ -114,6 +114,10 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
   summary.mass_balance_steps_off =
       std::size_t(r["water_balance"]["steps_over_tolerance"].value_or(int64_t(0)));
+  summary.largest_movement = r["plausibility"]["largest_movement_m"].value_or(0.0);
+  summary.movement_limit = r["plausibility"]["movement_limit_m"].value_or(0.0);
+  summary.movement_steps_over =
+      std::size_t(r["plausibility"]["steps_over_movement_limit"].value_or(int64_t(0)));
 }
 
 void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scenario& s) {
@@ -152,6 +156,12 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance
         << " (worst " << r.mass_balance << "); see steps.csv\n"
+        << std::fixed;
+  if (r.movement_steps_over > 0)
+    out << "  movement: " << r.movement_steps_over << " of " << r.steps
+        << " steps move the ground more than " << std::defaultfloat << r.movement_limit
+        << " m, 5 % of the model's height (largest " << r.largest_movement
+        << " m): beyond the small strains the model assumes\n"
         << std::fixed;
   out << "  results: " << r.run_directory
       << " (fields/fields.pvd, points.csv, profiles/, "

@@ -81,31 +81,6 @@ void check_finite(const BiotProblem& problem, std::size_t step) {
   throw SolverError(os.str());
 }
 
-/// The model's height (largest minus smallest y of the cells' vertices), m.
-double model_height(const Mesh& mesh, MPI_Comm comm) {
-  double low = std::numeric_limits<double>::max(), high = -low;
-  for (const auto& cell : mesh.triangulation->active_cell_iterators())
-    if (cell->is_locally_owned())
-      for (const unsigned int v : cell->vertex_indices()) {
-        low = std::min(low, cell->vertex(v)[1]);
-        high = std::max(high, cell->vertex(v)[1]);
-      }
-  return Utilities::MPI::max(high, comm) + Utilities::MPI::max(-low, comm);
-}
-
-/// Small strains are the model's premise: a movement of a twentieth of the
-/// model's height says the stiffnesses (or the loads) are far from real ground.
-void warn_of_large_movement(const RunSummary& summary, const Mesh& mesh, MPI_Comm comm) {
-  const double movement =
-      std::max(summary.settlement_anywhere, summary.floor_heave.value_or(0.0));
-  const double height = model_height(mesh, comm);
-  if (movement > 0.05 * height && is_root(comm))
-    std::cerr << "settlewell: warning: the largest movement, " << movement
-              << " m, is more than 5 % of the model's height (" << height
-              << " m): far beyond the small strains the model assumes; check the "
-                 "stiffnesses and loads\n";
-}
-
 std::string text_of(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   return std::string((std::istreambuf_iterator<char>(in)),
@@ -452,7 +427,6 @@ RunSummary Simulation::Impl::run_steps(const RunOptions& options,
   }
   m.add_initial_balance(results);
   read_summary(results, summary);
-  warn_of_large_movement(summary, m.mesh, m.comm);
   if (is_root(m.comm))
     write_whole_file(dir + "/results.toml",
                      [&](std::ostream& out) { out << results << '\n'; });

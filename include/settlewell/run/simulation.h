@@ -47,6 +47,10 @@ struct RunSummary {
   /// Largest relative water-balance error of a step, and its tolerance.
   double mass_balance = 0.0, mass_balance_tolerance = 0.0;
   std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
+  /// Largest displacement of any step and its plausible limit (m), and the steps
+  /// beyond it.
+  double largest_movement = 0.0, movement_limit = 0.0;
+  std::size_t movement_steps_over = 0;
   std::string run_directory;
 };
 
