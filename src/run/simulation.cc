@@ -263,26 +263,29 @@ Simulation::Simulation(scenario::Scenario scenario,
 
 Simulation::~Simulation() = default;
 
-RunSummary Simulation::run(const RunOptions& options) {
-  impl_->prepare_folder(options);
-  // The folder says how the run ended, also when it stopped on an error.
+namespace {
+
+/// The folder says how the run ended, also when it stopped on an error.
+RunSummary marking_failure(const RunOptions& options,
+                           MPI_Comm comm,
+                           const std::function<RunSummary()>& run) {
   try {
-    return impl_->run(options);
+    return run();
   } catch (const std::exception& e) {
-    write_folder_state(options.run_directory, FolderKind::run, "failed", e.what(),
-                       impl_->comm);
+    write_folder_state(options.run_directory, FolderKind::run, "failed", e.what(), comm);
     throw;
   }
 }
 
+} // namespace
+
+RunSummary Simulation::run(const RunOptions& options) {
+  impl_->prepare_folder(options);
+  return marking_failure(options, impl_->comm, [&] { return impl_->run(options); });
+}
+
 RunSummary Simulation::resume(const RunOptions& options) {
-  try {
-    return impl_->resume(options);
-  } catch (const std::exception& e) {
-    write_folder_state(options.run_directory, FolderKind::run, "failed", e.what(),
-                       impl_->comm);
-    throw;
-  }
+  return marking_failure(options, impl_->comm, [&] { return impl_->resume(options); });
 }
 
 CheckpointHeader Simulation::Impl::new_header() const {
