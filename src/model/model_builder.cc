@@ -166,7 +166,7 @@ hydraulic_items(const Scenario& s,
     for (const auto& stage : s.stages)
       for (const auto& [well, target] : stage.wells)
         if (std::none_of(pumped.begin(), pumped.end(),
-                         [&](auto& p) { return p.line == well; }))
+                         [&w = well](auto& p) { return p.line == w; }))
           pumped.push_back({well, well});
   if (items.count(section_names::excavation_level))
     pumped.push_back({section_names::excavation_level, section_names::excavation_level});
