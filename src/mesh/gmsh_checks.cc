@@ -171,14 +171,20 @@ void check_not_repeated(const CellData<2>& cell,
                      "'; each cell must be in one physical surface, once");
 }
 
+/// How an error names an element: "FILE: element N of group 'NAME'".
+std::string
+element_place(const std::string& source, const Element& element, const GmshGroup& group) {
+  return source + ": element " + std::to_string(element.tag) + " of group '" +
+         group.name + "'";
+}
+
 /// Adds the cells of a physical surface.
 void add_cells(const GmshGroup& group,
                const std::map<std::size_t, std::size_t>& index,
                GmshMeshData& data,
                const std::string& source) {
   for (const auto& element : group_elements(group, source)) {
-    const std::string where = source + ": element " + std::to_string(element.tag) +
-                              " of group '" + group.name + "'";
+    const std::string where = element_place(source, element, group);
     data.cell_turn.push_back(quad_turn(element, index, data.vertices, where));
     CellData<2> cell;
     // Gmsh numbers quadrilateral nodes round the cell, deal.II lexicographically.
@@ -198,8 +204,7 @@ void add_curve(const GmshGroup& group,
                GmshMeshData& data,
                const std::string& source) {
   for (const auto& element : group_elements(group, source)) {
-    const std::string where = source + ": element " + std::to_string(element.tag) +
-                              " of group '" + group.name + "'";
+    const std::string where = element_place(source, element, group);
     data.curve_groups[group.name].push_back(
         edge_of(node_index(index, element.nodes[0], where),
                 node_index(index, element.nodes[1], where)));
