@@ -7,6 +7,9 @@
 #include <deal.II/base/mpi.h>
 
 #include <cmath>
+#include <limits>
+#include <set>
+#include <sstream>
 
 namespace settlewell::model {
 
@@ -253,10 +256,10 @@ void add_loads(const Scenario& s,
 }
 
 /// The water level in the pit at time t: the stage's pit_water_level, else the
-/// level the pit has been dug to (the ground surface before any dig).
-TimeFunction pit_water_head(const Scenario& s, const Schedule& schedule) {
+/// level the pit has been dug to (`ground` before any dig).
+TimeFunction pit_water_head(const Scenario& s, const Schedule& schedule, double ground) {
   std::vector<std::pair<double, double>> level; // (stage end, level)
-  double dug_to = s.section->ground_surface;
+  double dug_to = ground;
   for (std::size_t k = 0; k < s.stages.size(); ++k) {
     dug_to = s.stages[k].dig_level.value_or(dug_to);
     level.emplace_back(schedule.stages()[k].end,
@@ -270,15 +273,121 @@ TimeFunction pit_water_head(const Scenario& s, const Schedule& schedule) {
   };
 }
 
-/// The pit's digging: at the start of each stage that digs, the cells inside the
-/// walls whose centre lies above its dig level, released over its ramp; the
-/// surface it exposes drains to the pit, and its water is pumped.
-void add_excavation(const Scenario& s,
-                    const Schedule& schedule,
-                    BiotSetup& setup,
-                    std::vector<PumpedLine>& pumped) {
-  if (!s.section)
-    return;
+/// A mesh file's pit: the regions its dig stages take out, and the highest and
+/// lowest vertex of their cells (the top is the ground before any dig).
+struct PitRegions {
+  std::set<types::material_id> ids;
+  double top = -std::numeric_limits<double>::infinity();
+  double bottom = std::numeric_limits<double>::infinity();
+  double model_height = 0.0; ///< of the whole mesh, m
+};
+
+std::string number_text(double v) {
+  std::ostringstream os;
+  os << v;
+  return os.str();
+}
+
+PitRegions pit_regions(const Scenario& s, const Mesh& mesh) {
+  PitRegions pit;
+  for (const auto& name : s.mesh_file->excavation_regions) {
+    if (!mesh.names.has_region(name)) {
+      std::string known;
+      for (const auto& r : mesh.names.region_names())
+        known += (known.empty() ? "" : ", ") + r;
+      throw InputError(s.location_of("mesh_file.excavation_regions." + name) +
+                       ": mesh_file.excavation_regions: the mesh has no region "
+                       "(physical surface) named '" +
+                       name + "' (known: " + known + ")");
+    }
+    pit.ids.insert(mesh.names.region_id(name));
+  }
+  double high = -std::numeric_limits<double>::infinity(), low = -high;
+  for (const auto& cell : mesh.triangulation->active_cell_iterators())
+    if (cell->is_locally_owned())
+      for (const unsigned int v : cell->vertex_indices()) {
+        const double y = cell->vertex(v)[1];
+        high = std::max(high, y), low = std::min(low, y);
+        if (pit.ids.count(cell->material_id()))
+          pit.top = std::max(pit.top, y), pit.bottom = std::min(pit.bottom, y);
+      }
+  const MPI_Comm comm = mesh.triangulation->get_communicator();
+  pit.top = Utilities::MPI::max(pit.top, comm);
+  pit.bottom = Utilities::MPI::min(pit.bottom, comm);
+  pit.model_height = Utilities::MPI::max(high, comm) - Utilities::MPI::min(low, comm);
+  return pit;
+}
+
+/// The centre of a pit cell that `level` passes through (vertices more than `tol`
+/// above and below it): of those on all processes, the one least in x, then in y.
+std::optional<Point<2>>
+pit_cell_cut_by(const Mesh& mesh, const PitRegions& pit, double level, double tol) {
+  const double none = std::numeric_limits<double>::infinity();
+  Point<2> least(none, none);
+  for (const auto& cell : mesh.triangulation->active_cell_iterators()) {
+    if (!cell->is_locally_owned() || !pit.ids.count(cell->material_id()))
+      continue;
+    bool above = false, below = false;
+    for (const unsigned int v : cell->vertex_indices()) {
+      above = above || cell->vertex(v)[1] > level + tol;
+      below = below || cell->vertex(v)[1] < level - tol;
+    }
+    const Point<2> c = cell->center();
+    if (above && below && (c[0] < least[0] || (c[0] == least[0] && c[1] < least[1])))
+      least = c;
+  }
+  const MPI_Comm comm = mesh.triangulation->get_communicator();
+  const double x = Utilities::MPI::min(least[0], comm);
+  const double y = Utilities::MPI::min(least[0] == x ? least[1] : none, comm);
+  if (x == none)
+    return std::nullopt;
+  return Point<2>(x, y);
+}
+
+/// A mesh file's dig level of stage k: inside the pit's height, along cell sides.
+void check_mesh_dig_level(const Scenario& s,
+                          const Mesh& mesh,
+                          const PitRegions& pit,
+                          std::size_t k,
+                          double tol) {
+  const auto& stage = s.stages[k];
+  const double level = *stage.dig_level;
+  const std::string where = s.location_of("stages." + stage.name + ".dig_level") +
+                            ": stages[" + std::to_string(k) + "].dig_level: ";
+  if (!(level < pit.top - tol))
+    throw InputError(where + "must lie below the top of the excavation regions (" +
+                     number_text(pit.top) + " m, mesh_file.excavation_regions)");
+  if (level < pit.bottom - tol)
+    throw InputError(where + "lies below the excavation regions (their lowest point " +
+                     number_text(pit.bottom) + " m, mesh_file.excavation_regions)");
+  if (const auto c = pit_cell_cut_by(mesh, pit, level, tol))
+    throw InputError(where + "stage '" + stage.name + "' digs to " + number_text(level) +
+                     " m, which cuts through cells of the excavation regions (one "
+                     "centred at (" +
+                     number_text((*c)[0]) + ", " + number_text((*c)[1]) +
+                     ")); put a mesh line at " + number_text(level) + " m there");
+}
+
+/// A mesh file's dig levels and pit water levels against its pit (no water above
+/// the pit's top).
+void check_mesh_pit(const Scenario& s, const Mesh& mesh, const PitRegions& pit) {
+  const double tol = 1e-6 * pit.model_height;
+  for (std::size_t k = 0; k < s.stages.size(); ++k) {
+    const auto& stage = s.stages[k];
+    if (stage.pit_water_level && *stage.pit_water_level > pit.top + tol)
+      throw InputError(s.location_of("stages." + stage.name + ".pit_water_level") +
+                       ": stages[" + std::to_string(k) +
+                       "].pit_water_level: lies above the top of the excavation "
+                       "regions (" +
+                       number_text(pit.top) + " m)");
+    if (stage.dig_level)
+      check_mesh_dig_level(s, mesh, pit, k, tol);
+  }
+}
+
+/// The digging of a section's pit: the cells inside the walls whose centre lies
+/// above the dig level.
+void add_section_digs(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
   const double half_width = s.section->excavation_width / 2;
   const bool whole_width =
       !s.section->half_model && s.analysis != AnalysisType::axisymmetric;
@@ -293,9 +402,49 @@ void add_excavation(const Scenario& s,
            return x < half_width && centre[1] > level;
          }});
   }
+}
+
+/// The digging of a mesh file's pit: the cells of its excavation regions whose
+/// centre lies above the dig level.
+void add_mesh_digs(const Scenario& s,
+                   const Schedule& schedule,
+                   const PitRegions& pit,
+                   BiotSetup& setup) {
+  for (std::size_t k = 0; k < s.stages.size(); ++k) {
+    if (!s.stages[k].dig_level)
+      continue;
+    const double level = *s.stages[k].dig_level;
+    const StageTimes& times = schedule.stages()[k];
+    setup.excavation.push_back(
+        {times.start, times.ramp_end,
+         [level, ids = pit.ids](const Point<2>& centre, types::material_id region) {
+           return ids.count(region) != 0 && centre[1] > level;
+         }});
+  }
+}
+
+/// The pit's digging: at the start of each stage that digs, the pit's cells above
+/// its dig level (section: inside the walls; mesh file: of its excavation regions),
+/// released over its ramp; the surface it exposes drains to the pit, and its water
+/// is pumped.
+void add_excavation(const Scenario& s,
+                    const Mesh& mesh,
+                    const Schedule& schedule,
+                    BiotSetup& setup,
+                    std::vector<PumpedLine>& pumped) {
+  double ground = 0.0; // the pit's top before any dig
+  if (s.section) {
+    ground = s.section->ground_surface;
+    add_section_digs(s, schedule, setup);
+  } else if (s.mesh_file && !s.mesh_file->excavation_regions.empty()) {
+    const PitRegions pit = pit_regions(s, mesh);
+    check_mesh_pit(s, mesh, pit);
+    ground = pit.top;
+    add_mesh_digs(s, schedule, pit, setup);
+  }
   if (setup.excavation.empty())
     return;
-  setup.pit_water_head = pit_water_head(s, schedule);
+  setup.pit_water_head = pit_water_head(s, schedule, ground);
   pumped.push_back({"formation", "", true});
 }
 
@@ -378,7 +527,7 @@ Model build_model(const Scenario& s,
   add_hydraulic(s, mesh, initial, schedule, items, setup.conditions);
   add_mechanical(mesh, roles, setup.conditions);
   add_loads(s, mesh, schedule, setup.conditions);
-  add_excavation(s, schedule, setup, model.pumped);
+  add_excavation(s, mesh, schedule, setup, model.pumped);
   add_props(s, schedule, setup);
   return model;
 }

@@ -20,6 +20,9 @@ namespace {
 
 constexpr unsigned int n_line_samples = 40;
 const char* const not_dug = "the pit is not dug yet (no stage has reached a dig_level)";
+const char* const no_section =
+    "the pit is dug in a user's mesh (mesh_file), which gives no wall toe or layers to "
+    "check the base against; the base checks need a [section]";
 
 /// Midpoints of n equal parts of [a, b] at elevation y.
 std::vector<Point<2>> along(double a, double b, double y) {
@@ -147,14 +150,15 @@ toml::array BaseStability::stage_table(const RunView& view) const {
 
 BaseStability::BaseStability(const RunContext& run)
     : scenario_(run.scenario)
-    , section_(*run.scenario.section) {
-  if (section_.wall) {
-    if (section_.wall->right)
+    , section_(run.scenario.section ? &*run.scenario.section : nullptr) {
+  if (section_ && section_->wall) {
+    if (section_->wall->right)
       sides_.push_back("right");
-    if (section_.wall->left)
+    if (section_->wall->left)
       sides_.push_back("left");
   }
-  const auto& layers = section_.layers;
+  static const std::vector<scenario::Layer> no_layers;
+  const auto& layers = section_ ? section_->layers : no_layers;
   const double low_k = scenario_.limits.low_permeability;
   for (std::size_t k = 0; k + 1 < layers.size(); ++k) {
     const auto& m = scenario_.materials.at(layers[k].material).poroelastic;
@@ -171,7 +175,7 @@ BaseStability::BaseStability(const RunContext& run)
 
 double BaseStability::pit_water_level_at(double t) const {
   // As the model sets it: the stage's pit_water_level, else the dig level so far.
-  double dug_to = section_.ground_surface, level = dug_to;
+  double dug_to = section_->ground_surface, level = dug_to;
   for (std::size_t k = 0; k < stage_start_.size() && stage_start_[k] < t * (1 - 1e-12);
        ++k) {
     dug_to = scenario_.stages[k].dig_level.value_or(dug_to);
@@ -195,7 +199,7 @@ const BaseStability::Samples& BaseStability::samples_at(double dig,
   if (found != samples_.end())
     return found->second;
   Samples& s = samples_[dig];
-  const auto& sec = section_;
+  const auto& sec = *section_;
   const auto [x0, x1] = pit_span(sec, scenario_.analysis);
   const double delta = 1e-6 * (sec.ground_surface - sec.bottom);
   s.exit.emplace(problem, along_with_ends(x0, x1, dig - delta, delta),
@@ -228,7 +232,12 @@ BaseState BaseStability::evaluate(const RunView& view) {
   BaseState b;
   b.time = view.time();
   b.dig_level = dig_level_at(b.time);
-  const auto& sec = section_;
+  if (section_ == nullptr) {
+    if (b.dig_level)
+      b.piping_reason = no_section;
+    return b;
+  }
+  const auto& sec = *section_;
   for (const auto& side : sides_)
     b.heave.push_back({side, 0.0, 0.0, 0.0, std::nullopt});
   for (const std::size_t k : uplift_layers_)
@@ -302,7 +311,7 @@ void BaseStability::start(const RunView& view) {
     header.insert(header.end(),
                   {"heave_excess_head_" + side + "_m", "heave_factor_" + side});
   for (const std::size_t k : uplift_layers_) {
-    const auto& name = section_.layers[k].name;
+    const auto& name = section_->layers[k].name;
     header.insert(header.end(),
                   {"uplift_pore_pressure_" + name + "_kPa", "uplift_factor_" + name});
   }
@@ -347,9 +356,11 @@ void BaseStability::finish(const RunView& view, toml::table& results) {
                                limits.piping_factor, piping_reason)}};
   if (last.dig_level) {
     t.insert("dig_level_at_end_m", *last.dig_level);
-    t.insert("exit_gradient_at_end", last.exit_gradient);
-    t.insert("exit_x_at_end_m", last.exit_x);
-    t.insert("critical_gradient", last.critical_gradient);
+    if (section_ != nullptr) {
+      t.insert("exit_gradient_at_end", last.exit_gradient);
+      t.insert("exit_x_at_end_m", last.exit_x);
+      t.insert("critical_gradient", last.critical_gradient);
+    }
   } else {
     t.insert("dig_level_at_end_m", "not dug");
   }

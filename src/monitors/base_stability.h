@@ -45,7 +45,8 @@ struct BaseState {
 
 class BaseStability : public Monitor {
 public:
-  /// A section scenario only (make_monitors asks).
+  /// A section, or a mesh file whose pit is dug: its base is not checked (the
+  /// factors say why), but its dig levels are reported.
   explicit BaseStability(const RunContext& run);
   void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
@@ -69,7 +70,7 @@ private:
   toml::array stage_table(const RunView& view) const;
 
   const scenario::Scenario& scenario_;
-  const scenario::Section& section_;
+  const scenario::Section* section_;            ///< none: a mesh file
   std::vector<std::string> sides_;              ///< sides with a wall
   std::vector<std::size_t> uplift_layers_;      ///< layer index of each candidate
   std::vector<std::pair<double, double>> digs_; ///< (removal time, dig level)

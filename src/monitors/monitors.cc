@@ -20,7 +20,7 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   list.push_back(std::make_unique<WaterAccount>(run));
   list.push_back(std::make_unique<Extremes>(run));
   list.push_back(std::make_unique<Plausibility>(run));
-  if (run.scenario.section)
+  if (run.scenario.section || !run.problem.setup().excavation.empty())
     list.push_back(std::make_unique<BaseStability>(run));
   if (!run.problem.setup().springs.empty())
     list.push_back(std::make_unique<PropForces>(run));

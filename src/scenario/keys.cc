@@ -83,6 +83,7 @@ const std::vector<KeySpec>& all_keys() {
     {"box.cell_height", "number", "m", "0.5", "Cell height"},
 
     {"mesh_file.path", "string", "", "required", "A Gmsh .msh file (relative to the scenario) with named physical groups"},
+    {"mesh_file.excavation_regions", "array of strings", "", "[]", "Regions (physical surfaces) a stage's dig_level may take out: their cells whose centre lies above it; their highest point is the ground before any dig"},
     {"mesh_file.regions.<name>", "string", "", "the region's name", "Material of a region (physical surface) of the mesh"},
 
     {"groundwater.water_table", "number", "m", "required", "Initial water-table elevation (hydrostatic below, saturated above)"},
@@ -100,7 +101,7 @@ const std::vector<KeySpec>& all_keys() {
     {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a fixed_head boundary"},
     {"stages[].excavation_level_head", "number", "m", "-", "Target head held along the final excavation level inside the pit"},
     {"stages[].pit_water_level", "number", "m", "the dig level", "Elevation of the water in the pit during the stage (a sump); the dug surface drains to it: water leaves where its pressure would be higher, none enters where it is lower"},
-    {"stages[].dig_level", "number", "m", "-", "Elevation the pit is dug to in this stage: the soil inside the walls above it is taken out at the stage's start and the forces it carried are released over the ramp"},
+    {"stages[].dig_level", "number", "m", "-", "Elevation the pit is dug to in this stage: the soil inside the walls (a user's mesh: of mesh_file.excavation_regions) above it is taken out at the stage's start and the forces it carried are released over the ramp"},
     {"stages[].loads[].boundary", "string", "", "\"ground_surface\"", "Boundary that carries the load"},
     {"stages[].loads[].pressure", "number", "kPa", "required", "Vertical surcharge (compressive positive)"},
     {"stages[].loads[].x_from", "number", "m", "required", "Start of the loaded strip"},

@@ -2,6 +2,7 @@
 #include "parse_parts.h"
 #include "settlewell/core/files.h"
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -202,7 +203,32 @@ Box read_box(const TableReader& r, const Scenario& s) {
   return box;
 }
 
-MeshFile read_mesh_file(const TableReader& r, const Scenario& s) {
+/// mesh_file.excavation_regions: distinct, non-empty names, each one's position kept
+/// for the check against the mesh (model_builder.cc).
+std::vector<std::string> read_excavation_regions(const TableReader& r, Scenario& s) {
+  std::vector<std::string> names;
+  const toml::array* array = r.array("excavation_regions");
+  if (array == nullptr)
+    return names;
+  for (const auto& node : *array) {
+    const std::string where = position(r.file(), node);
+    auto fail = [&](const std::string& message) {
+      throw InputError(where + ": mesh_file.excavation_regions: " + message);
+    };
+    if (!node.is_string())
+      fail("each entry must be a region name (a string)");
+    const std::string name = node.as_string()->get();
+    if (name.empty())
+      fail("a region name is empty");
+    if (std::find(names.begin(), names.end(), name) != names.end())
+      fail("the region '" + name + "' is named twice");
+    names.push_back(name);
+    s.locations["mesh_file.excavation_regions." + name] = where;
+  }
+  return names;
+}
+
+MeshFile read_mesh_file(const TableReader& r, Scenario& s) {
   MeshFile m;
   m.path = r.text("path");
   const std::filesystem::path relative(m.path);
@@ -221,6 +247,7 @@ MeshFile read_mesh_file(const TableReader& r, const Scenario& s) {
       m.region_materials[region] = material;
     }
   }
+  m.excavation_regions = read_excavation_regions(r, s);
   return m;
 }
 

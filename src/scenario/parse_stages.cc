@@ -52,7 +52,42 @@ TimeSteps read_time_steps(const TableReader& stage, double duration) {
   return steps;
 }
 
-void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
+/// A stage may dig in a section, or in a mesh file that names the regions a dig
+/// takes out; otherwise `key` is refused, naming what is missing.
+void require_pit(const TableReader& r, const Scenario& s, const std::string& key) {
+  if (s.section || (s.mesh_file && !s.mesh_file->excavation_regions.empty()))
+    return;
+  r.fail(key, s.mesh_file ? "needs mesh_file.excavation_regions (the regions of the "
+                            "mesh a dig takes out)"
+                          : "needs a [section] geometry, or a [mesh_file] with "
+                            "excavation_regions");
+}
+
+/// The dig level of a stage: below the earlier ones (and, in a section, below the
+/// ground surface and not below the final excavation level). A mesh file's levels
+/// are checked against its excavation regions when the mesh is read.
+void read_dig_level(const TableReader& r, Scenario& s, Stage& stage) {
+  require_pit(r, s, "dig_level");
+  stage.dig_level = r.number("dig_level");
+  std::optional<double> deepest;
+  if (s.section)
+    deepest = s.section->ground_surface;
+  for (const auto& earlier : s.stages)
+    if (earlier.dig_level)
+      deepest = std::min(deepest.value_or(*earlier.dig_level), *earlier.dig_level);
+  if (deepest && !(*stage.dig_level < *deepest))
+    r.fail("dig_level", std::string("must lie below ") +
+                            (s.section ? "the ground surface and below " : "") +
+                            "the dig levels of the stages before (" +
+                            format_number(*deepest) + " m)");
+  if (s.section && *stage.dig_level < s.section->excavation_level() - 1e-9)
+    r.fail("dig_level", "lies below the final excavation level (" +
+                            format_number(s.section->excavation_level()) +
+                            " m, section.excavation_depth)");
+  s.locations["stages." + stage.name + ".dig_level"] = r.where("dig_level");
+}
+
+void read_stage_changes(const TableReader& r, Scenario& s, Stage& stage) {
   for_each_named(r, "wells", [&](const std::string& name, const TableReader& w) {
     if (!well_exists(s, name))
       throw InputError(w.where("head") + ": " + w.label() + ": no well named '" + name +
@@ -62,30 +97,14 @@ void read_stage_changes(const TableReader& r, const Scenario& s, Stage& stage) {
   for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
     stage.boundary_heads[name] = b.elevation("head");
   });
-  if (r.has("dig_level")) {
-    if (!s.section)
-      r.fail("dig_level", "needs a [section] geometry");
-    stage.dig_level = r.number("dig_level");
-    const double previous = s.section->ground_surface;
-    double deepest = previous;
-    for (const auto& earlier : s.stages)
-      if (earlier.dig_level)
-        deepest = std::min(deepest, *earlier.dig_level);
-    if (!(*stage.dig_level < deepest))
-      r.fail("dig_level", "must lie below the ground surface and below the dig levels "
-                          "of the stages before (" +
-                              format_number(deepest) + " m)");
-    if (*stage.dig_level < s.section->excavation_level() - 1e-9)
-      r.fail("dig_level", "lies below the final excavation level (" +
-                              format_number(s.section->excavation_level()) +
-                              " m, section.excavation_depth)");
-  }
+  if (r.has("dig_level"))
+    read_dig_level(r, s, stage);
   if (r.has("pit_water_level")) {
-    if (!s.section)
-      r.fail("pit_water_level", "needs a [section] geometry");
+    require_pit(r, s, "pit_water_level");
     stage.pit_water_level = r.elevation("pit_water_level");
-    if (*stage.pit_water_level > s.section->ground_surface)
+    if (s.section && *stage.pit_water_level > s.section->ground_surface)
       r.fail("pit_water_level", "lies above the ground surface");
+    s.locations["stages." + stage.name + ".pit_water_level"] = r.where("pit_water_level");
   }
   if (r.has("excavation_level_head")) {
     if (!s.section)

@@ -94,6 +94,8 @@ struct Box {
 struct MeshFile {
   std::string path;
   std::map<std::string, std::string> region_materials; ///< region -> material
+  /// Regions a stage's dig_level takes out (their cells above it), in the order given.
+  std::vector<std::string> excavation_regions;
 };
 
 struct Groundwater {
