@@ -87,7 +87,8 @@ value_and_slope(const std::vector<std::pair<double, double>>& knots, double y) {
 } // namespace
 
 InitialState::InitialState(const scenario::Scenario& s, const Mesh& mesh)
-    : gamma_w_(s.gamma_w) {
+    : gamma_w_(s.gamma_w)
+    , gravity_loading_(s.gravity_loading) {
   const auto regions = region_materials(s, mesh);
   for (const auto& [region, material] : regions) {
     const auto id = mesh.names.region_id(region);
@@ -151,12 +152,17 @@ SymmetricTensor<2, 3> InitialState::effective_stress(const Point<2>& x,
   return sigma;
 }
 
+SymmetricTensor<2, 3>
+InitialState::start_effective_stress(const Point<2>& x, types::material_id region) const {
+  return gravity_loading_ ? SymmetricTensor<2, 3>() : effective_stress(x, region);
+}
+
 InitialFields InitialState::fields() const {
   InitialFields f;
   f.head = [this](const Point<2>& x) { return head(x); };
   f.head_gradient = [this](const Point<2>& x) { return head_gradient(x); };
   f.effective_stress = [this](const Point<2>& x, types::material_id r) {
-    return effective_stress(x, r);
+    return start_effective_stress(x, r);
   };
   return f;
 }

@@ -517,8 +517,9 @@ Model build_model(const Scenario& s,
     setup.geostatic.unit_weights[region] = s.materials.at(material).unit_weight;
   }
   setup.geostatic.effective_stress = [&initial](const Point<2>& x, types::material_id r) {
-    return initial.effective_stress(x, r);
+    return initial.start_effective_stress(x, r);
   };
+  setup.gravity_loading = s.gravity_loading;
   setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
   setup.solver = s.numerics.solver;
   setup.solver_tolerance = s.numerics.tolerance;

@@ -79,7 +79,7 @@ Extremes::Extremes(const RunContext& run) {
 double Extremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) {
   double value = 0.0;
   for (const auto d : dofs)
-    value = std::max(value, factor * problem.solution()[d]);
+    value = std::max(value, factor * problem.reported_solution()[d]);
   return Utilities::MPI::max(value, problem.communicator());
 }
 
@@ -94,7 +94,7 @@ double Extremes::floor_heave_now(const BiotProblem& problem) const {
     cell->get_dof_indices(dofs);
     for (unsigned int i = 0; i < dofs.size(); ++i)
       if (fe.system_to_component_index(i).first == FieldLayout::uy)
-        heave = std::max(heave, double(problem.solution()[dofs[i]]));
+        heave = std::max(heave, double(problem.reported_solution()[dofs[i]]));
   }
   return Utilities::MPI::max(heave, problem.communicator());
 }

@@ -38,7 +38,7 @@ Plausibility::Plausibility(const RunContext& run)
     , limit_(0.05 * height_) {}
 
 std::vector<double> Plausibility::after_step(const RunView& view) {
-  const auto& u = view.run.problem.solution();
+  const auto& u = view.run.problem.reported_solution();
   double largest = 0.0;
   for (const auto i : displacement_dofs_)
     largest = std::max(largest, std::abs(double(u(i))));

@@ -19,10 +19,51 @@ using namespace dealii;
 namespace {
 
 /// Fields derived point by point from the primary unknowns (see DerivedState).
+/// The movements (settlement, volumetric strain) come from the displacement
+/// reported, the state (heads, pressures, stresses, flow) from the solution: when
+/// displacements are reported from a reference the two are different vectors, each
+/// with its own instance.
 class DerivedFields : public DataPostprocessor<2> {
 public:
-  explicit DerivedFields(const Derivation& derivation)
-      : derivation_(derivation) {}
+  enum class Part { all, movement, state };
+  DerivedFields(const Derivation& derivation, Part part)
+      : derivation_(derivation) {
+    using namespace DataComponentInterpretation;
+    const std::vector<Field> fields{
+        {"settlement", true, component_is_scalar,
+         [](const DerivedState& d) { return d.settlement; }},
+        {"hydraulic_head", false, component_is_scalar,
+         [](const DerivedState& d) { return d.head; }},
+        {"drawdown", false, component_is_scalar,
+         [](const DerivedState& d) { return d.drawdown; }},
+        {"pore_pressure", false, component_is_scalar,
+         [](const DerivedState& d) { return d.pore_pressure; }},
+        {"mean_effective_stress", false, component_is_scalar,
+         [](const DerivedState& d) { return d.mean_effective_stress; }},
+        {"deviator_stress", false, component_is_scalar,
+         [](const DerivedState& d) { return d.deviator_stress; }},
+        {"vertical_effective_stress", false, component_is_scalar,
+         [](const DerivedState& d) { return d.vertical_effective_stress; }},
+        {"volumetric_strain", true, component_is_scalar,
+         [](const DerivedState& d) { return d.volumetric_strain; }},
+        {"effective_stress_out_of_plane", false, component_is_scalar,
+         [](const DerivedState& d) { return d.effective_stress[2][2]; }},
+        {"darcy_flux", false, component_is_part_of_vector,
+         [](const DerivedState& d) { return d.darcy_flux[0]; }},
+        {"darcy_flux", false, component_is_part_of_vector,
+         [](const DerivedState& d) { return d.darcy_flux[1]; }},
+        {"effective_stress", false, component_is_part_of_tensor,
+         [](const DerivedState& d) { return d.effective_stress[0][0]; }},
+        {"effective_stress", false, component_is_part_of_tensor,
+         [](const DerivedState& d) { return d.effective_stress[0][1]; }},
+        {"effective_stress", false, component_is_part_of_tensor,
+         [](const DerivedState& d) { return d.effective_stress[0][1]; }},
+        {"effective_stress", false, component_is_part_of_tensor,
+         [](const DerivedState& d) { return d.effective_stress[1][1]; }}};
+    for (const auto& f : fields)
+      if (part == Part::all || (part == Part::movement) == f.movement)
+        fields_.push_back(f);
+  }
 
   void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
                              std::vector<Vector<double>>& out) const override {
@@ -31,49 +72,21 @@ public:
       const DerivedState d =
           derivation_.at(in.evaluation_points[q], cell->material_id(),
                          in.solution_values[q], in.solution_gradients[q]);
-      const std::vector<double> values{d.settlement,
-                                       d.head,
-                                       d.drawdown,
-                                       d.pore_pressure,
-                                       d.mean_effective_stress,
-                                       d.deviator_stress,
-                                       d.vertical_effective_stress,
-                                       d.volumetric_strain,
-                                       d.effective_stress[2][2],
-                                       d.darcy_flux[0],
-                                       d.darcy_flux[1],
-                                       d.effective_stress[0][0],
-                                       d.effective_stress[0][1],
-                                       d.effective_stress[0][1],
-                                       d.effective_stress[1][1]};
-      for (unsigned int c = 0; c < values.size(); ++c)
-        out[q][c] = values[c];
+      for (unsigned int c = 0; c < fields_.size(); ++c)
+        out[q][c] = fields_[c].value(d);
     }
   }
   std::vector<std::string> get_names() const override {
-    return {"settlement",
-            "hydraulic_head",
-            "drawdown",
-            "pore_pressure",
-            "mean_effective_stress",
-            "deviator_stress",
-            "vertical_effective_stress",
-            "volumetric_strain",
-            "effective_stress_out_of_plane",
-            "darcy_flux",
-            "darcy_flux",
-            "effective_stress",
-            "effective_stress",
-            "effective_stress",
-            "effective_stress"};
+    std::vector<std::string> names;
+    for (const auto& f : fields_)
+      names.push_back(f.name);
+    return names;
   }
   std::vector<DataComponentInterpretation::DataComponentInterpretation>
   get_data_component_interpretation() const override {
-    using namespace DataComponentInterpretation;
-    std::vector<dealii::DataComponentInterpretation::DataComponentInterpretation> kinds(
-        9, component_is_scalar);
-    kinds.insert(kinds.end(), 2, component_is_part_of_vector);
-    kinds.insert(kinds.end(), 4, component_is_part_of_tensor);
+    std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds;
+    for (const auto& f : fields_)
+      kinds.push_back(f.kind);
     return kinds;
   }
   UpdateFlags get_needed_update_flags() const override {
@@ -81,7 +94,14 @@ public:
   }
 
 private:
+  struct Field {
+    std::string name;
+    bool movement;
+    DataComponentInterpretation::DataComponentInterpretation kind;
+    double (*value)(const DerivedState&);
+  };
   const Derivation& derivation_;
+  std::vector<Field> fields_;
 };
 
 } // namespace
@@ -116,11 +136,17 @@ std::string FieldWriter::write(const BiotProblem& problem) {
       DataComponentInterpretation::component_is_part_of_vector,
       DataComponentInterpretation::component_is_part_of_vector,
       DataComponentInterpretation::component_is_scalar};
-  data_out.add_data_vector(problem.solution(), names, DataOut<2>::type_dof_data, kinds);
+  const auto& moved = problem.reported_solution();
+  data_out.add_data_vector(moved, names, DataOut<2>::type_dof_data, kinds);
   const Derivation derivation(
       problem, initial_ ? *initial_ : InitialFields::from_setup(problem.setup()));
-  const DerivedFields derived(derivation);
-  data_out.add_data_vector(problem.solution(), derived);
+  using Part = DerivedFields::Part;
+  const bool one_vector = &moved == &problem.solution();
+  const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement),
+      state(derivation, Part::state);
+  data_out.add_data_vector(moved, movement);
+  if (!one_vector)
+    data_out.add_data_vector(problem.solution(), state);
 
   const auto& tria = problem.dof_handler().get_triangulation();
   Vector<float> region(tria.n_active_cells());

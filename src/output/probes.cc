@@ -17,7 +17,8 @@ PointValues probe(const BiotProblem& problem, const Point<2>& x) {
   // of the (continuous) fields of its cells.
   Utilities::MPI::RemotePointEvaluation<2> evaluation;
   const auto values = VectorTools::point_values<FieldLayout::n_components>(
-      problem.mapping(), problem.dof_handler(), problem.solution(), {x}, evaluation);
+      problem.mapping(), problem.dof_handler(), problem.reported_solution(), {x},
+      evaluation);
   if (!evaluation.all_points_found()) {
     std::ostringstream os;
     os << "point (" << x[0] << ", " << x[1] << ") m lies outside the mesh";

@@ -65,6 +65,9 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     map_unit_weights();
   if (!setup.excavation.empty())
     prepare_excavation();
+  if (setup.gravity_loading && !setup.geostatic.effective_stress)
+    throw InternalError("gravity loading needs the unit weights of the geostatic state");
+  settled = !setup.gravity_loading;
   setup_dofs();
   choose_solver();
 }
@@ -286,6 +289,8 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     const CellCoefficients& c = coefficients[cell->material_id()];
     cell_rhs = 0.0;
     add_old_state_and_fluxes(kernel, cell, t_new, dt, cell_rhs);
+    if (setup.gravity_loading)
+      add_start_imbalance(kernel, cell, cell_rhs);
     const Tensor<1, 2> b = conditions.body_force(cell->material_id(), t_new);
     if (b.norm() > 0.0)
       kernel.add_body_force(b, cell_rhs);
@@ -316,6 +321,8 @@ StepReport BiotProblem::advance_to(double t_new) {
     throw InternalError(
         "time steps must move forward (from t = " + std::to_string(m.time) + " s to " +
         std::to_string(t_new) + " s)");
+  if (!m.settled)
+    throw InternalError("a gravity-loading start must be settled before the first step");
   StepReport report;
   report.time = t_new;
   report.dt = dt;
@@ -339,6 +346,7 @@ StepReport BiotProblem::advance_to(double t_new) {
     }
   }
   m.time = t_new;
+  m.update_reported();
   return report;
 }
 

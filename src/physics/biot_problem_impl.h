@@ -76,6 +76,20 @@ struct BiotProblem::Impl {
                       Vector<double>& cell_rhs) const;
   bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
 
+  // The start in equilibrium and the reported displacement (initial_equilibrium.cc).
+  /// Adds a cell's out-of-balance force in the start state (the geostatic effective
+  /// stress, the initial pore pressure and the unit weight) to `out`'s
+  /// displacement rows.
+  void add_start_imbalance(CellKernel& kernel,
+                           const DoFHandler<2>::active_cell_iterator& cell,
+                           Vector<double>& out) const;
+  /// Recomputes `reported` from the solution and the reference (if any).
+  void update_reported();
+  bool settled = false;       ///< the gravity-loading solve is done (or not needed)
+  bool has_reference = false; ///< displacements are reported from `reference`
+  LA::MPI::Vector reference;  ///< owned; displacement dofs only
+  LA::MPI::Vector reported;   ///< solution - reference, with ghosts
+
   // Excavation (excavation.cc).
   /// Unit weights by region id from the geostatic state (constructor).
   void map_unit_weights();

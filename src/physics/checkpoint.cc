@@ -2,7 +2,8 @@
 // deal.II's distributed serialisation (the triangulation's save and load with
 // SolutionTransfer and CellDataTransfer), so that a run may resume on another
 // number of processes: the solution, the drained surface's active set (as a dof
-// vector of flags) and, per dug cell, the forces it released. The few global
+// vector of flags), the displacement reported movements start from and, per dug
+// cell, the forces it released. The few global
 // values go into the run's state archive. Everything else (matrix, factorisation,
 // constraints) is rebuilt by the first step after loading.
 #include "biot_problem_impl.h"
@@ -38,7 +39,8 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   double time = m.time;
   std::vector<bool> excavated = m.excavated;
   std::vector<double> fitted = m.spring_fitted_at;
-  a& time& excavated& fitted;
+  bool settled = m.settled, has_reference = m.has_reference;
+  a& time& excavated& fitted& settled& has_reference;
 
   LA::MPI::Vector owned_flags(m.owned, m.comm);
   for (const auto d : m.draining)
@@ -47,9 +49,12 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   owned_flags.compress(VectorOperation::insert);
   LA::MPI::Vector flags(m.owned, m.relevant, m.comm);
   flags = owned_flags;
+  LA::MPI::Vector reference(m.owned, m.relevant, m.comm);
+  if (m.has_reference)
+    reference = m.reference;
   DofTransfer dofs(m.dof_handler);
   dofs.prepare_for_serialization(
-      std::vector<const LA::MPI::Vector*>{&m.solution, &flags});
+      std::vector<const LA::MPI::Vector*>{&m.solution, &flags, &reference});
 
   const auto& tria = triangulation_of(m.mesh);
   CellValues released(tria.n_active_cells());
@@ -68,18 +73,24 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
 void BiotProblem::load_checkpoint(StateArchive& a) {
   Impl& m = *impl_;
   a.mark("biot problem");
-  a& m.time& m.excavated& m.spring_fitted_at;
+  a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference;
   if (m.excavated.size() != m.setup.excavation.size() ||
       m.spring_fitted_at.size() != m.setup.springs.size())
     throw InputError("the checkpoint's digging or props do not match the scenario's");
 
-  LA::MPI::Vector solution(m.owned, m.comm), owned_flags(m.owned, m.comm);
+  LA::MPI::Vector solution(m.owned, m.comm), owned_flags(m.owned, m.comm),
+      reference(m.owned, m.comm);
   DofTransfer dofs(m.dof_handler);
-  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags};
+  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags, &reference};
   dofs.deserialize(vectors);
   m.owned_solution = solution;
   m.solution = solution;
   m.old_solution = m.solution;
+  if (m.has_reference) {
+    m.reference.reinit(m.owned, m.comm);
+    m.reference = reference;
+    m.update_reported();
+  }
 
   const auto& tria = triangulation_of(m.mesh);
   CellValues released(tria.n_active_cells());

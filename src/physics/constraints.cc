@@ -218,10 +218,11 @@ std::vector<bool> active_pressures(const ResolvedConditions& conditions, double 
   return active;
 }
 
-void make_constraints(const ConstraintInputs& in,
-                      double t,
-                      AffineConstraints<double>& constraints,
-                      bool with_pressures) {
+namespace {
+
+/// Starts `constraints` afresh with those that never change.
+void start_constraints(const ConstraintInputs& in,
+                       AffineConstraints<double>& constraints) {
   constraints.clear();
   constraints.reinit(in.locally_relevant);
   DoFTools::make_hanging_node_constraints(in.dof_handler, constraints);
@@ -231,6 +232,32 @@ void make_constraints(const ConstraintInputs& in,
   if (in.plate)
     add_plate(in, constraints);
   add_deactivated(in, constraints);
+}
+
+} // namespace
+
+void make_drained_constraints(const ConstraintInputs& in,
+                              AffineConstraints<double>& constraints) {
+  start_constraints(in, constraints);
+  const auto& fe = in.dof_handler.get_fe();
+  std::vector<types::global_dof_index> dofs(fe.n_dofs_per_cell());
+  for (const auto& cell : in.dof_handler.active_cell_iterators()) {
+    if (cell->is_artificial())
+      continue;
+    cell->get_dof_indices(dofs);
+    for (unsigned int i = 0; i < dofs.size(); ++i)
+      if (!in.layout.is_displacement(fe.system_to_component_index(i).first) &&
+          !constraints.is_constrained(dofs[i]))
+        constraints.add_line(dofs[i]);
+  }
+  constraints.close();
+}
+
+void make_constraints(const ConstraintInputs& in,
+                      double t,
+                      AffineConstraints<double>& constraints,
+                      bool with_pressures) {
+  start_constraints(in, constraints);
   if (with_pressures) {
     add_pressures(in, t, constraints);
     for (const auto& [dof, value] : in.drained)

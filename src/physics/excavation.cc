@@ -56,13 +56,7 @@ bool BiotProblem::Impl::excavate(double t) {
     cell->get_dof_indices(r.dofs);
     kernel.reinit(cell);
     const CellCoefficients& c = coefficients[cell->material_id()];
-    kernel.add_geostatic_imbalance(
-        c, unit_weights.at(cell->material_id()),
-        [&](const Point<2>& x) {
-          return setup.geostatic.effective_stress(x, cell->material_id());
-        },
-        [&](const Point<2>& x) { return setup.gamma_w * (setup.initial_head(x) - x[1]); },
-        r.geostatic);
+    add_start_imbalance(kernel, cell, r.geostatic);
     // The rows of the displacement equations do not depend on dt.
     cell_matrix = 0.0;
     kernel.add_matrix(c, 1.0, cell_matrix);
@@ -83,7 +77,10 @@ void BiotProblem::Impl::add_release_loads(double t, LA::MPI::Vector& target) con
   for (const auto& r : released) {
     const double lambda = release_fraction(setup.excavation[r.event], t);
     load = r.carried;
-    load.sadd(-(1.0 - lambda), -lambda, r.geostatic);
+    // With gravity loading the right-hand side keeps every cell's start imbalance
+    // H (initial_equilibrium.cc), which releases the dug cell's H already.
+    load.sadd(-(1.0 - lambda), setup.gravity_loading ? 1.0 - lambda : -lambda,
+              r.geostatic);
     constraints.distribute_local_to_global(load, r.dofs, target);
   }
 }
@@ -134,8 +131,10 @@ BiotProblem::OutOfBalance BiotProblem::geostatic_out_of_balance() const {
   // force: the summed imbalance; released: the size of what the dug cells carry.
   LA::MPI::Vector force(m.owned, m.comm), released(m.owned, m.comm);
   CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
-  Vector<double> local(kernel.dofs_per_cell());
-  std::vector<types::global_dof_index> dofs(kernel.dofs_per_cell());
+  const unsigned int n = kernel.dofs_per_cell();
+  Vector<double> local(n), state(n), internal(n);
+  FullMatrix<double> cell_matrix(n, n);
+  std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : m.dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !m.in_model(cell))
       continue;
@@ -143,13 +142,15 @@ BiotProblem::OutOfBalance BiotProblem::geostatic_out_of_balance() const {
     cell->get_dof_indices(dofs);
     const auto region = cell->material_id();
     local = 0.0;
-    kernel.add_geostatic_imbalance(
-        m.coefficients[region], m.unit_weights.at(region),
-        [&](const Point<2>& x) { return m.setup.geostatic.effective_stress(x, region); },
-        [&](const Point<2>& x) {
-          return m.setup.gamma_w * (m.setup.initial_head(x) - x[1]);
-        },
-        local);
+    m.add_start_imbalance(kernel, cell, local);
+    // Less the internal force of the displacement now (that of gravity loading).
+    cell_matrix = 0.0;
+    kernel.add_matrix(m.coefficients[region], 1.0, cell_matrix);
+    cell->get_dof_values(m.solution, state);
+    cell_matrix.vmult(internal, state);
+    for (unsigned int i = 0; i < local.size(); ++i)
+      if (m.layout.is_displacement(m.layout.fe.system_to_component_index(i).first))
+        local(i) -= internal(i);
     m.constraints.distribute_local_to_global(local, dofs, force);
     if (removal_tag(m.setup.excavation, cell->center(), region) > 0.0) {
       for (auto& v : local)

@@ -499,7 +499,25 @@ void views_section(Document& d, const std::string& run) {
   s.image("plots/histories.png", "Drawdown and settlement at the monitoring points");
 }
 
-void limits_section(Document& d) {
+/// How the run started and where its movements are measured from.
+std::string start_text(const toml::table& r) {
+  const auto start = r["initial_state"];
+  std::string line =
+      text(start["method"]) == "gravity"
+          ? "Initial heads hydrostatic below the water table or as given per layer; "
+            "geostatic stress from a drained gravity-loading solve with the saturated "
+            "unit weights (its movement is not reported)."
+          : "Initial heads hydrostatic below the water table or as given per layer; "
+            "geostatic stress from the saturated unit weights and K0, taken as in "
+            "equilibrium.";
+  if (const auto stage = start["displacements_from_stage"].value<std::string>())
+    line += " Displacements, settlements and strains are reported from the start of "
+            "stage '" +
+            *stage + "' (before it, from the start of the analysis).";
+  return line;
+}
+
+void limits_section(Document& d, const toml::table& r) {
   d.add("Assumptions and limits")
       .list(
           {"Quasi-static Biot consolidation, Taylor-Hood elements, implicit Euler in "
@@ -507,8 +525,7 @@ void limits_section(Document& d) {
            "verified against published solutions (settlewell verify).",
            "Conductivity is often uncertain by an order of magnitude; run bounding "
            "cases.",
-           "Initial heads hydrostatic below the water table or as given per layer; "
-           "geostatic stress from the saturated unit weights and K0.",
+           start_text(r),
            "Base checks are screening factors of common practice, without the partial "
            "factors of a design code.",
            "Ground movements are greenfield: the buildings' stiffness is not modelled."})
@@ -549,7 +566,7 @@ void write_report(const std::string& run, std::ostream& log) {
   neighbours_section(d, r);
   columns_section(d, r);
   views_section(d, run);
-  limits_section(d);
+  limits_section(d, r);
   write_whole_file(run + "/report.html",
                    [&](std::ostream& out) { out << to_html(d, run); });
   write_whole_file(run + "/report.md", [&](std::ostream& out) { out << to_markdown(d); });

@@ -148,8 +148,12 @@ struct Simulation::Impl {
                         CsvFile& steps);
   void start(const monitors::RunView& view);
   void step(const monitors::RunView& view, CsvFile& steps);
+  void settle_under_gravity(bool show_progress);
   void check_initial_balance();
-  void add_initial_balance(toml::table& results) const;
+  void add_initial_state(toml::table& results) const;
+  /// Before the step from time(): at the start of the stage displacements are
+  /// reported from, that is where they start.
+  void reference_displacements();
 
   scenario::Scenario scenario;
   MPI_Comm comm;
@@ -163,7 +167,9 @@ struct Simulation::Impl {
   std::vector<std::unique_ptr<monitors::Monitor>> monitors;
   TimerOutput timer; ///< wall time of the parts of a run, for the manifest
   std::optional<BiotProblem::OutOfBalance> initial_balance; ///< when digging
-  std::string checkpoint; ///< to resume from; empty for a new run
+  std::optional<double> gravity_movement; ///< m: the largest of the gravity loading
+  std::optional<double> reference_start;  ///< s: start of output.displacements_from
+  std::string checkpoint;                 ///< to resume from; empty for a new run
 };
 
 Simulation::Impl::Impl(scenario::Scenario s,
@@ -188,6 +194,9 @@ Simulation::Impl::Impl(scenario::Scenario s,
   context = std::make_unique<monitors::RunContext>(
       monitors::RunContext{scenario, schedule, model, initial, *problem, *derivation});
   monitors = monitors::make_monitors(*context);
+  for (std::size_t k = 0; k < scenario.stages.size(); ++k)
+    if (scenario.stages[k].name == scenario.output.displacements_from)
+      reference_start = schedule.stages()[k].start;
 }
 
 void Simulation::Impl::prepare_folder(const RunOptions& options) const {
@@ -223,6 +232,31 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
       m->at_output_time(view);
 }
 
+// A gravity-loading start: its solve balances the start state; its movement is the
+// origin of the reported displacements, and its size is said once.
+void Simulation::Impl::settle_under_gravity(bool show_progress) {
+  if (!model.setup.gravity_loading)
+    return;
+  TimerOutput::Scope part(timer, "time steps (assembly and solve)");
+  const StepReport r = problem->settle_under_gravity();
+  LA::MPI::Vector u(problem->dof_handler().locally_owned_dofs(), comm);
+  u = problem->solution(); // the excess pore pressure is held at zero
+  gravity_movement = u.linfty_norm();
+  if (is_root(comm) && show_progress)
+    std::cerr << "settlewell: gravity loading balanced the start state ("
+              << std::setprecision(2)
+              << r.assembly_seconds + r.factorisation_seconds + r.solve_seconds
+              << " s); its largest movement, " << std::setprecision(3)
+              << *gravity_movement << " m, is not reported\n"
+              << std::setprecision(6);
+}
+
+void Simulation::Impl::reference_displacements() {
+  const double t = problem->time();
+  if (reference_start && std::abs(t - *reference_start) <= 1e-9 * (1.0 + t))
+    problem->set_displacement_reference();
+}
+
 // Digging releases the geostatic stress, so a geostatic state far from equilibrium
 // (a wall, sloping layers with their own K0) moves the ground at the first lift for
 // reasons that are not the dig. Say so, with the size, rather than hide it.
@@ -239,18 +273,23 @@ void Simulation::Impl::check_initial_balance() {
               << " % of the force digging releases (up to " << b.largest
               << " kN/m at a node, from K0 or unit weight that differ across the "
                  "wall face); the movements the digging causes carry that as an "
-                 "error\n"
+                 "error (initial_state.method = \"gravity\" starts in balance)\n"
               << std::setprecision(6);
 }
 
-void Simulation::Impl::add_initial_balance(toml::table& results) const {
-  if (!initial_balance)
-    return;
-  const auto& b = *initial_balance;
-  results.insert_or_assign("initial_state",
-                           toml::table{{"largest_out_of_balance_kN_per_m", b.largest},
-                                       {"summed_out_of_balance_kN_per_m", b.summed},
-                                       {"summed_released_force_kN_per_m", b.released}});
+void Simulation::Impl::add_initial_state(toml::table& results) const {
+  toml::table t{{"method", model.setup.gravity_loading ? "gravity" : "k0"}};
+  if (gravity_movement)
+    t.insert("gravity_loading_largest_movement_m", *gravity_movement);
+  if (!scenario.output.displacements_from.empty())
+    t.insert("displacements_from_stage", scenario.output.displacements_from);
+  if (initial_balance) {
+    const auto& b = *initial_balance;
+    t.insert("largest_out_of_balance_kN_per_m", b.largest);
+    t.insert("summed_out_of_balance_kN_per_m", b.summed);
+    t.insert("summed_released_force_kN_per_m", b.released);
+  }
+  results.insert_or_assign("initial_state", std::move(t));
 }
 
 Simulation::Simulation(scenario::Scenario scenario, MPI_Comm comm)
@@ -303,6 +342,7 @@ CheckpointHeader Simulation::Impl::new_header() const {
 }
 
 RunSummary Simulation::Impl::run(const RunOptions& options) {
+  settle_under_gravity(options.show_progress);
   check_initial_balance();
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*context, options.run_directory, report, 0};
@@ -327,7 +367,7 @@ RunSummary Simulation::Impl::resume(const RunOptions& options) {
   for (auto& m : monitors)
     m->visit_state(a);
   CsvFile steps;
-  a& steps& initial_balance;
+  a& steps& initial_balance& gravity_movement;
   write_folder_state(options.run_directory, FolderKind::run, "running", "", comm);
   if (is_root(comm) && options.show_progress)
     std::cerr << "settlewell: resuming " << options.run_directory << " after step "
@@ -355,7 +395,7 @@ void Simulation::Impl::write_checkpoint(const std::string& dir,
   problem->save_checkpoint(a, partial + "/mesh");
   for (auto& m : monitors)
     m->visit_state(a);
-  a& steps& initial_balance;
+  a& steps& initial_balance& gravity_movement;
   // At every moment `checkpoint` or `checkpoint.old` holds a complete checkpoint.
   on_root(comm, [&] {
     write_whole_file(partial + "/state.bin",
@@ -385,6 +425,7 @@ RunSummary Simulation::Impl::run_steps(const RunOptions& options,
   for (std::size_t n = header.step; n < times.size(); ++n) {
     {
       TimerOutput::Scope part(m.timer, "time steps (assembly and solve)");
+      m.reference_displacements();
       report = m.problem->advance_to(times[n]);
     }
     check_finite(*m.problem, n + 1);
@@ -428,7 +469,7 @@ RunSummary Simulation::Impl::run_steps(const RunOptions& options,
     for (auto& monitor : m.monitors)
       monitor->finish(view, results);
   }
-  m.add_initial_balance(results);
+  m.add_initial_state(results);
   read_summary(results, summary);
   if (is_root(m.comm))
     write_whole_file(dir + "/results.toml",

@@ -94,6 +94,14 @@ std::vector<std::string> geometry_lines(const Scenario& s) {
   for (const auto& [layer, head] : s.groundwater.layer_heads)
     gw << "; head " << head << " m in " << layer;
   lines.push_back(gw.str());
+  lines.push_back(s.gravity_loading
+                      ? "Initial stress: a drained gravity-loading solve (its movement "
+                        "is not reported)"
+                      : "Initial stress: each material's K0 state, taken as in "
+                        "equilibrium");
+  if (!s.output.displacements_from.empty())
+    lines.push_back("Displacements reported from the start of stage '" +
+                    s.output.displacements_from + "'");
   return lines;
 }
 

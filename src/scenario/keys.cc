@@ -88,6 +88,7 @@ const std::vector<KeySpec>& all_keys() {
 
     {"groundwater.water_table", "number", "m", "required", "Initial water-table elevation (hydrostatic below, saturated above)"},
     {"groundwater.layer_heads.<name>", "number", "m", "-", "Initial piezometric head in a layer (artesian aquifers); layers between given ones take a linear head"},
+    {"initial_state.method", "string", "", "\"k0\"", "k0: the geostatic state with each material's earth_pressure_at_rest is the equilibrium of the start; gravity: a drained gravity-loading solve at t = 0 finds the start's stresses from the unit weights (K0 = nu/(1 - nu) in level ground), balanced also beside walls and under sloping layers; its movement is not reported"},
 
     {"boundaries.<name>.hydraulic", "string", "", "depends on the boundary", "no_flow or fixed_head"},
     {"boundaries.<name>.head", "number", "m", "the initial head", "Head held on a fixed_head boundary"},
@@ -112,6 +113,7 @@ const std::vector<KeySpec>& all_keys() {
 
     {"output.times", "array of numbers", "days", "[]", "Extra output times"},
     {"output.per_stage", "integer", "", "4", "Output times inside each stage, log-spaced (stage ends are always written)"},
+    {"output.displacements_from", "string", "", "the start", "Name of the stage from whose start displacements, settlements and strains are reported (before it, from the start of the analysis); e.g. to zero the movement of a wall's installation"},
     {"output.points[].name", "string", "", "required", "Monitoring point name"},
     {"output.points[].x", "number", "m", "required", "x of the point"},
     {"output.points[].y", "number", "m", "required", "Elevation of the point"},

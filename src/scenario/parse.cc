@@ -135,6 +135,14 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
   }
 }
 
+void parse_initial_state(const TableReader& top, Scenario& s) {
+  const TableReader r = sub_table(top, "initial_state", "initial_state");
+  const std::string method = r.text("method");
+  if (method != "k0" && method != "gravity")
+    r.fail("method", "must be k0 or gravity (got '" + method + "')");
+  s.gravity_loading = method == "gravity";
+}
+
 void parse_boundaries(const TableReader& top, Scenario& s) {
   for_each_named(top, "boundaries", [&](const std::string& name, const TableReader& r) {
     BoundarySpec b;
@@ -183,6 +191,7 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_materials(top, s);
   parse_geometry(top, s);
   parse_groundwater(top, s);
+  parse_initial_state(top, s);
   parse_boundaries(top, s);
   parse_stages(top, s);
   parse_output(top, s);

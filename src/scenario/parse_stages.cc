@@ -2,7 +2,9 @@
 #include "parse_parts.h"
 
 #include "settlewell/core/units.h"
+#include "settlewell/scenario/keys.h"
 
+#include <algorithm>
 #include <cmath>
 #include <set>
 
@@ -240,6 +242,20 @@ void parse_output(const TableReader& top, Scenario& s) {
   if (per_stage < 0 || per_stage > 1000)
     r.fail("per_stage", "must lie in 0..1000");
   s.output.per_stage = static_cast<unsigned int>(per_stage);
+  if (r.has("displacements_from")) {
+    s.output.displacements_from = r.text("displacements_from");
+    std::vector<std::string> names;
+    for (const auto& stage : s.stages)
+      names.push_back(stage.name);
+    if (std::find(names.begin(), names.end(), s.output.displacements_from) ==
+        names.end()) {
+      const std::string suggestion = nearest(s.output.displacements_from, names);
+      r.fail("displacements_from",
+             "is not the name of a stage" +
+                 (suggestion.empty() ? std::string()
+                                     : "; did you mean '" + suggestion + "'?"));
+    }
+  }
   read_output_sites(r, s, s.output);
 }
 

@@ -19,10 +19,23 @@
 // surcharge leaves with the fill, so by superposition (linear elasticity) the final
 // drained movement is the fill's unloading alone. This checks that the stress the
 // removed cells carried at removal (not only their geostatic state) is released.
+//
+// A third run (the case gravity-start) starts the same column from a drained
+// gravity-loading solve instead of the K0 state. Level ground with its sides on
+// rollers is in 1D strain, so the solve gives sigma'_v = sigma_v - p0 (the column's
+// equilibrium with Terzaghi's effective stress) and sigma'_h = nu / (1 - nu)
+// sigma'_v (Hooke's law with no lateral strain: the elastic at-rest ratio, common
+// practice), the K0 state with K0 = nu / (1 - nu); its displacement is not
+// reported. Digging the fill then gives the same drained heave as from the K0
+// state (linearity), the stress that remains balances the weight of the soil left
+// above (equilibrium), and sigma'_h / sigma'_v stays nu / (1 - nu) (elastic from a
+// stress-free start).
 #include "settlewell/analytical/consolidation.h"
 #include "settlewell/mesh/axis_grading.h"
 #include "settlewell/mesh/box_mesh.h"
+#include "settlewell/output/derived.h"
 #include "settlewell/output/probes.h"
+#include "settlewell/output/samples.h"
 #include "settlewell/time/time_grid.h"
 #include "settlewell/verification/case_support.h"
 
@@ -114,6 +127,18 @@ BiotSetup column_setup(double dig_at, double release, double surcharge) {
   return setup;
 }
 
+/// The column started by gravity loading: no geostatic effective stress to begin
+/// with; the drained solve at t = 0 builds it.
+BiotSetup gravity_column_setup() {
+  BiotSetup setup = column_setup(0.0, 0.0, 0.0);
+  setup.geostatic.effective_stress = [](const dealii::Point<2>&,
+                                        dealii::types::material_id) {
+    return dealii::SymmetricTensor<2, 3>();
+  };
+  setup.gravity_loading = true;
+  return setup;
+}
+
 double heave(const BiotProblem& problem, double y) {
   return probe(problem, dealii::Point<2>(0.5, y)).uy;
 }
@@ -189,6 +214,99 @@ std::vector<CheckRow> run_excavation_column(const CaseSettings& settings, MPI_Co
       name, "drained heave of the formation, fill dug under a surcharge, m",
       surcharged_then_dug(mesh, time_of), sand_heave + clay_heave, drained_tolerance,
       "superposition (linear elasticity); delta sigma_v H / M per layer"));
+  return rows;
+}
+
+namespace {
+
+/// Effective stresses on the column's axis at `ys`. From a gravity-loading start
+/// the solution's strain holds all of the stress, so no initial state is added.
+std::vector<SampleValues> stresses_at(const BiotProblem& problem,
+                                      const std::vector<double>& ys) {
+  std::vector<dealii::Point<2>> points;
+  for (const double y : ys)
+    points.emplace_back(0.5, y);
+  const Derivation absolute(problem, InitialFields::from_setup(problem.setup()));
+  return SamplePoints(problem, points, "gravity-start").evaluate(problem, absolute);
+}
+
+/// Rows for sigma'_v against `vertical(y)` and sigma'_h against nu/(1 - nu) of it.
+void add_stress_rows(const std::string& name,
+                     const std::string& when,
+                     const std::vector<SampleValues>& values,
+                     const std::vector<std::pair<std::string, double>>& places,
+                     const std::function<double(double)>& vertical,
+                     double tolerance,
+                     std::vector<CheckRow>& rows) {
+  const double ratio = poisson / (1.0 - poisson);
+  for (std::size_t i = 0; i < places.size(); ++i) {
+    const auto& [where, y] = places[i];
+    rows.push_back(
+        relative_row(name, "sigma'_v at " + where + " " + when + ", kPa",
+                     values[i].vertical_effective_stress, vertical(y), tolerance,
+                     "sigma_v - p (equilibrium; Terzaghi's effective stress)"));
+    rows.push_back(relative_row(name, "sigma'_h at " + where + " " + when + ", kPa",
+                                values[i].horizontal_effective_stress,
+                                ratio * vertical(y), tolerance,
+                                "nu/(1 - nu) sigma'_v (Hooke's law, no lateral strain)"));
+  }
+}
+
+} // namespace
+
+std::vector<CheckRow> run_gravity_start(const CaseSettings& settings, MPI_Comm comm) {
+  const std::string name = "gravity-start";
+  const Mesh mesh = column_mesh(comm);
+  BiotProblem problem(mesh, gravity_column_setup());
+  const double gamma_w = problem.setup().gamma_w;
+  const auto& clay = problem.setup().materials.at("clay");
+  const double cv = clay.consolidation_coefficient(clay_k, gamma_w);
+  const double Hdr = (formation - clay_base) / 2;
+  auto time_of = [&](double Tv) { return Tv * Hdr * Hdr / cv; };
+  // Tolerances: the start's stresses are linear in y in each layer, which Q2
+  // displacements and 3-point Gauss rules represent exactly, so only round-off
+  // remains (1e-8 of the value); the drained states after digging are reached as in
+  // excavation-column (drained_tolerance, 1e-4).
+  constexpr double exact_tolerance = 1e-8;
+  std::vector<CheckRow> rows;
+
+  problem.settle_under_gravity();
+  const double mid_clay = 0.5 * (formation + clay_base),
+               mid_sand = 0.5 * (clay_base + base);
+  const std::vector<std::pair<std::string, double>> before{
+      {"mid-fill", 0.5 * formation}, {"mid-clay", mid_clay}, {"mid-sand", mid_sand}};
+  std::vector<double> ys;
+  for (const auto& place : before)
+    ys.push_back(place.second);
+  add_stress_rows(
+      name, "after gravity loading", stresses_at(problem, ys), before,
+      [&](double y) { return overburden(y) - gamma_w * (formation - y); },
+      exact_tolerance, rows);
+  // The solve itself moves the surface (its settlement under the weight of the
+  // column); none of it is reported.
+  rows.push_back(scaled_row(name,
+                            "reported settlement at the surface after gravity "
+                            "loading (scale 1 mm), m",
+                            -probe(problem, dealii::Point<2>(0.5, 0.0)).uy, 0.0, 1e-3,
+                            exact_tolerance,
+                            "the start of the analysis is the reference (definition)"));
+
+  for (const double Tv : {1e4, 2e4}) // dug at once in the first step, then drained
+    problem.advance_to(time_of(Tv));
+  const double sand_heave = unloading * (clay_base - base) * sand_mv;
+  const double clay_heave = unloading * (formation - clay_base) * clay_mv;
+  rows.push_back(relative_row(name, "drained heave of the formation, m",
+                              heave(problem, formation), sand_heave + clay_heave,
+                              drained_tolerance,
+                              "delta sigma_v H / M per layer (1D strain)"));
+  const std::vector<std::pair<std::string, double>> after{{"mid-clay", mid_clay},
+                                                          {"mid-sand", mid_sand}};
+  add_stress_rows(
+      name, "after the dig, drained", stresses_at(problem, {mid_clay, mid_sand}), after,
+      [&](double y) { return overburden(y) - unloading - gamma_w * (formation - y); },
+      drained_tolerance, rows);
+  if (auto writer = writer_for(settings, name, comm))
+    writer->write(problem);
   return rows;
 }
 

@@ -41,6 +41,11 @@ const std::vector<VerificationCase>& all_cases() {
        "the top 2.4 m of a layered column dug away at once: undrained pore pressure, "
        "the clay's swelling against time, the drained heave of each layer",
        run_excavation_column},
+      {"gravity-start",
+       "the same column started by a drained gravity-loading solve: stresses against "
+       "the K0 state with K0 = nu/(1 - nu), nothing reported as movement; after the "
+       "fill is dug, the drained heave and the stresses left",
+       run_gravity_start},
       {"drained-formation",
        "steady seepage through a dug column whose floor drains to the pit one way: "
        "upward flow leaves at the pit's pressure, downward drainage seals the floor",

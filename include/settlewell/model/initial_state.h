@@ -12,7 +12,8 @@ namespace settlewell::model {
 
 /// The state at t = 0: initial heads (hydrostatic below a water table, or given
 /// piezometric heads per layer with linear leakage heads between them) and the
-/// geostatic effective stress with K0. Displacements are zero at t = 0.
+/// geostatic effective stress with K0 (or, with a gravity-loading start, none: the
+/// solver's first solve builds it). Displacements are zero at t = 0.
 class InitialState {
 public:
   InitialState(const scenario::Scenario& s, const Mesh& mesh);
@@ -27,11 +28,17 @@ public:
   /// out of plane (hoop in axisymmetric) and no shear, kPa.
   dealii::SymmetricTensor<2, 3> effective_stress(const dealii::Point<2>& x,
                                                  dealii::types::material_id region) const;
+  /// The effective stress the solver starts from: the geostatic one, or none with
+  /// a gravity-loading start (whose solve then builds it), kPa.
+  dealii::SymmetricTensor<2, 3>
+  start_effective_stress(const dealii::Point<2>& x,
+                         dealii::types::material_id region) const;
   /// This state in the form the output module takes (it refers to this object).
   InitialFields fields() const;
 
 private:
   double gamma_w_;
+  bool gravity_loading_;
   std::vector<std::pair<double, double>> head_knots_;   ///< (y, h), y decreasing
   std::vector<std::pair<double, double>> weight_knots_; ///< (layer top, unit weight)
   double top_ = 0.0;

@@ -43,6 +43,20 @@ public:
   /// One implicit-Euler step from time() to t_new (s). Collective.
   StepReport advance_to(double t_new);
 
+  /// The gravity-loading start (setup().gravity_loading), before the first step: a
+  /// drained solve at t = 0, the excess pore pressure held at zero, that puts the
+  /// start state (unit weights, initial pore pressure, geostatic stress) in
+  /// equilibrium. Its displacement is the reference the reported displacements are
+  /// measured from. Collective.
+  StepReport settle_under_gravity();
+  /// From now on displacements are reported from the present ones (from the start
+  /// of a stage the user names). Collective.
+  void set_displacement_reference();
+  /// solution() with the displacements measured from the reference: the start of
+  /// the analysis (after gravity loading), or set_displacement_reference(). The
+  /// same vector as solution() while there is no reference. With ghost values.
+  const LA::MPI::Vector& reported_solution() const;
+
   /// Water leaving the soil through a boundary or internal line during the last
   /// step, m^3/s (per metre run in plane strain; for the full circle in
   /// axisymmetric). Where a head is prescribed this is the consistent flux (the
@@ -83,7 +97,8 @@ public:
   /// Whether spring k is fitted at time().
   bool spring_fitted(std::size_t k) const;
 
-  /// How far the geostatic state (setup().geostatic) is from equilibrium where
+  /// How far the start state (setup().geostatic, with the displacement now, which
+  /// after gravity loading holds its equilibrium) is from equilibrium where
   /// digging will release it, over the free displacement dofs on a future dug
   /// boundary (where a lift meets what stays or another lift): the largest
   /// out-of-balance force at one, their sum, and the sum of the forces the dug

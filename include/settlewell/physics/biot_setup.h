@@ -70,6 +70,11 @@ struct BiotSetup {
   /// Excavation in time order; needs `geostatic` (the state it releases).
   std::vector<ExcavationEvent> excavation;
   GeostaticState geostatic;
+  /// Start from a drained gravity-loading solve (BiotProblem::settle_under_gravity)
+  /// instead of taking `geostatic` as in equilibrium. Its out-of-balance force, with
+  /// the unit weights and the initial pore pressure, then stays in every step's
+  /// right-hand side, and the displacement unknowns are measured from that state.
+  bool gravity_loading = false;
   /// The water level in the pit (head, m) at time t. When set, the surface that
   /// excavation exposes drains: the pore pressure there stays at or below the
   /// pit's, gamma_w max(0, h_pit - y), water leaving where it would be higher and

@@ -68,4 +68,9 @@ void make_constraints(const ConstraintInputs& in,
                       dealii::AffineConstraints<double>& constraints,
                       bool with_pressures = true);
 
+/// The constraints that never change, and every excess pore pressure held at
+/// zero: a drained response of the skeleton alone.
+void make_drained_constraints(const ConstraintInputs& in,
+                              dealii::AffineConstraints<double>& constraints);
+
 } // namespace settlewell

@@ -163,6 +163,8 @@ struct Column {
 struct Output {
   std::vector<double> times;  ///< s, extra to the stage ends
   unsigned int per_stage = 0; ///< log-spaced output times inside each stage
+  /// The stage from whose start displacements are reported; empty: the start.
+  std::string displacements_from;
   std::vector<MonitoringPoint> points;
   std::vector<SectionLine> lines;
   std::vector<Column> columns;
@@ -214,6 +216,8 @@ struct Scenario {
   std::optional<Box> box;
   std::optional<MeshFile> mesh_file;
   Groundwater groundwater;
+  /// The start from a drained gravity-loading solve, not the K0 state.
+  bool gravity_loading = false;
   std::map<std::string, BoundarySpec> boundaries;
   std::vector<Stage> stages;
   Output output;

@@ -38,6 +38,7 @@ std::vector<CheckRow> run_theis(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_convergence(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_harr(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_excavation_column(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_gravity_start(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_drained_formation(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_strip_excavation(const CaseSettings&, MPI_Comm);
 
