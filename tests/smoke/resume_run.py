@@ -4,7 +4,10 @@ of results.toml, steps.csv and the CSV tables within 1e-10 of its quantity's
 largest magnitude, and (on the same process count) the last fields too.
 
     resume_run.py SETTLEWELL SCENARIO WORK_FOLDER [--mpirun MPIRUN]
-                  [--processes N] [--resume-processes M]
+                  [--processes N] [--resume-processes M] [--gravity-from STAGE]
+
+With --gravity-from the run starts from gravity loading and reports displacements
+from the start of STAGE, so that the checkpoint carries the reference displacement.
 
 The scenario is run coarser than written (cells of 1 m near the wall and well,
 steps of at most 2 days) to keep the test short.
@@ -30,8 +33,15 @@ SKIPPED_COLUMNS = {"new_matrix", "assembly_s", "factorisation_s", "solve_s"}
 TOLERANCE = 1e-10
 
 
-def coarse_copy(scenario, folder):
+def coarse_copy(scenario, folder, gravity_from):
     text = pathlib.Path(scenario).read_text()
+    if gravity_from:
+        text, count = re.subn(r"^\[output\]\n",
+                              f'[output]\ndisplacements_from = "{gravity_from}"\n',
+                              text, flags=re.M)
+        if count != 1:
+            sys.exit(f"FAIL: {scenario} has no [output] table")
+        text += '\n[initial_state]\nmethod = "gravity"\n'
     for pattern, value in [(r"size_near_wall = [0-9.]+", "size_near_wall = 1.0"),
                            (r"size_near_well = [0-9.]+", "size_near_well = 1.0"),
                            (r"largest = [0-9.]+", "largest = 2.0")]:
@@ -193,10 +203,16 @@ def main():
     parser.add_argument("--mpirun", default="mpirun")
     parser.add_argument("--processes", type=int, default=1)
     parser.add_argument("--resume-processes", type=int, default=1)
+    parser.add_argument("--gravity-from", default="")
     args = parser.parse_args()
     shutil.rmtree(args.work, ignore_errors=True)
     args.work.mkdir(parents=True)
-    scenario = coarse_copy(args.scenario, args.work)
+    if args.gravity_from:
+        # After gravity loading these are round-off (about 1e-9 kN/m): their digits
+        # differ with the process count; their size is checked in dug_pit_test.
+        SKIPPED_KEYS.update({"largest_out_of_balance_kN_per_m",
+                             "summed_out_of_balance_kN_per_m"})
+    scenario = coarse_copy(args.scenario, args.work, args.gravity_from)
     whole, resumed = args.work / "whole", args.work / "resumed"
     subprocess.run(command(args, args.processes, str(scenario), "-o", str(whole), "-q"),
                    check=True, stdout=subprocess.DEVNULL)
