@@ -7,6 +7,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <cmath>
+#include <functional>
 #include <limits>
 #include <set>
 #include <sstream>
@@ -385,31 +386,12 @@ void check_mesh_pit(const Scenario& s, const Mesh& mesh, const PitRegions& pit) 
   }
 }
 
-/// The digging of a section's pit: the cells inside the walls whose centre lies
-/// above the dig level.
-void add_section_digs(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
-  const double half_width = s.section->excavation_width / 2;
-  const bool whole_width =
-      !s.section->half_model && s.analysis != AnalysisType::axisymmetric;
-  for (std::size_t k = 0; k < s.stages.size(); ++k) {
-    if (!s.stages[k].dig_level)
-      continue;
-    const double level = *s.stages[k].dig_level;
-    const StageTimes& times = schedule.stages()[k];
-    setup.excavation.push_back(
-        {times.start, times.ramp_end, [=](const Point<2>& centre, types::material_id) {
-           const double x = whole_width ? std::abs(centre[0]) : centre[0];
-           return x < half_width && centre[1] > level;
-         }});
-  }
-}
-
-/// The digging of a mesh file's pit: the cells of its excavation regions whose
-/// centre lies above the dig level.
-void add_mesh_digs(const Scenario& s,
-                   const Schedule& schedule,
-                   const PitRegions& pit,
-                   BiotSetup& setup) {
+/// One excavation event per digging stage: the cells `in_pit` accepts whose centre
+/// lies above the stage's dig level.
+void add_digs(const Scenario& s,
+              const Schedule& schedule,
+              const std::function<bool(const Point<2>&, types::material_id)>& in_pit,
+              BiotSetup& setup) {
   for (std::size_t k = 0; k < s.stages.size(); ++k) {
     if (!s.stages[k].dig_level)
       continue;
@@ -417,10 +399,36 @@ void add_mesh_digs(const Scenario& s,
     const StageTimes& times = schedule.stages()[k];
     setup.excavation.push_back(
         {times.start, times.ramp_end,
-         [level, ids = pit.ids](const Point<2>& centre, types::material_id region) {
-           return ids.count(region) != 0 && centre[1] > level;
+         [level, in_pit](const Point<2>& centre, types::material_id region) {
+           return in_pit(centre, region) && centre[1] > level;
          }});
   }
+}
+
+/// The digging of a section's pit: the cells inside the walls.
+void add_section_digs(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
+  const double half_width = s.section->excavation_width / 2;
+  const bool whole_width =
+      !s.section->half_model && s.analysis != AnalysisType::axisymmetric;
+  add_digs(
+      s, schedule,
+      [=](const Point<2>& centre, types::material_id) {
+        return (whole_width ? std::abs(centre[0]) : centre[0]) < half_width;
+      },
+      setup);
+}
+
+/// The digging of a mesh file's pit: the cells of its excavation regions.
+void add_mesh_digs(const Scenario& s,
+                   const Schedule& schedule,
+                   const PitRegions& pit,
+                   BiotSetup& setup) {
+  add_digs(
+      s, schedule,
+      [ids = pit.ids](const Point<2>&, types::material_id region) {
+        return ids.count(region) != 0;
+      },
+      setup);
 }
 
 /// The pit's digging: at the start of each stage that digs, the pit's cells above
