@@ -241,14 +241,15 @@ void add_stress_rows(const std::string& name,
   const double ratio = poisson / (1.0 - poisson);
   for (std::size_t i = 0; i < places.size(); ++i) {
     const auto& [where, y] = places[i];
-    rows.push_back(
-        relative_row(name, "sigma'_v at " + where + " " + when + ", kPa",
-                     values[i].vertical_effective_stress, vertical(y), tolerance,
-                     "sigma_v - p (equilibrium; Terzaghi's effective stress)"));
-    rows.push_back(relative_row(name, "sigma'_h at " + where + " " + when + ", kPa",
-                                values[i].horizontal_effective_stress,
-                                ratio * vertical(y), tolerance,
-                                "nu/(1 - nu) sigma'_v (Hooke's law, no lateral strain)"));
+    rows.push_back(relative_row(name, "sigma'_v at " + where + " " + when + ", kPa",
+                                values[i].vertical_effective_stress, vertical(y),
+                                tolerance,
+                                "sigma_v - p: column equilibrium, effective stress "
+                                "(Terzaghi 1936, from memory)"));
+    rows.push_back(relative_row(
+        name, "sigma'_h at " + where + " " + when + ", kPa",
+        values[i].horizontal_effective_stress, ratio * vertical(y), tolerance,
+        "nu/(1 - nu) sigma'_v: Hooke's law, no lateral strain (common practice)"));
   }
 }
 
