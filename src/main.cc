@@ -3,6 +3,7 @@
 #include "settlewell/commands/check.h"
 #include "settlewell/commands/sweep.h"
 #include "settlewell/core/errors.h"
+#include "settlewell/core/threads.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
 #include "settlewell/mesh/mesh_files.h"
@@ -421,16 +422,17 @@ int dispatch(int argc, char** argv) {
 } // namespace
 
 int main(int argc, char** argv) {
-  // One thread per MPI process unless the user says otherwise: hypre's and
-  // OpenBLAS's threads otherwise compete with the processes for the cores.
+  // One thread per MPI process unless the user says otherwise: hypre's threads
+  // otherwise compete with the processes for the cores. OpenBLAS has read its
+  // variable before main(); limit_blas_threads() below sets it through its own call.
   setenv("OMP_NUM_THREADS", "1", 0);
-  setenv("OPENBLAS_NUM_THREADS", "1", 0);
   // PETSc reads its own options from argv; give it only the program name so that
   // our options (--help among them) reach CLI11 alone. Experts can still pass
   // PETSc options through the PETSC_OPTIONS environment variable.
   int petsc_argc = 1;
   char** petsc_argv = argv;
   dealii::Utilities::MPI::MPI_InitFinalize mpi(petsc_argc, petsc_argv, 1);
+  settlewell::limit_blas_threads();
   try {
     return dispatch(argc, argv);
   } catch (const settlewell::InputError& e) {

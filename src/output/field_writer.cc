@@ -162,6 +162,9 @@ std::string FieldWriter::write(const BiotProblem& problem) {
   DataOutBase::VtkFlags flags;
   flags.time = units::to_days(problem.time());
   flags.write_higher_order_cells = true;
+  // zlib's best compression took a fifth of the demo's run for files about 10 %
+  // smaller than its fastest level gives.
+  flags.compression_level = DataOutBase::VtkFlags::best_speed;
   data_out.set_flags(flags);
 
   const unsigned int counter = series_.size();

@@ -6,6 +6,7 @@
 //
 // Prints one line "key=value ..." for run_benchmarks.sh to collect. Not a test:
 // it measures, it does not pass or fail.
+#include "settlewell/core/threads.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/model/initial_state.h"
@@ -54,6 +55,7 @@ int main(int argc, char** argv) {
   CLI11_PARSE(app, argc, argv);
   int petsc_argc = 1;
   dealii::Utilities::MPI::MPI_InitFinalize mpi(petsc_argc, argv, 1);
+  settlewell::limit_blas_threads();
   const MPI_Comm comm = MPI_COMM_WORLD;
   const bool root = dealii::Utilities::MPI::this_mpi_process(comm) == 0;
 
