@@ -16,40 +16,67 @@ namespace {
 
 /// Refuses a stage whose steps would number in the millions (a step of 1e-7 days
 /// over months) before their list is built: it would fill the memory, or run for
-/// days, on a slip of the exponent. The count: the growing steps, then the equal ones.
+/// days, on a slip of the exponent.
 void check_step_count(const scenario::Scenario& s,
                       const StageTimes& st,
-                      double first,
-                      double growth,
-                      double largest) {
+                      const Ladder& ladder) {
   if (s.numerics.allow_large)
     return;
-  const double duration = st.end - st.start;
-  const double growing =
-      growth > 1.0 ? std::log(largest / first) / std::log(growth) : 0.0;
-  const double count = std::min(growing, duration / first) + duration / largest;
+  const double count = ladder_step_count(st.end - st.start, ladder);
   if (count <= scenario::largest_step_count)
     return;
   std::ostringstream os;
   os << s.location_of("stages." + st.name) << ": stage '" << st.name
      << "' would take about " << std::setprecision(3) << count << " time steps (first "
-     << units::to_days(first) << " days, largest " << units::to_days(largest)
-     << " days, over " << units::to_days(duration) << " days), more than the "
+     << units::to_days(ladder.first) << " days, largest "
+     << units::to_days(ladder.largest) << " days, over "
+     << units::to_days(st.end - st.start) << " days), more than the "
      << std::size_t(scenario::largest_step_count)
      << " a run may take: raise time_steps.first or time_steps.largest, or run with "
         "--allow-large";
   throw InputError(os.str());
 }
 
-std::vector<double>
-stage_output_times(const StageTimes& st, double first, unsigned int n) {
-  // n times log-spaced from the first step to the stage end (the end itself is
-  // always written).
+/// `n` times log-spaced from the stage's first step to its end, each moved to the
+/// step nearest to it in log time (so that they cost no step of their own); the
+/// stage end itself is always written.
+std::vector<double> stage_output_times(const StageTimes& st,
+                                       const std::vector<double>& steps,
+                                       unsigned int n) {
   std::vector<double> times;
-  const double duration = st.end - st.start;
-  for (unsigned int i = 0; i < n; ++i)
-    times.push_back(st.start + first * std::pow(duration / first, double(i) / n));
+  if (steps.empty())
+    return times;
+  const double first = steps.front() - st.start, duration = st.end - st.start;
+  for (unsigned int i = 0; i < n; ++i) {
+    const double ideal = std::log(first) + std::log(duration / first) * i / n;
+    const auto nearest =
+        std::min_element(steps.begin(), steps.end(), [&](double a, double b) {
+          return std::abs(std::log(a - st.start) - ideal) <
+                 std::abs(std::log(b - st.start) - ideal);
+        });
+    times.push_back(*nearest);
+  }
   return times;
+}
+
+/// The steps of a stage, by default from a thousandth of it to a fortieth, and to a
+/// hundredth of a ramp inside it. Implicit Euler applies each step's end value over
+/// the whole step, which leads a ramped change by about half a step (with a
+/// twentieth of the ramp the layered-column example ran 3 % ahead of the hand
+/// solution; with a hundredth, under 1 %). With a tenth of the stage the demo's
+/// histories were up to 1.2 % from a run with four times the steps; with a fortieth,
+/// 0.4 % (tests/smoke/ladder_accuracy.py); steps on a rung are cheap.
+Ladder stage_ladder(const StageTimes& st, const scenario::TimeSteps& steps) {
+  const double duration = st.end - st.start, ramp = st.ramp_end - st.start;
+  Ladder ladder;
+  ladder.first = steps.first > 0.0 ? steps.first : duration / 1000.0;
+  const double default_largest =
+      ramp > 0.0 ? std::min(duration / 40.0, ramp / 100.0) : duration / 40.0;
+  ladder.largest =
+      std::max(ladder.first, steps.largest > 0.0 ? steps.largest : default_largest);
+  ladder.growth = steps.growth;
+  ladder.per_rung = steps.per_rung;
+  return ladder;
 }
 
 } // namespace
@@ -63,36 +90,25 @@ Schedule::Schedule(const scenario::Scenario& s) {
   }
   for (std::size_t k = 0; k < stages_.size(); ++k) {
     const StageTimes& st = stages_[k];
-    const auto& steps = s.stages[k].steps;
-    const double duration = st.end - st.start;
-    const double first = steps.first > 0.0 ? steps.first : duration / 1000.0;
-    // By default the steps grow to a tenth of the stage, and to a hundredth of a ramp
-    // inside it: implicit Euler applies each step's end value over the whole step,
-    // which leads a ramped change by about half a step (with a twentieth of the ramp
-    // the layered-column example ran 3 % ahead of the hand solution; with a
-    // hundredth, under 1 %). Equal steps reuse one factorisation, so this is cheap.
-    const double ramp = st.ramp_end - st.start;
-    const double default_largest =
-        ramp > 0.0 ? std::min(duration / 10.0, ramp / 100.0) : duration / 10.0;
-    const double largest =
-        std::max(first, steps.largest > 0.0 ? steps.largest : default_largest);
+    const Ladder ladder = stage_ladder(st, s.stages[k].steps);
     std::vector<double> must_hit{st.end};
     if (st.ramp_end > st.start && st.ramp_end < st.end)
       must_hit.push_back(st.ramp_end);
-    for (const double o : stage_output_times(st, first, s.output.per_stage))
-      if (o > st.start)
-        outputs_.push_back(o);
+    for (const double o : s.output.times)
+      if (o > st.start && o <= st.end)
+        must_hit.push_back(o);
+    std::sort(must_hit.begin(), must_hit.end());
+    const auto same = [](double a, double b) { return b - a <= 1e-9 * std::abs(b); };
+    must_hit.erase(std::unique(must_hit.begin(), must_hit.end(), same), must_hit.end());
+    check_step_count(s, st, ladder);
+    const auto stage_steps = ladder_times(st.start, must_hit, ladder);
+    steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());
     outputs_.push_back(st.end);
     for (const double o : s.output.times)
       if (o > st.start && o <= st.end)
         outputs_.push_back(o);
-    for (const double o : outputs_)
-      if (o > st.start && o <= st.end)
-        must_hit.push_back(o);
-    check_step_count(s, st, first, steps.growth, largest);
-    const auto stage_steps = merge_times(
-        growing_times(st.start, st.end, first, steps.growth, largest), must_hit);
-    steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());
+    for (const double o : stage_output_times(st, stage_steps, s.output.per_stage))
+      outputs_.push_back(o);
   }
   std::sort(outputs_.begin(), outputs_.end());
   outputs_.erase(std::unique(outputs_.begin(), outputs_.end()), outputs_.end());

@@ -47,7 +47,7 @@ std::vector<std::string>
 step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors, bool digs) {
   std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
                              "new_matrix", "assembly_s", "factorisation_s", "solve_s",
-                             "iterations"};
+                             "iterations", "monitors_s", "output_s"};
   if (digs) // solves of the step until the drained surface's active set settled
     h.push_back("drain_rounds");
   for (const auto& m : monitors)
@@ -56,12 +56,25 @@ step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors, boo
   return h;
 }
 
-std::vector<double>
-step_row(const StepReport& r, std::size_t number, std::size_t stage, bool digs) {
-  std::vector<double> row{
-      double(number),          units::to_days(r.time),   units::to_days(r.dt),
-      double(stage + 1),       r.new_matrix ? 1.0 : 0.0, r.assembly_seconds,
-      r.factorisation_seconds, r.solve_seconds,          double(r.iterations)};
+/// `monitors_s`: the step columns of every monitor (discharges, balance, extremes,
+/// points); `output_s`: what is written at an output time (fields, profiles).
+std::vector<double> step_row(const StepReport& r,
+                             std::size_t number,
+                             std::size_t stage,
+                             bool digs,
+                             double monitors_seconds,
+                             double output_seconds) {
+  std::vector<double> row{double(number),
+                          units::to_days(r.time),
+                          units::to_days(r.dt),
+                          double(stage + 1),
+                          r.new_matrix ? 1.0 : 0.0,
+                          r.assembly_seconds,
+                          r.factorisation_seconds,
+                          r.solve_seconds,
+                          double(r.iterations),
+                          monitors_seconds,
+                          output_seconds};
   if (digs)
     row.push_back(double(r.drain_rounds));
   return row;
@@ -221,15 +234,21 @@ void Simulation::Impl::start(const monitors::RunView& view) {
 
 void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
   TimerOutput::Scope part(timer, "monitors and output");
-  std::vector<double> row = step_row(view.step, view.step_number, view.stage(),
-                                     !model.setup.excavation.empty());
+  Timer clock; // this process's wall time
+  std::vector<double> columns;
   for (auto& m : monitors)
     for (const double v : m->after_step(view))
-      row.push_back(v);
-  steps.row(row);
+      columns.push_back(v);
+  const double monitors_seconds = clock.wall_time();
+  clock.restart();
   if (schedule.is_output_time(view.step.time))
     for (auto& m : monitors)
       m->at_output_time(view);
+  std::vector<double> row =
+      step_row(view.step, view.step_number, view.stage(), !model.setup.excavation.empty(),
+               monitors_seconds, clock.wall_time());
+  row.insert(row.end(), columns.begin(), columns.end());
+  steps.row(row);
 }
 
 // A gravity-loading start: its solve balances the start state; its movement is the

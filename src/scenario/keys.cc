@@ -108,8 +108,9 @@ const std::vector<KeySpec>& all_keys() {
     {"stages[].loads[].x_from", "number", "m", "required", "Start of the loaded strip"},
     {"stages[].loads[].x_to", "number", "m", "required", "End of the loaded strip"},
     {"stages[].time_steps.first", "number", "days", "duration/1000", "First step of the stage (the undrained response)"},
-    {"stages[].time_steps.growth", "number", "", "1.25", "Ratio of successive steps"},
-    {"stages[].time_steps.largest", "number", "days", "duration/10, ramp/100", "Largest step (the default is the smaller of a tenth of the stage and a hundredth of its ramp)"},
+    {"stages[].time_steps.growth", "number", "", "2", "Ratio of one rung of the step ladder to the one before"},
+    {"stages[].time_steps.per_rung", "integer", "", "8", "Steps taken at each rung (one factorisation serves them)"},
+    {"stages[].time_steps.largest", "number", "days", "duration/40, ramp/100", "Largest step (the default is the smaller of a fortieth of the stage and a hundredth of its ramp)"},
 
     {"output.times", "array of numbers", "days", "[]", "Extra output times"},
     {"output.per_stage", "integer", "", "4", "Output times inside each stage, log-spaced (stage ends are always written)"},

@@ -47,6 +47,10 @@ TimeSteps read_time_steps(const TableReader& stage, double duration) {
   steps.growth = r.number("growth");
   if (!(steps.growth >= 1.0 && steps.growth <= 10.0))
     r.fail("growth", "must lie in [1, 10]");
+  const long long per_rung = r.integer("per_rung");
+  if (per_rung < 1 || per_rung > 1000)
+    r.fail("per_rung", "must lie in [1, 1000]");
+  steps.per_rung = static_cast<unsigned int>(per_rung);
   if (r.has("largest"))
     steps.largest = units::days(r.positive("largest"));
   if (steps.largest > 0.0 && steps.first > steps.largest)

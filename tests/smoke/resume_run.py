@@ -29,7 +29,8 @@ import tomllib
 # What may differ between two runs of the same model: timings, dates, the process
 # count, and whether a step factorised (a resumed run factorises afresh).
 SKIPPED_KEYS = {"wall_time_s", "started", "finished", "processes", "updated"}
-SKIPPED_COLUMNS = {"new_matrix", "assembly_s", "factorisation_s", "solve_s"}
+SKIPPED_COLUMNS = {"new_matrix", "assembly_s", "factorisation_s", "solve_s",
+                   "monitors_s", "output_s"}
 TOLERANCE = 1e-10
 
 

@@ -4,7 +4,9 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
+#include <vector>
 
 using namespace settlewell;
 
@@ -22,6 +24,82 @@ TEST(TimeGrid, MergeKeepsMustHitTimesAndDropsSlivers) {
   const auto merged = merge_times(grid, {2.1, 3.5});
   const std::vector<double> expected{1.0, 2.1, 3.0, 3.5, 4.0};
   EXPECT_EQ(merged, expected);
+}
+
+namespace {
+
+/// The distinct step sizes of a run of times, in order (a change of step means a
+/// new factorisation).
+std::vector<double> step_changes(double t_begin, const std::vector<double>& times) {
+  std::vector<double> steps;
+  double t = t_begin;
+  for (const double next : times) {
+    const double dt = next - t;
+    if (steps.empty() || std::abs(dt - steps.back()) > 1e-9 * dt)
+      steps.push_back(dt);
+    t = next;
+  }
+  return steps;
+}
+
+} // namespace
+
+TEST(TimeGrid, LadderHoldsEachStepForARungAndGrowsByTheFactor) {
+  const Ladder ladder{1.0, 64.0, 2.0, 4};
+  const auto t = ladder_times(0.0, {1000.0}, ladder);
+  const auto steps = step_changes(0.0, t);
+  // Rungs 1, 2, ..., 64 of four steps each (4 * 127 = 508 s), then 64 s steps to
+  // 1000 s: the last rung's step is the remaining gap divided into whole steps.
+  ASSERT_GE(steps.size(), 7u);
+  for (std::size_t i = 1; i < 7; ++i)
+    EXPECT_NEAR(steps[i] / steps[i - 1], 2.0, 1e-9);
+  EXPECT_NEAR(steps.front(), 1.0, 1e-12);
+  EXPECT_LE(steps.size(), 8u);
+  EXPECT_DOUBLE_EQ(t.back(), 1000.0);
+  for (const double dt : steps)
+    EXPECT_LE(dt, 64.0 * (1.0 + 1e-12));
+}
+
+TEST(TimeGrid, LadderStartsAtOrBelowTheFirstStep) {
+  // 100 / 2^k <= 3: the first rung is 100 / 64 = 1.5625, never longer than asked.
+  const auto t = ladder_times(10.0, {500.0}, Ladder{3.0, 100.0, 2.0, 8});
+  EXPECT_NEAR(t.front() - 10.0, 1.5625, 1e-12);
+}
+
+TEST(TimeGrid, LadderLandsOnEveryMustHitTimeWithoutSlivers) {
+  const std::vector<double> must_hit{7.3, 50.0, 51.0, 400.0, 1234.5};
+  const Ladder ladder{0.5, 40.0, 2.0, 8};
+  const auto t = ladder_times(0.0, must_hit, ladder);
+  for (const double target : must_hit)
+    EXPECT_TRUE(std::find(t.begin(), t.end(), target) != t.end()) << target;
+  EXPECT_TRUE(std::is_sorted(t.begin(), t.end()));
+  double previous = 0.0;
+  for (const double next : t) {
+    EXPECT_LE(next - previous, 40.0 * (1.0 + 1e-9));
+    // No step shorter than a fifth of the first: fitting a target divides a gap
+    // into whole steps instead of leaving a sliver.
+    EXPECT_GE(next - previous, 0.1) << next;
+    previous = next;
+  }
+  // Changes of step grow with the rungs and the targets, not with the steps.
+  EXPECT_LT(step_changes(0.0, t).size(), t.size() / 4);
+}
+
+TEST(TimeGrid, LadderStepCountBoundsTheSteps) {
+  const Ladder ladder{0.01, 10.0, 2.0, 8};
+  const double n = ladder_times(0.0, {1000.0}, ladder).size();
+  const double estimate = ladder_step_count(1000.0, ladder);
+  EXPECT_GE(estimate, n);
+  EXPECT_LE(estimate, 1.5 * n);
+}
+
+TEST(TimeGrid, BadLaddersAreInternalErrors) {
+  EXPECT_THROW(ladder_times(0.0, {}, Ladder{1.0, 2.0}), InternalError);
+  EXPECT_THROW(ladder_times(0.0, {2.0, 1.0}, Ladder{1.0, 2.0}), InternalError);
+  EXPECT_THROW(ladder_times(5.0, {5.0}, Ladder{1.0, 2.0}), InternalError);
+  EXPECT_THROW(ladder_times(0.0, {5.0}, Ladder{3.0, 2.0}), InternalError);
+  EXPECT_THROW(ladder_times(0.0, {5.0}, Ladder{1.0, 2.0, 0.5}), InternalError);
+  EXPECT_THROW(ladder_times(0.0, {5.0}, Ladder{1.0, 2.0, 2.0, 0}), InternalError);
 }
 
 TEST(TimeGrid, BadArgumentsAreInternalErrors) {

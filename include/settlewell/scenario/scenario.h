@@ -126,9 +126,10 @@ struct SurfaceLoad {
 };
 
 struct TimeSteps {
-  double first = 0.0; ///< s; 0: 1/1000 of the stage
-  double growth = 1.0;
-  double largest = 0.0; ///< s; 0: 1/10 of the stage
+  double first = 0.0;        ///< s; 0: 1/1000 of the stage
+  double growth = 2.0;       ///< ratio of one rung's step to the one before
+  unsigned int per_rung = 8; ///< steps of one size (one factorisation)
+  double largest = 0.0;      ///< s; 0: 1/40 of the stage, 1/100 of a ramp
 };
 
 struct Stage {

@@ -15,6 +15,28 @@ std::vector<double> log_spaced_times(double t_first, double t_end, double per_de
 std::vector<double> growing_times(
     double t_begin, double t_end, double first_step, double growth, double max_step);
 
+/// A ladder of time steps: each rung holds one step size for `per_rung` steps, so
+/// that one factorisation serves them all, and the next rung is `growth` times
+/// longer, up to `largest`. The rungs are counted down from `largest`, so the first
+/// step is `first` or up to `growth` times shorter.
+struct Ladder {
+  double first = 0.0, largest = 0.0; ///< s
+  double growth = 2.0;
+  unsigned int per_rung = 8;
+};
+
+/// Step end times after t_begin up to the last of `must_hit` (sorted, all after
+/// t_begin), landing on every must-hit time. A must-hit time is reached by the
+/// ladder itself: where it lies within the reach of a new rung, that rung's step is
+/// the gap divided into a whole number of steps (no larger than `largest`), so a
+/// must-hit time costs no factorisation of its own unless it falls inside a rung.
+std::vector<double>
+ladder_times(double t_begin, const std::vector<double>& must_hit, const Ladder& ladder);
+
+/// The number of steps `ladder_times` takes over `duration` when nothing else must
+/// be hit: enough to refuse a plan that would run for days before it is built.
+double ladder_step_count(double duration, const Ladder& ladder);
+
 /// Times from t_begin (exclusive) to t_end (inclusive) with a constant step.
 std::vector<double> uniform_times(double t_begin, double t_end, unsigned int n_steps);
 
