@@ -69,6 +69,7 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
     throw InternalError("gravity loading needs the unit weights of the geostatic state");
   settled = !setup.gravity_loading;
   setup_dofs();
+  build_storage_rows();
   choose_solver();
 }
 
@@ -260,7 +261,9 @@ void BiotProblem::Impl::add_old_state_and_fluxes(
     double t,
     double dt,
     Vector<double>& cell_rhs) const {
-  kernel.add_old_state(coefficients[cell->material_id()], old_solution, cell_rhs);
+  Vector<double> old_state(cell_rhs.size());
+  cell->get_dof_values(old_solution, old_state);
+  add_storage_terms(cell, old_state, cell_rhs);
   if (cell->at_boundary())
     add_face_terms(kernel, cell, t, dt, cell_rhs);
   add_line_fluxes(kernel, cell, t, dt, cell_rhs);

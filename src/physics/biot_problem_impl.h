@@ -76,6 +76,22 @@ struct BiotProblem::Impl {
                       Vector<double>& cell_rhs) const;
   bool has_inhomogeneity(const std::vector<types::global_dof_index>& dofs) const;
 
+  // The storage terms (storage_rows.cc).
+  /// The pressure rows of each owned cell's matrix at dt = 0, (alpha B, S M), in
+  /// the cell's dof order: a state's storage terms (alpha div u + S p against each
+  /// pressure shape function) are their product with its local values.
+  struct StorageRows {
+    std::vector<unsigned int> rows;  ///< local indices of the pressure dofs
+    std::vector<std::size_t> offset; ///< by active cell index, into values
+    std::vector<double> values;
+  } storage_rows;
+  /// Integrates storage_rows (constructor, after setup_dofs).
+  void build_storage_rows();
+  /// Adds the storage terms of a state (the cell's local values) to `out`.
+  void add_storage_terms(const DoFHandler<2>::active_cell_iterator& cell,
+                         const Vector<double>& local_state,
+                         Vector<double>& out) const;
+
   // The start in equilibrium and the reported displacement (initial_equilibrium.cc).
   /// Adds a cell's out-of-balance force in the start state (the geostatic effective
   /// stress, the initial pore pressure and the unit weight) to `out`'s

@@ -122,27 +122,6 @@ void CellKernel::add_schur_approximation(const CellCoefficients& c,
   }
 }
 
-void CellKernel::add_old_state(const CellCoefficients& c,
-                               const LA::MPI::Vector& old,
-                               Vector<double>& out) {
-  const unsigned int nq = fe_values_.n_quadrature_points;
-  std::vector<double> div_u(nq), p_old(nq);
-  std::vector<Tensor<1, 2>> u_old(nq);
-  fe_values_[layout_.displacement].get_function_divergences(old, div_u);
-  fe_values_[layout_.displacement].get_function_values(old, u_old);
-  fe_values_[layout_.excess_pressure].get_function_values(old, p_old);
-  const bool axisymmetric = analysis_ == AnalysisType::axisymmetric;
-  for (unsigned int q = 0; q < nq; ++q) {
-    const double r = fe_values_.quadrature_point(q)[0];
-    const double volumetric = div_u[q] + (axisymmetric ? u_old[q][0] / r : 0.0);
-    const double source =
-        (c.alpha * volumetric + c.storage * p_old[q]) * weight(fe_values_, q);
-    for (unsigned int i = 0; i < component_.size(); ++i)
-      if (!layout_.is_displacement(component_[i]))
-        out(i) += source * fe_values_[layout_.excess_pressure].value(i, q);
-  }
-}
-
 void CellKernel::add_body_force(const Tensor<1, 2>& b, Vector<double>& out) {
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     const double w = weight(fe_values_, q);

@@ -48,10 +48,6 @@ public:
   void add_schur_approximation(const CellCoefficients& c,
                                double dt,
                                dealii::FullMatrix<double>& out);
-  /// Old-state part of the storage equation: (alpha div u_n + S p_n) in the p rows.
-  void add_old_state(const CellCoefficients& c,
-                     const LA::MPI::Vector& old_solution,
-                     dealii::Vector<double>& out);
   void add_body_force(const dealii::Tensor<1, 2>& b, dealii::Vector<double>& out);
   /// The out-of-balance nodal force of a cell in a geostatic state, in the
   /// displacement rows: the weight (unit weight `gamma`, kN/m^3, downward) minus
