@@ -260,8 +260,8 @@ void BiotProblem::Impl::add_old_state_and_fluxes(
     const DoFHandler<2>::active_cell_iterator& cell,
     double t,
     double dt,
+    Vector<double>& old_state,
     Vector<double>& cell_rhs) const {
-  Vector<double> old_state(cell_rhs.size());
   cell->get_dof_values(old_solution, old_state);
   add_storage_terms(cell, old_state, cell_rhs);
   if (cell->at_boundary())
@@ -281,17 +281,15 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
   rhs = 0.0;
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
-  Vector<double> cell_rhs(n);
-  FullMatrix<double> cell_matrix(n, n);
+  Vector<double> cell_rhs(n), old_state(n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !in_model(cell))
       continue;
     kernel.reinit(cell);
     cell->get_dof_indices(dofs);
-    const CellCoefficients& c = coefficients[cell->material_id()];
     cell_rhs = 0.0;
-    add_old_state_and_fluxes(kernel, cell, t_new, dt, cell_rhs);
+    add_old_state_and_fluxes(kernel, cell, t_new, dt, old_state, cell_rhs);
     if (setup.gravity_loading)
       add_start_imbalance(kernel, cell, cell_rhs);
     const Tensor<1, 2> b = conditions.body_force(cell->material_id(), t_new);
@@ -300,9 +298,8 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     if (has_inhomogeneity(dofs)) {
       // Prescribed values enter the right-hand side through the cell matrix;
       // only cells that touch them need it.
-      cell_matrix = 0.0;
-      kernel.add_matrix(c, dt, cell_matrix);
-      constraints.distribute_local_to_global(cell_rhs, dofs, rhs, cell_matrix);
+      constraints.distribute_local_to_global(cell_rhs, dofs, rhs,
+                                             cell_matrix_at(cell, dt));
     } else {
       constraints.distribute_local_to_global(cell_rhs, dofs, rhs);
     }
@@ -331,6 +328,7 @@ StepReport BiotProblem::advance_to(double t_new) {
   report.dt = dt;
   report.drain_rounds = 0;
   m.old_solution = m.solution;
+  m.guess_next(dt);
   bool new_geometry = m.excavate(m.time);
   new_geometry = m.fit_springs(m.time) || new_geometry;
   if (new_geometry)
@@ -351,6 +349,22 @@ StepReport BiotProblem::advance_to(double t_new) {
   m.time = t_new;
   m.update_reported();
   return report;
+}
+
+void BiotProblem::Impl::guess_next(double dt) {
+  if (!solver->takes_initial_guess())
+    return;
+  const bool have_two = last_dt > 0.0 && solution_before.size() == owned_solution.size();
+  if (!have_two)
+    solution_before.reinit(owned_solution); // same layout, for the swap below
+  LA::MPI::Vector last(owned_solution);
+  if (have_two) {
+    // x_n + r (x_n - x_{n-1}), r = dt / dt_n: the trend of the last step carried on.
+    const double r = dt / last_dt;
+    owned_solution.sadd(1.0 + r, -r, solution_before);
+  }
+  solution_before.swap(last);
+  last_dt = dt;
 }
 
 void BiotProblem::Impl::solve_step(double t_new,
@@ -378,6 +392,10 @@ void BiotProblem::Impl::solve_step(double t_new,
     report.factorisation_seconds += timer.wall_time();
   }
   timer.restart();
+  // The system's constrained rows ask for zero (distribute() puts the values in
+  // after the solve): a start that keeps them would begin with a large residual.
+  if (solver->takes_initial_guess())
+    constraints.set_zero(owned_solution);
   report.iterations += solver->solve(rhs, owned_solution);
   constraints.distribute(owned_solution);
   solution = owned_solution;

@@ -50,10 +50,12 @@ struct BiotProblem::Impl {
                        double t,
                        double dt,
                        Vector<double>& cell_rhs) const;
+  /// (`old_state` is scratch space of the cell's size.)
   void add_old_state_and_fluxes(CellKernel& kernel,
                                 const DoFHandler<2>::active_cell_iterator& cell,
                                 double t,
                                 double dt,
+                                Vector<double>& old_state,
                                 Vector<double>& cell_rhs) const;
   /// The unconstrained storage-equation residual (row times solution minus
   /// right-hand side) of a solve at (t, dt), at the pressure dofs `wanted` keeps:
@@ -65,6 +67,9 @@ struct BiotProblem::Impl {
   /// Water leaving through a set of prescribed-pressure dofs in the last step, m^3/s.
   double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
   double prescribed_outflow(const FluxBoundary& flux) const;
+  /// For a solver that iterates from a start: puts in owned_solution the last
+  /// solution extrapolated linearly to a step of length dt from the one before.
+  void guess_next(double dt);
   /// One assembly and solve of the step to t_new (matrix rebuilt when needed).
   void solve_step(double t_new, double dt, bool new_geometry, StepReport& report);
   void assemble_matrix(double dt);
@@ -87,6 +92,18 @@ struct BiotProblem::Impl {
   } storage_rows;
   /// Integrates storage_rows (constructor, after setup_dofs).
   void build_storage_rows();
+  /// An owned cell's matrix at time step dt, from its two parts (the matrix is
+  /// A0 + dt A1) integrated at the first call and kept. For the cells that need a
+  /// matrix every step (prescribed values, water-balance lines): a boundary's
+  /// worth, so the memory stays small.
+  const FullMatrix<double>&
+  cell_matrix_at(const DoFHandler<2>::active_cell_iterator& cell, double dt) const;
+  /// cell_matrix_at's parts by active cell index, and its result. Mutable: a
+  /// cache behind const queries (water balance), filled on first use.
+  mutable std::unordered_map<unsigned int,
+                             std::pair<FullMatrix<double>, FullMatrix<double>>>
+      cell_matrix_parts;
+  mutable FullMatrix<double> cell_matrix_now;
   /// Adds the storage terms of a state (the cell's local values) to `out`.
   void add_storage_terms(const DoFHandler<2>::active_cell_iterator& cell,
                          const Vector<double>& local_state,
@@ -186,6 +203,10 @@ struct BiotProblem::Impl {
       line_flux_faces;
   double time = 0.0;
   double matrix_dt = std::numeric_limits<double>::quiet_NaN();
+  /// The solution one step before the last, and the last step's length (0: none
+  /// since the start or a resume). For guess_next.
+  LA::MPI::Vector solution_before;
+  double last_dt = 0.0;
   std::vector<bool> matrix_pressures; ///< active prescribed pressures of the matrix
 };
 

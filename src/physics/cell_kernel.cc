@@ -50,7 +50,13 @@ CellKernel::CellKernel(const FieldLayout& layout,
 
 void CellKernel::reinit(const DoFHandler<2>::active_cell_iterator& cell) {
   cell_ = cell;
-  fe_values_.reinit(cell);
+  cell_values_current_ = false;
+}
+
+void CellKernel::update_cell_values() {
+  if (!cell_values_current_)
+    fe_values_.reinit(cell_);
+  cell_values_current_ = true;
 }
 
 double CellKernel::weight(const FEValuesBase<2>& fv, unsigned int q) const {
@@ -77,6 +83,7 @@ void CellKernel::evaluate_shapes(unsigned int q) {
 void CellKernel::add_matrix(const CellCoefficients& c,
                             double dt,
                             FullMatrix<double>& out) {
+  update_cell_values();
   const unsigned int n = component_.size();
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);
@@ -105,6 +112,7 @@ void CellKernel::add_matrix(const CellCoefficients& c,
 void CellKernel::add_schur_approximation(const CellCoefficients& c,
                                          double dt,
                                          FullMatrix<double>& out) {
+  update_cell_values();
   const double fixed_stress = c.alpha * c.alpha / (c.lambda + c.mu);
   const unsigned int n = component_.size();
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
@@ -123,6 +131,7 @@ void CellKernel::add_schur_approximation(const CellCoefficients& c,
 }
 
 void CellKernel::add_body_force(const Tensor<1, 2>& b, Vector<double>& out) {
+  update_cell_values();
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     const double w = weight(fe_values_, q);
     for (unsigned int i = 0; i < component_.size(); ++i)
@@ -137,6 +146,7 @@ void CellKernel::add_geostatic_imbalance(
     const std::function<SymmetricTensor<2, 3>(const Point<2>&)>& effective_stress,
     const std::function<double(const Point<2>&)>& pore_pressure,
     Vector<double>& out) {
+  update_cell_values();
   const Tensor<1, 2> weight_density{{0.0, -gamma}};
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);

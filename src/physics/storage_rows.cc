@@ -1,8 +1,9 @@
-// The storage terms of the Biot system, alpha div u + S p tested with the pressure
-// shape functions: the old state's part of each step's right-hand side and the
-// water taken into storage. They depend only on a cell and its material, so each
-// owned cell's rows are integrated once and every step applies them to its local
-// values, with no quadrature.
+// Per-cell integrals kept between steps: they depend only on a cell and its
+// material. The storage terms of the Biot system, alpha div u + S p tested with
+// the pressure shape functions, give the old state's part of each step's
+// right-hand side and the water taken into storage: each owned cell's rows are
+// integrated once and every step applies them to its local values, with no
+// quadrature. Cells that need their whole matrix every step keep its two parts.
 #include "biot_problem_impl.h"
 
 #include "settlewell/core/errors.h"
@@ -51,6 +52,27 @@ void BiotProblem::Impl::add_storage_terms(const DoFHandler<2>::active_cell_itera
     out(i) += sum;
     row += n;
   }
+}
+
+const FullMatrix<double>&
+BiotProblem::Impl::cell_matrix_at(const DoFHandler<2>::active_cell_iterator& cell,
+                                  double dt) const {
+  auto [entry, is_new] = cell_matrix_parts.try_emplace(cell->active_cell_index());
+  auto& [at_zero, per_dt] = entry->second;
+  if (is_new) {
+    CellKernel kernel(layout, setup.analysis, mapping);
+    const unsigned int n = kernel.dofs_per_cell();
+    kernel.reinit(cell);
+    const CellCoefficients& c = coefficients[cell->material_id()];
+    at_zero.reinit(n, n);
+    kernel.add_matrix(c, 0.0, at_zero);
+    per_dt.reinit(n, n);
+    kernel.add_matrix(c, 1.0, per_dt);
+    per_dt.add(-1.0, at_zero);
+  }
+  cell_matrix_now = at_zero;
+  cell_matrix_now.add(dt, per_dt);
+  return cell_matrix_now;
 }
 
 } // namespace settlewell

@@ -23,8 +23,7 @@ void BiotProblem::Impl::storage_residual(
   out.reinit(owned, comm);
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
-  FullMatrix<double> cell_matrix(n, n);
-  Vector<double> cell_rhs(n), local(n), residual(n);
+  Vector<double> cell_rhs(n), local(n), residual(n), old_state(n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !in_model(cell))
@@ -33,12 +32,10 @@ void BiotProblem::Impl::storage_residual(
     if (std::none_of(dofs.begin(), dofs.end(), wanted))
       continue;
     kernel.reinit(cell);
-    cell_matrix = 0.0;
-    kernel.add_matrix(coefficients[cell->material_id()], dt, cell_matrix);
     cell_rhs = 0.0;
-    add_old_state_and_fluxes(kernel, cell, t, dt, cell_rhs);
+    add_old_state_and_fluxes(kernel, cell, t, dt, old_state, cell_rhs);
     cell->get_dof_values(solution, local);
-    cell_matrix.vmult(residual, local);
+    cell_matrix_at(cell, dt).vmult(residual, local);
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&

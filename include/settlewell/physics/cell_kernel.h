@@ -38,6 +38,8 @@ public:
              AnalysisType analysis,
              const dealii::Mapping<2>& mapping);
 
+  /// Sets the cell. Its values at the quadrature points are computed only when a
+  /// cell integral asks for them: a step's right-hand side mostly needs none.
   void reinit(const dealii::DoFHandler<2>::active_cell_iterator& cell);
   unsigned int dofs_per_cell() const { return fe_values_.dofs_per_cell; }
 
@@ -78,12 +80,14 @@ public:
   double weight(const dealii::FEValuesBase<2>& fv, unsigned int q) const;
 
 private:
+  void update_cell_values();
   void evaluate_shapes(unsigned int q);
 
   const FieldLayout& layout_;
   AnalysisType analysis_;
   dealii::DoFHandler<2>::active_cell_iterator cell_;
   dealii::FEValues<2> fe_values_;
+  bool cell_values_current_ = false;
   dealii::FEFaceValues<2> face_values_;
   std::vector<unsigned int> component_;
   // Shape data at one quadrature point.

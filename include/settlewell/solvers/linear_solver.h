@@ -20,9 +20,11 @@ public:
   /// only to solvers that ask for it (needs_schur_approximation()).
   virtual void set_matrix(const LA::MPI::SparseMatrix& matrix,
                           const LA::MPI::SparseMatrix* schur) = 0;
-  /// Returns the number of iterations (1 for a direct solve).
+  /// Returns the number of iterations (1 for a direct solve). A solver that
+  /// takes_initial_guess() starts from `solution`'s values; the others ignore them.
   virtual unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) = 0;
   virtual bool needs_schur_approximation() const { return false; }
+  virtual bool takes_initial_guess() const { return false; }
 };
 
 /// Sparse direct LU factorisation by MUMPS through PETSc, in serial and in parallel.
