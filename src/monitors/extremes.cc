@@ -1,5 +1,7 @@
 #include "extremes.h"
 
+#include "dof_values.h"
+
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/physics/field_layout.h"
 
@@ -77,10 +79,8 @@ Extremes::Extremes(const RunContext& run) {
 }
 
 double Extremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) {
-  double value = 0.0;
-  for (const auto d : dofs)
-    value = std::max(value, factor * problem.reported_solution()[d]);
-  return Utilities::MPI::max(value, problem.communicator());
+  return Utilities::MPI::max(largest_scaled(problem.reported_solution(), dofs, factor),
+                             problem.communicator());
 }
 
 double Extremes::floor_heave_now(const BiotProblem& problem) const {

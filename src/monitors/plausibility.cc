@@ -1,5 +1,7 @@
 #include "plausibility.h"
 
+#include "dof_values.h"
+
 #include "settlewell/core/units.h"
 #include "settlewell/physics/field_layout.h"
 
@@ -32,16 +34,18 @@ double model_height(const Mesh& mesh, MPI_Comm comm) {
 } // namespace
 
 Plausibility::Plausibility(const RunContext& run)
-    : displacement_dofs_(DoFTools::extract_dofs(run.problem.dof_handler(),
-                                                run.problem.layout().displacement_mask()))
-    , height_(model_height(run.problem.mesh(), run.problem.communicator()))
-    , limit_(0.05 * height_) {}
+    : height_(model_height(run.problem.mesh(), run.problem.communicator()))
+    , limit_(0.05 * height_) {
+  const IndexSet owned = DoFTools::extract_dofs(run.problem.dof_handler(),
+                                                run.problem.layout().displacement_mask());
+  displacement_dofs_.assign(owned.begin(), owned.end());
+}
 
 std::vector<double> Plausibility::after_step(const RunView& view) {
   const auto& u = view.run.problem.reported_solution();
   double largest = 0.0;
-  for (const auto i : displacement_dofs_)
-    largest = std::max(largest, std::abs(double(u(i))));
+  for (const double x : values_at(u, displacement_dofs_))
+    largest = std::max(largest, std::abs(x));
   largest = Utilities::MPI::max(largest, view.comm());
   largest_ = std::max(largest_, largest);
   if (largest > limit_ && steps_over_++ == 0 &&

@@ -20,9 +20,9 @@ public:
   void visit_state(StateArchive& a) override;
 
 private:
-  dealii::IndexSet displacement_dofs_; ///< owned
-  double height_ = 0.0, limit_ = 0.0;  ///< m
-  double largest_ = 0.0;               ///< m, over the steps so far
+  std::vector<dealii::types::global_dof_index> displacement_dofs_; ///< owned
+  double height_ = 0.0, limit_ = 0.0;                              ///< m
+  double largest_ = 0.0; ///< m, over the steps so far
   std::size_t steps_over_ = 0;
 };
 

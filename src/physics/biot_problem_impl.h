@@ -58,11 +58,11 @@ struct BiotProblem::Impl {
                                 Vector<double>& old_state,
                                 Vector<double>& cell_rhs) const;
   /// The unconstrained storage-equation residual (row times solution minus
-  /// right-hand side) of a solve at (t, dt), at the pressure dofs `wanted` keeps:
+  /// right-hand side) of a solve at (t, dt), at the pressure dofs in `wanted`:
   /// dt times the water leaving through each. Owned entries. Collective.
   void storage_residual(double t,
                         double dt,
-                        const std::function<bool(types::global_dof_index)>& wanted,
+                        const std::set<types::global_dof_index>& wanted,
                         LA::MPI::Vector& out) const;
   /// Water leaving through a set of prescribed-pressure dofs in the last step, m^3/s.
   double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;

@@ -56,8 +56,7 @@ bool BiotProblem::Impl::update_draining(double t, double dt) {
   if (Utilities::MPI::sum(exposed.size(), comm) == 0)
     return false;
   LA::MPI::Vector residual;
-  storage_residual(
-      t, dt, [&](types::global_dof_index d) { return draining.count(d) != 0; }, residual);
+  storage_residual(t, dt, draining, residual);
   // Tolerances: water entering below 1e-9 of the largest outflow of the surface is
   // round-off; so is a pressure within 1e-8 kPa of its limit.
   double largest = 0.0;
