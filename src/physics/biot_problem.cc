@@ -299,7 +299,7 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
       // Prescribed values enter the right-hand side through the cell matrix;
       // only cells that touch them need it.
       constraints.distribute_local_to_global(cell_rhs, dofs, rhs,
-                                             cell_matrix_at(cell, dt));
+                                             cell_matrix_at(kernel, cell, dt));
     } else {
       constraints.distribute_local_to_global(cell_rhs, dofs, rhs);
     }

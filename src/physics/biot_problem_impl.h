@@ -95,9 +95,11 @@ struct BiotProblem::Impl {
   /// An owned cell's matrix at time step dt, from its two parts (the matrix is
   /// A0 + dt A1) integrated at the first call and kept. For the cells that need a
   /// matrix every step (prescribed values, water-balance lines): a boundary's
-  /// worth, so the memory stays small.
+  /// worth, so the memory stays small. `kernel` is already set to `cell`.
   const FullMatrix<double>&
-  cell_matrix_at(const DoFHandler<2>::active_cell_iterator& cell, double dt) const;
+  cell_matrix_at(CellKernel& kernel,
+                 const DoFHandler<2>::active_cell_iterator& cell,
+                 double dt) const;
   /// cell_matrix_at's parts by active cell index, and its result. Mutable: a
   /// cache behind const queries (water balance), filled on first use.
   mutable std::unordered_map<unsigned int,

@@ -55,14 +55,13 @@ void BiotProblem::Impl::add_storage_terms(const DoFHandler<2>::active_cell_itera
 }
 
 const FullMatrix<double>&
-BiotProblem::Impl::cell_matrix_at(const DoFHandler<2>::active_cell_iterator& cell,
+BiotProblem::Impl::cell_matrix_at(CellKernel& kernel,
+                                  const DoFHandler<2>::active_cell_iterator& cell,
                                   double dt) const {
   auto [entry, is_new] = cell_matrix_parts.try_emplace(cell->active_cell_index());
   auto& [at_zero, per_dt] = entry->second;
   if (is_new) {
-    CellKernel kernel(layout, setup.analysis, mapping);
     const unsigned int n = kernel.dofs_per_cell();
-    kernel.reinit(cell);
     const CellCoefficients& c = coefficients[cell->material_id()];
     at_zero.reinit(n, n);
     kernel.add_matrix(c, 0.0, at_zero);

@@ -44,7 +44,7 @@ void BiotProblem::Impl::storage_residual(double t,
     cell_rhs = 0.0;
     add_old_state_and_fluxes(kernel, cell, t, dt, old_state, cell_rhs);
     cell->get_dof_values(solution, local);
-    cell_matrix_at(cell, dt).vmult(residual, local);
+    cell_matrix_at(kernel, cell, dt).vmult(residual, local);
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
