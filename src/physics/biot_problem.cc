@@ -9,6 +9,8 @@
 #include <deal.II/lac/dynamic_sparsity_pattern.h>
 #include <deal.II/lac/sparsity_tools.h>
 
+#include <petscmat.h>
+
 #include <algorithm>
 #include <cmath>
 #include <map>
@@ -99,6 +101,7 @@ void BiotProblem::Impl::choose_solver() {
                           dof_handler.n_dofs() > setup.direct_limit);
   if (!iterative) {
     solver = make_direct_solver(comm);
+    set_row_signs();
     return;
   }
   const IndexSet u = DoFTools::extract_dofs(dof_handler, layout.displacement_mask());
@@ -112,6 +115,30 @@ void BiotProblem::Impl::choose_solver() {
   coupling.fill(DoFTools::none);
   coupling(FieldLayout::pressure, FieldLayout::pressure) = DoFTools::always;
   reinit_distributed(schur, coupling);
+}
+
+void BiotProblem::Impl::set_row_signs() {
+  if (!solver->wants_symmetric_form())
+    return;
+  row_signs.reinit(owned, comm);
+  row_signs = 1.0;
+  for (const auto d :
+       DoFTools::extract_dofs(dof_handler, layout.mask_of(FieldLayout::pressure)))
+    row_signs(d) = -1.0;
+  row_signs.compress(VectorOperation::insert);
+}
+
+void BiotProblem::Impl::give_matrix_to_solver() {
+  if (row_signs.size() > 0 &&
+      MatDiagonalScale(matrix.petsc_matrix(), row_signs, nullptr) != 0)
+    throw InternalError("negating the pressure rows of the system matrix failed");
+  solver->set_matrix(matrix, solver->needs_schur_approximation() ? &schur : nullptr);
+}
+
+unsigned int BiotProblem::Impl::solve_system() {
+  if (row_signs.size() > 0)
+    rhs.scale(row_signs);
+  return solver->solve(rhs, owned_solution);
 }
 
 std::vector<double>
@@ -384,7 +411,7 @@ void BiotProblem::Impl::solve_step(double t_new,
   report.assembly_seconds += timer.wall_time();
   if (new_matrix) {
     timer.restart();
-    solver->set_matrix(matrix, solver->needs_schur_approximation() ? &schur : nullptr);
+    give_matrix_to_solver();
     matrix_dt = dt;
     matrix_pressures = pressures_now;
     matrix_draining = draining;
@@ -396,7 +423,7 @@ void BiotProblem::Impl::solve_step(double t_new,
   // after the solve): a start that keeps them would begin with a large residual.
   if (solver->takes_initial_guess())
     constraints.set_zero(owned_solution);
-  report.iterations += solver->solve(rhs, owned_solution);
+  report.iterations += solve_system();
   constraints.distribute(owned_solution);
   solution = owned_solution;
   report.solve_seconds += timer.wall_time();

@@ -70,6 +70,14 @@ struct BiotProblem::Impl {
   /// For a solver that iterates from a start: puts in owned_solution the last
   /// solution extrapolated linearly to a step of length dt from the one before.
   void guess_next(double dt);
+  /// Sets row_signs if the solver wants the symmetric form of the system.
+  void set_row_signs();
+  /// Hands the assembled matrix (and Schur approximation) to the solver, its
+  /// pressure rows negated first if the solver wants the symmetric form.
+  void give_matrix_to_solver();
+  /// Solves for owned_solution with rhs (negated like the matrix). Returns the
+  /// solver's iterations.
+  unsigned int solve_system();
   /// One assembly and solve of the step to t_new (matrix rebuilt when needed).
   void solve_step(double t_new, double dt, bool new_geometry, StepReport& report);
   void assemble_matrix(double dt);
@@ -158,6 +166,9 @@ struct BiotProblem::Impl {
   LA::MPI::SparseMatrix matrix;
   LA::MPI::SparseMatrix schur; ///< pressure-block preconditioner (iterative solver only)
   LA::MPI::Vector rhs, owned_solution, solution, old_solution;
+  /// Owned: +1 in displacement rows, -1 in pressure rows; empty unless the solver
+  /// wants the symmetric form. Matrix and rhs are scaled by it before a solve.
+  LA::MPI::Vector row_signs;
   std::unique_ptr<LinearSolver> solver;
   std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
   std::vector<double> unit_weights; ///< by region id, kN/m^3 (with excavation only)

@@ -62,12 +62,11 @@ StepReport BiotProblem::settle_under_gravity() {
   m.rhs.compress(VectorOperation::add);
   report.assembly_seconds = timer.wall_time();
   timer.restart();
-  m.solver->set_matrix(m.matrix,
-                       m.solver->needs_schur_approximation() ? &m.schur : nullptr);
+  m.give_matrix_to_solver();
   report.factorisation_seconds = timer.wall_time();
   report.new_matrix = true;
   timer.restart();
-  report.iterations = m.solver->solve(m.rhs, m.owned_solution);
+  report.iterations = m.solve_system();
   m.constraints.distribute(m.owned_solution);
   m.solution = m.owned_solution;
   report.solve_seconds = timer.wall_time();

@@ -25,9 +25,14 @@ public:
   virtual unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) = 0;
   virtual bool needs_schur_approximation() const { return false; }
   virtual bool takes_initial_guess() const { return false; }
+  /// Whether the solver is given the system with its pressure rows (matrix and
+  /// right-hand side) negated: the Biot system is then symmetric (indefinite),
+  /// which a symmetric factorisation needs.
+  virtual bool wants_symmetric_form() const { return false; }
 };
 
-/// Sparse direct LU factorisation by MUMPS through PETSc, in serial and in parallel.
+/// Sparse direct symmetric-indefinite (LDL^T) factorisation by MUMPS through
+/// PETSc, in serial and in parallel; it takes the symmetric form of the system.
 /// Extra PETSc options may be given with the prefix `settlewell_direct_`.
 std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm);
 
