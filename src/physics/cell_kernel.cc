@@ -43,9 +43,12 @@ CellKernel::CellKernel(const FieldLayout& layout,
     , hoop_(layout.fe.n_dofs_per_cell())
     , divergence_(layout.fe.n_dofs_per_cell())
     , phi_p_(layout.fe.n_dofs_per_cell())
-    , grad_p_(layout.fe.n_dofs_per_cell()) {
-  for (unsigned int i = 0; i < component_.size(); ++i)
+    , grad_p_(layout.fe.n_dofs_per_cell())
+    , local_(layout.fe.n_dofs_per_cell(), layout.fe.n_dofs_per_cell()) {
+  for (unsigned int i = 0; i < component_.size(); ++i) {
     component_[i] = layout.fe.system_to_component_index(i).first;
+    (layout.is_displacement(component_[i]) ? u_dofs_ : p_dofs_).push_back(i);
+  }
 }
 
 void CellKernel::reinit(const DoFHandler<2>::active_cell_iterator& cell) {
@@ -84,29 +87,52 @@ void CellKernel::add_matrix(const CellCoefficients& c,
                             double dt,
                             FullMatrix<double>& out) {
   update_cell_values();
-  const unsigned int n = component_.size();
+  // The blocks A and S M + dt H are symmetric and the coupling blocks are each
+  // other's negated transpose: the lower triangle is integrated and mirrored.
+  local_ = 0.0;
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);
     const double w = weight(fe_values_, q);
-    for (unsigned int i = 0; i < n; ++i) {
-      const bool ui = layout_.is_displacement(component_[i]);
-      for (unsigned int j = 0; j < n; ++j) {
-        const bool uj = layout_.is_displacement(component_[j]);
-        double a;
-        if (ui && uj)
-          a = c.lambda * divergence_[i] * divergence_[j] +
-              2.0 * c.mu * (strain_[i] * strain_[j] + hoop_[i] * hoop_[j]);
-        else if (ui)
-          a = -c.alpha * divergence_[i] * phi_p_[j];
-        else if (uj)
-          a = c.alpha * phi_p_[i] * divergence_[j];
-        else
-          a = c.storage * phi_p_[i] * phi_p_[j] +
-              dt * (grad_p_[i] * (c.mobility * grad_p_[j]));
-        out(i, j) += a * w;
+    for (unsigned int a = 0; a < u_dofs_.size(); ++a) {
+      const unsigned int i = u_dofs_[a];
+      const double lambda_div = c.lambda * divergence_[i] * w;
+      const double two_mu = 2.0 * c.mu * w;
+      for (unsigned int b = 0; b <= a; ++b) {
+        const unsigned int j = u_dofs_[b];
+        local_(i, j) += lambda_div * divergence_[j] +
+                        two_mu * (strain_[i] * strain_[j] + hoop_[i] * hoop_[j]);
+      }
+      const double alpha_div = c.alpha * divergence_[i] * w;
+      for (const unsigned int j : p_dofs_)
+        local_(j, i) += alpha_div * phi_p_[j];
+    }
+    for (unsigned int a = 0; a < p_dofs_.size(); ++a) {
+      const unsigned int i = p_dofs_[a];
+      const Tensor<1, 2> flux = dt * w * (c.mobility * grad_p_[i]);
+      const double stored = c.storage * phi_p_[i] * w;
+      for (unsigned int b = 0; b <= a; ++b) {
+        const unsigned int j = p_dofs_[b];
+        local_(i, j) += stored * phi_p_[j] + flux * grad_p_[j];
       }
     }
   }
+  mirror_into(out);
+}
+
+void CellKernel::mirror_into(FullMatrix<double>& out) const {
+  for (const auto* block : {&u_dofs_, &p_dofs_})
+    for (unsigned int a = 0; a < block->size(); ++a)
+      for (unsigned int b = 0; b <= a; ++b) {
+        const unsigned int i = (*block)[a], j = (*block)[b];
+        out(i, j) += local_(i, j);
+        if (i != j)
+          out(j, i) += local_(i, j);
+      }
+  for (const unsigned int i : u_dofs_)
+    for (const unsigned int j : p_dofs_) {
+      out(j, i) += local_(j, i);
+      out(i, j) -= local_(j, i);
+    }
 }
 
 void CellKernel::add_schur_approximation(const CellCoefficients& c,

@@ -82,6 +82,9 @@ public:
 private:
   void update_cell_values();
   void evaluate_shapes(unsigned int q);
+  /// Adds local_ to `out`: its lower triangle in the A and S M + dt H blocks,
+  /// mirrored; its alpha B block, and that block's negated transpose.
+  void mirror_into(dealii::FullMatrix<double>& out) const;
 
   const FieldLayout& layout_;
   AnalysisType analysis_;
@@ -90,10 +93,12 @@ private:
   bool cell_values_current_ = false;
   dealii::FEFaceValues<2> face_values_;
   std::vector<unsigned int> component_;
+  std::vector<unsigned int> u_dofs_, p_dofs_; ///< local indices of each field
   // Shape data at one quadrature point.
   std::vector<dealii::SymmetricTensor<2, 2>> strain_;
   std::vector<double> hoop_, divergence_, phi_p_;
   std::vector<dealii::Tensor<1, 2>> grad_p_;
+  dealii::FullMatrix<double> local_; ///< add_matrix's lower triangle
 };
 
 } // namespace settlewell
