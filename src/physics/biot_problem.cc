@@ -9,8 +9,6 @@
 #include <deal.II/lac/dynamic_sparsity_pattern.h>
 #include <deal.II/lac/sparsity_tools.h>
 
-#include <petscmat.h>
-
 #include <algorithm>
 #include <cmath>
 #include <map>
@@ -129,9 +127,8 @@ void BiotProblem::Impl::set_row_signs() {
 }
 
 void BiotProblem::Impl::give_matrix_to_solver() {
-  if (row_signs.size() > 0 &&
-      MatDiagonalScale(matrix.petsc_matrix(), row_signs, nullptr) != 0)
-    throw InternalError("negating the pressure rows of the system matrix failed");
+  if (row_signs.size() > 0)
+    scale_rows(matrix, row_signs);
   solver->set_matrix(matrix, solver->needs_schur_approximation() ? &schur : nullptr);
 }
 

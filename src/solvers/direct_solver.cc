@@ -60,6 +60,11 @@ std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm) {
   return std::make_unique<MumpsSolver>(comm);
 }
 
+void scale_rows(LA::MPI::SparseMatrix& matrix, const LA::MPI::Vector& factors) {
+  petsc_check(MatDiagonalScale(matrix.petsc_matrix(), factors, nullptr),
+              "scaling the rows of the system matrix");
+}
+
 void add_petsc_options(const std::string& options) {
   if (!options.empty())
     petsc_check(PetscOptionsInsertString(nullptr, options.c_str()),

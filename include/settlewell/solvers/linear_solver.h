@@ -52,6 +52,10 @@ make_iterative_solver(MPI_Comm comm,
                       const std::vector<double>& coordinates,
                       double relative_tolerance);
 
+/// Multiplies each row i of `matrix` by factors(i) (PETSc's MatDiagonalScale):
+/// with +1 and -1 it gives a solver the symmetric form of the system.
+void scale_rows(LA::MPI::SparseMatrix& matrix, const LA::MPI::Vector& factors);
+
 /// Passes a string of PETSc options (for experts) to PETSc's options database.
 void add_petsc_options(const std::string& options);
 
