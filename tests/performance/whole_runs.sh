@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Whole runs, every step and factorisation included: the examples at their own
-# mesh and the basement pit refined to levels 0..MAX_LEVEL with the direct solver
-# (and to ITERATIVE_MAX_LEVEL with the iterative one), on one and two processes.
+# mesh, the layered box of layered-box.toml, and the basement pit refined to
+# levels 0..MAX_LEVEL with the direct solver (and to ITERATIVE_MAX_LEVEL with the
+# iterative one) on one and two processes.
 # Each run's steps.csv gives its time per part; a matrix-vector product timed by
 # settlewell_benchmark on the same mesh and process count turns the solver's
 # share (assembly, factorisations, solves) and the whole run's wall time into
@@ -26,6 +27,7 @@ matvec() {
 whole_run() {
   local np=$1 scenario=$2 level=$3 solver=$4 name out peak product
   name=$(basename "$(dirname "$scenario")")
+  [ "$name" = performance ] && name=$(basename "$scenario" .toml)
   out="$work/$name-$level-$solver-$np"
   # Peak resident memory of each process (KB) on stderr, summed.
   "${mpi[@]}" -np "$np" /usr/bin/time -f "peak_kb=%M" "$build/settlewell" run "$scenario" \
@@ -54,6 +56,7 @@ echo "| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | --- | 
 for example in basement-pit shaft layered-column dug-pit; do
   whole_run 1 "examples/$example/scenario.toml" 0 direct
 done
+whole_run 1 tests/performance/layered-box.toml 0 direct
 for level in $(seq 0 "$max_level"); do
   for np in 1 2; do
     whole_run "$np" examples/basement-pit/scenario.toml "$level" direct
