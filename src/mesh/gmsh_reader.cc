@@ -58,16 +58,17 @@ Mesh mesh_from_current_model(const std::string& source, MPI_Comm comm, bool user
 /// Refuses a model whose estimated memory exceeds the machine's share for runs
 /// (scenario::largest_memory_share), before Gmsh or deal.II allocate it.
 /// Unknowns: about 9.3 per cell (Q2 displacement, Q1 pressure; the examples give
-/// 9.2). Memory: 0.2 GB of libraries and 8 kB per unknown, twice the 4.0 kB
-/// measured on the basement-pit example between 22 530 and 89 121 unknowns (peak
-/// resident 268 and 533 MB), as a direct factorisation fills in faster than the
-/// unknowns grow.
+/// 9.2). Memory: 0.2 GB of libraries and 6 kB per unknown, about twice what the
+/// basement-pit example needs beyond the libraries with the LDL^T factorisation:
+/// 2.7 and 2.8 kB at 354 495 and 1 414 011 unknowns on one process (peak resident
+/// 1153 and 4229 MB), 3.3 kB at 1 414 011 on two. A factorisation fills in faster
+/// than the unknowns grow, hence the margin.
 void check_model_size(const scenario::Scenario& s, double coarse_cells) {
   if (s.numerics.allow_large)
     return;
   const double cells = coarse_cells * std::pow(4.0, s.numerics.refinements);
   const double unknowns = 9.3 * cells;
-  const double bytes = 0.2e9 + 8e3 * unknowns;
+  const double bytes = 0.2e9 + 6e3 * unknowns;
   const double memory = double(sysconf(_SC_PHYS_PAGES)) * double(sysconf(_SC_PAGE_SIZE));
   if (!(memory > 0.0) || bytes <= scenario::largest_memory_share * memory)
     return;

@@ -378,16 +378,16 @@ StepReport BiotProblem::advance_to(double t_new) {
 void BiotProblem::Impl::guess_next(double dt) {
   if (!solver->takes_initial_guess())
     return;
-  const bool have_two = last_dt > 0.0 && solution_before.size() == owned_solution.size();
-  if (!have_two)
-    solution_before.reinit(owned_solution); // same layout, for the swap below
-  LA::MPI::Vector last(owned_solution);
-  if (have_two) {
-    // x_n + r (x_n - x_{n-1}), r = dt / dt_n: the trend of the last step carried on.
+  if (last_dt > 0.0 && solution_before.size() == owned_solution.size()) {
+    // x_n + r (x_n - x_{n-1}), r = dt / dt_n: the trend of the last step carried
+    // on, formed in solution_before; the swap leaves x_n there for the next step.
     const double r = dt / last_dt;
-    owned_solution.sadd(1.0 + r, -r, solution_before);
+    solution_before.sadd(-r, 1.0 + r, owned_solution);
+    solution_before.swap(owned_solution);
+  } else {
+    solution_before.reinit(owned_solution); // same layout (allocated once)
+    solution_before = owned_solution;
   }
-  solution_before.swap(last);
   last_dt = dt;
 }
 
