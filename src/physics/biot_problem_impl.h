@@ -73,7 +73,8 @@ struct BiotProblem::Impl {
   /// Sets row_signs if the solver wants the symmetric form of the system.
   void set_row_signs();
   /// Hands the assembled matrix (and Schur approximation) to the solver, its
-  /// pressure rows negated first if the solver wants the symmetric form.
+  /// pressure rows negated first, in place, if the solver wants the symmetric
+  /// form: call it once after each assemble_matrix.
   void give_matrix_to_solver();
   /// Solves for owned_solution with rhs (negated like the matrix). Returns the
   /// solver's iterations.

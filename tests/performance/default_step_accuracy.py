@@ -8,7 +8,7 @@ early times:
 
   - terzaghi-column: surface settlement against S = mv u0 H U(Tv) and the excess
     pore pressure near the drained face (z/H = 0.1) and at mid-depth, from the
-    series of Terzaghi (1925) (as in Taylor 1948, eq. 10.11 and 10.13);
+    series of Terzaghi (1925) (as given in Taylor 1948; from memory);
   - theis-well: drawdown at r = 2, 10 and 30 m against Theis (1935),
     s = Q/(4 pi T) W(u), u = r^2 S/(4 T t), W the exponential integral E1.
 
@@ -53,7 +53,8 @@ def excess(Z, Tv):
 
 
 def well_function(u):
-    """E1(u) by its series (Abramowitz & Stegun 1964, 5.1.11); u < 5 here."""
+    """E1(u) by its power series (Abramowitz & Stegun 1964, 5.1.11, from memory);
+    u < 5 here."""
     total, term = -0.5772156649015329 - math.log(u), 1.0
     for k in range(1, 300):
         term *= -u / k
