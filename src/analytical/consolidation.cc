@@ -5,6 +5,7 @@
 
 #include <cmath>
 #include <stdexcept>
+#include <utility>
 
 namespace settlewell::analytical {
 
@@ -46,15 +47,27 @@ double terzaghi_excess_ratio(double Z, double Tv) {
   return sum;
 }
 
-double terzaghi_excess_ratio_backward_euler(double Z, double dT, unsigned int n_steps) {
-  // Terms fall as M^-(1 + 2n); stop when they are negligible.
+double terzaghi_excess_ratio_stepped(double Z,
+                                     double dT,
+                                     unsigned int n_steps,
+                                     unsigned int euler_steps) {
+  if (n_steps == 0)
+    return 1.0;
+  // Under BDF2 a fast mode's amplitude oscillates as it falls: stop after a run of
+  // negligible terms, not at the first.
   double sum = 0.0;
-  for (unsigned int m = 0; m < 2000000; ++m) {
-    const double M = mode(m);
-    const double term = 2.0 / M * std::pow(1.0 + M * M * dT, -double(n_steps));
+  unsigned int negligible = 0;
+  for (unsigned int m = 0; m < 2000000 && negligible < 20; ++m) {
+    const double M = mode(m), lambda = M * M * dT;
+    double before = 1.0, now = 1.0 / (1.0 + lambda);
+    for (unsigned int k = 1; k < n_steps; ++k)
+      before = std::exchange(now, k < euler_steps
+                                      ? now / (1.0 + lambda)
+                                      : (4.0 * now - before) / (3.0 + 2.0 * lambda));
+    const double term = 2.0 / M * now;
     sum += term * std::sin(M * Z);
-    if (m > 10 && term < 1e-16)
-      break;
+    const bool small = std::abs(term) < 1e-16 && 2.0 / M * std::abs(before) < 1e-16;
+    negligible = m > 10 && small ? negligible + 1 : 0;
   }
   return sum;
 }

@@ -60,12 +60,13 @@ std::vector<double> stage_output_times(const StageTimes& st,
 }
 
 /// The steps of a stage, by default from a thousandth of it to a fortieth, and to a
-/// hundredth of a ramp inside it. Implicit Euler applies each step's end value over
-/// the whole step, which leads a ramped change by about half a step (with a
-/// twentieth of the ramp the layered-column example ran 3 % ahead of the hand
-/// solution; with a hundredth, under 1 %). With a tenth of the stage the demo's
-/// histories were up to 1.2 % from a run with four times the steps; with a fortieth,
-/// 0.4 % (tests/smoke/ladder_accuracy.py); steps on a rung are cheap.
+/// hundredth of a ramp inside it. They were chosen for implicit Euler, which leads a
+/// ramped change by about half a step (with a twentieth of the ramp the
+/// layered-column example ran 3 % ahead of the hand solution; with a hundredth,
+/// under 1 %; with a tenth of the stage the demo's histories were up to 1.2 % from a
+/// run with four times the steps, with a fortieth 0.4 %: tests/smoke/
+/// ladder_accuracy.py). BDF2 (physics/step_weights.h) is more accurate on the same
+/// steps; fewer steps by default have not been measured yet.
 Ladder stage_ladder(const StageTimes& st, const scenario::TimeSteps& steps) {
   const double duration = st.end - st.start, ramp = st.ramp_end - st.start;
   Ladder ladder;

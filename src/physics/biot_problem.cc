@@ -3,6 +3,7 @@
 #include "biot_problem_impl.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/physics/step_weights.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/timer.h>
@@ -351,19 +352,25 @@ StepReport BiotProblem::advance_to(double t_new) {
   report.time = t_new;
   report.dt = dt;
   report.drain_rounds = 0;
-  m.old_solution = m.solution;
-  m.guess_next(dt);
   bool new_geometry = m.excavate(m.time);
   new_geometry = m.fit_springs(m.time) || new_geometry;
   if (new_geometry)
     m.find_exposed();
+  // Cells taken out or props fitted change what the old states mean: start again
+  // with implicit Euler.
+  const StepWeights weights =
+      next_step_weights(dt, new_geometry ? 0.0 : m.previous_dt, m.euler_steps_left);
+  const double dt_eff = weights.effective_dt;
+  m.form_old_state(weights.previous_weight);
+  m.shift_history(dt);
+  m.effective_dt = dt_eff;
   // A drained surface may need several solves until the set of draining dofs
   // settles; without one, the loop runs once.
   constexpr unsigned int max_drain_rounds = 30;
   while (true) {
-    m.solve_step(t_new, dt, new_geometry, report);
+    m.solve_step(t_new, dt_eff, new_geometry, report);
     new_geometry = false;
-    if (!m.update_draining(t_new, dt))
+    if (!m.update_draining(t_new, dt_eff))
       break;
     if (report.drain_rounds == max_drain_rounds) {
       report.drains_settled = false; // keeps the last solve
@@ -375,20 +382,30 @@ StepReport BiotProblem::advance_to(double t_new) {
   return report;
 }
 
-void BiotProblem::Impl::guess_next(double dt) {
-  if (!solver->takes_initial_guess())
+void BiotProblem::Impl::form_old_state(double previous_weight) {
+  if (previous_weight == 0.0) {
+    old_solution = solution;
     return;
-  if (last_dt > 0.0 && solution_before.size() == owned_solution.size()) {
-    // x_n + r (x_n - x_{n-1}), r = dt / dt_n: the trend of the last step carried
-    // on, formed in solution_before; the swap leaves x_n there for the next step.
-    const double r = dt / last_dt;
-    solution_before.sadd(-r, 1.0 + r, owned_solution);
-    solution_before.swap(owned_solution);
-  } else {
-    solution_before.reinit(owned_solution); // same layout (allocated once)
-    solution_before = owned_solution;
   }
-  last_dt = dt;
+  // rhs is free until the step assembles it: (1 - c) x_n + c x_{n-1} formed there.
+  rhs = owned_solution;
+  rhs.sadd(1.0 - previous_weight, previous_weight, previous_solution);
+  old_solution = rhs;
+}
+
+void BiotProblem::Impl::shift_history(double dt) {
+  if (previous_dt > 0.0 && solver->takes_initial_guess()) {
+    // x_n + r (x_n - x_{n-1}), r = dt / dt_n: the trend of the last step carried
+    // on, formed in previous_solution; the swap leaves x_n there for the next step.
+    const double r = dt / previous_dt;
+    previous_solution.sadd(-r, 1.0 + r, owned_solution);
+    previous_solution.swap(owned_solution);
+  } else {
+    if (previous_solution.size() != owned_solution.size())
+      previous_solution.reinit(owned_solution); // same layout (allocated once)
+    previous_solution = owned_solution;
+  }
+  previous_dt = dt;
 }
 
 void BiotProblem::Impl::solve_step(double t_new,

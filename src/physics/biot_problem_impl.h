@@ -67,9 +67,13 @@ struct BiotProblem::Impl {
   /// Water leaving through a set of prescribed-pressure dofs in the last step, m^3/s.
   double reaction_outflow(const std::set<types::global_dof_index>& dofs) const;
   double prescribed_outflow(const FluxBoundary& flux) const;
-  /// For a solver that iterates from a start: puts in owned_solution the last
-  /// solution extrapolated linearly to a step of length dt from the one before.
-  void guess_next(double dt);
+  /// Sets old_solution to the weighted old state of a step (step_weights): x_n, or
+  /// (1 - c) x_n + c x_{n-1}. Before shift_history.
+  void form_old_state(double previous_weight);
+  /// Keeps x_n as the step's x_{n-1} in previous_solution, and for a solver that
+  /// iterates from a start puts in owned_solution the last solution extrapolated
+  /// linearly to a step of length dt from the one before.
+  void shift_history(double dt);
   /// Sets row_signs if the solver wants the symmetric form of the system.
   void set_row_signs();
   /// Hands the assembled matrix (and Schur approximation) to the solver, its
@@ -217,10 +221,15 @@ struct BiotProblem::Impl {
       line_flux_faces;
   double time = 0.0;
   double matrix_dt = std::numeric_limits<double>::quiet_NaN();
-  /// The solution one step before the last, and the last step's length (0: none
-  /// since the start or a resume). For guess_next.
-  LA::MPI::Vector solution_before;
-  double last_dt = 0.0;
+  /// The solution one step before the last (owned), and the last step's length (0:
+  /// no usable history: the start, or new geometry). For the two-step scheme
+  /// (step_weights) and the iterative solver's start.
+  LA::MPI::Vector previous_solution;
+  double previous_dt = 0.0;
+  unsigned int euler_steps_left = 0; ///< for next_step_weights
+  /// The last step's effective length dt' (step_weights), s: its storage equation
+  /// reads s(solution) - s(old_solution) + dt' (H p - q) = 0.
+  double effective_dt = std::numeric_limits<double>::quiet_NaN();
   std::vector<bool> matrix_pressures; ///< active prescribed pressures of the matrix
 };
 

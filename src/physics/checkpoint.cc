@@ -1,7 +1,8 @@
 // A problem's state in a checkpoint. What lives on cells and dofs goes through
 // deal.II's distributed serialisation (the triangulation's save and load with
 // SolutionTransfer and CellDataTransfer), so that a run may resume on another
-// number of processes: the solution, the drained surface's active set (as a dof
+// number of processes: the solution and the one before it (for BDF2), the drained
+// surface's active set (as a dof
 // vector of flags), the displacement reported movements start from and, per dug
 // cell, the forces it released. The few global
 // values go into the run's state archive. Everything else (matrix, factorisation,
@@ -40,7 +41,9 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   std::vector<bool> excavated = m.excavated;
   std::vector<double> fitted = m.spring_fitted_at;
   bool settled = m.settled, has_reference = m.has_reference;
-  a& time& excavated& fitted& settled& has_reference;
+  double previous_dt = m.previous_dt;
+  unsigned int euler_steps_left = m.euler_steps_left;
+  a& time& excavated& fitted& settled& has_reference& previous_dt& euler_steps_left;
 
   LA::MPI::Vector owned_flags(m.owned, m.comm);
   for (const auto d : m.draining)
@@ -52,9 +55,13 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   LA::MPI::Vector reference(m.owned, m.relevant, m.comm);
   if (m.has_reference)
     reference = m.reference;
+  // The step before (for the two-step scheme), zero if there is none.
+  LA::MPI::Vector previous(m.owned, m.relevant, m.comm);
+  if (m.previous_dt > 0.0)
+    previous = m.previous_solution;
   DofTransfer dofs(m.dof_handler);
   dofs.prepare_for_serialization(
-      std::vector<const LA::MPI::Vector*>{&m.solution, &flags, &reference});
+      std::vector<const LA::MPI::Vector*>{&m.solution, &flags, &reference, &previous});
 
   const auto& tria = triangulation_of(m.mesh);
   CellValues released(tria.n_active_cells());
@@ -73,16 +80,19 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
 void BiotProblem::load_checkpoint(StateArchive& a) {
   Impl& m = *impl_;
   a.mark("biot problem");
-  a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference;
+  a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference& m.previous_dt& m
+      .euler_steps_left;
   if (m.excavated.size() != m.setup.excavation.size() ||
       m.spring_fitted_at.size() != m.setup.springs.size())
     throw InputError("the checkpoint's digging or props do not match the scenario's");
 
   LA::MPI::Vector solution(m.owned, m.comm), owned_flags(m.owned, m.comm),
-      reference(m.owned, m.comm);
+      reference(m.owned, m.comm), previous(m.owned, m.comm);
   DofTransfer dofs(m.dof_handler);
-  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags, &reference};
+  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags, &reference, &previous};
   dofs.deserialize(vectors);
+  m.previous_solution.reinit(m.owned, m.comm);
+  m.previous_solution = previous;
   m.owned_solution = solution;
   m.solution = solution;
   m.old_solution = m.solution;

@@ -72,6 +72,7 @@ StepReport BiotProblem::settle_under_gravity() {
   report.solve_seconds = timer.wall_time();
   std::swap(m.constraints, held);
   m.matrix_dt = std::numeric_limits<double>::quiet_NaN(); // the first step assembles
+  m.previous_dt = 0.0; // and starts with implicit Euler
   m.settled = true;
   set_displacement_reference();
   return report;

@@ -57,12 +57,12 @@ void BiotProblem::Impl::storage_residual(double t,
 double
 BiotProblem::Impl::reaction_outflow(const std::set<types::global_dof_index>& line) const {
   LA::MPI::Vector residual;
-  storage_residual(time, matrix_dt, line, residual);
+  storage_residual(time, effective_dt, line, residual);
   double total = 0.0;
   for (const auto d : line)
     if (owned.is_element(d))
       total += residual(d);
-  return 0.0 - Utilities::MPI::sum(total, comm) / matrix_dt; // no "-0"
+  return 0.0 - Utilities::MPI::sum(total, comm) / effective_dt; // no "-0"
 }
 
 double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
@@ -162,12 +162,12 @@ BiotProblem::WaterExchange BiotProblem::water_exchange() const {
     all.insert(set.begin(), set.end());
   all.insert(m.draining.begin(), m.draining.end());
   LA::MPI::Vector residual;
-  m.storage_residual(m.time, m.matrix_dt, all, residual);
+  m.storage_residual(m.time, m.effective_dt, all, residual);
   WaterExchange local;
   for (const auto d : all)
     if (m.owned.is_element(d)) {
-      local.net_outflow -= residual(d) / m.matrix_dt;
-      local.gross += std::abs(residual(d)) / m.matrix_dt;
+      local.net_outflow -= residual(d) / m.effective_dt;
+      local.gross += std::abs(residual(d)) / m.effective_dt;
     }
   WaterExchange total{Utilities::MPI::sum(local.net_outflow, m.comm),
                       Utilities::MPI::sum(local.gross, m.comm)};
@@ -187,8 +187,11 @@ double BiotProblem::drained_surface_outflow() const {
 
 BiotProblem::StorageChange BiotProblem::storage_change() const {
   // The storage terms are (alpha eps_v + S p) phi_i in the p rows; the Q1 shape
-  // functions sum to one, so the rows sum to the stored volume.
+  // functions sum to one, so the rows sum to the stored volume. The step's scheme
+  // stores s(x_{n+1}) - s(old state) in dt' (step_weights): scaled to the step's
+  // length, that is its storage rate times dt, the same measure as the discharges.
   const Impl& m = *impl_;
+  const double to_step = m.previous_dt / m.effective_dt;
   const unsigned int n = m.layout.fe.n_dofs_per_cell();
   Vector<double> change(n), stored(n);
   StorageChange local;
@@ -204,8 +207,8 @@ BiotProblem::StorageChange BiotProblem::storage_change() const {
     local.net += cell_change;
     local.gross += std::abs(cell_change);
   }
-  return {Utilities::MPI::sum(local.net, m.comm),
-          Utilities::MPI::sum(local.gross, m.comm)};
+  return {to_step * Utilities::MPI::sum(local.net, m.comm),
+          to_step * Utilities::MPI::sum(local.gross, m.comm)};
 }
 
 } // namespace settlewell

@@ -520,8 +520,8 @@ std::string start_text(const toml::table& r) {
 void limits_section(Document& d, const toml::table& r) {
   d.add("Assumptions and limits")
       .list(
-          {"Quasi-static Biot consolidation, Taylor-Hood elements, implicit Euler in "
-           "time; "
+          {"Quasi-static Biot consolidation, Taylor-Hood elements, BDF2 in time "
+           "(implicit Euler at stage starts); "
            "verified against published solutions (settlewell verify).",
            "Conductivity is often uncertain by an order of magnitude; run bounding "
            "cases.",

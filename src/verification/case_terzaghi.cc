@@ -28,9 +28,9 @@ struct ColumnChecks {
 
 // Tolerances, with the reason for each:
 //  - U within 1 %: the target; 24 cells per drainage path growing by 12 %
-//    from the drained face, and 100 implicit-Euler steps per decade of Tv, keep
-//    the measured error below 0.25 % from Tv = 0.005 on. (With 30 steps per
-//    decade the late-time lag of implicit Euler reached 0.8 %.)
+//    from the drained face, and 100 steps per decade of Tv (BDF2), keep the
+//    measured error below 0.25 % from Tv = 0.005 on. (With implicit Euler and 30
+//    steps per decade the late-time lag reached 0.8 %.)
 //  - u/u0 within 0.01 u0: the same resolution; the excess is compared at nodes.
 //  - ultimate settlement within 1e-4: after a last step of dTv = 1e4 the excess
 //    left is below 1e-6 u0, and Q2 displacement is exact for the drained state.

@@ -114,9 +114,9 @@ std::vector<CheckRow> run_theis(const CaseSettings& settings, MPI_Comm comm) {
   auto writer = writer_for(settings, "theis", comm);
   march(problem, times, observe, writer.get(), report);
 
-  // Tolerance 1 % (the target): 100 implicit-Euler steps per decade and
-  // cells growing by 15 % keep the error below about 0.5 % where u < 0.4 (the
-  // largest u checked, at r = 100 m and 0.01 days, is 0.39).
+  // Tolerance 1 % (the target): 100 steps per decade (BDF2) and cells
+  // growing by 15 % keep the error below about 0.5 % where u < 0.4 (the largest u
+  // checked, at r = 100 m and 0.01 days, is 0.39).
   std::vector<CheckRow> rows;
   for (const auto& [key, s] : drawdown) {
     const auto [d, r] = key;

@@ -75,12 +75,12 @@ TEST(ColumnExample, FollowsTheOneDimensionalSolution) {
     const double T = cv * t / (Hdr * Hdr);
     const double expected = settlewell::analytical::olson_average_degree(T, Tc) * S_clay +
                             std::min(1.0, t / ramp) * S_sand;
-    // 2 %: implicit Euler applies each step's end head over the whole step, so it
-    // leads a ramp by about half a step: with the default ramp steps (0.6 days)
-    // that is at most about 2 % of the settlement at day 20, less later; the
-    // largest error measured was 1.5 % (day 20). The mesh (32 cells over the clay)
-    // adds under 0.2 %.
-    EXPECT_NEAR(points.column("settlement_m")[r], expected, 0.02 * expected)
+    // 1 %: BDF2 follows the ramp to second order; the three implicit-Euler steps at
+    // each stage start lead it by about half of a 0.6-day step, under 1 % of the
+    // settlement at day 20 and less later. The largest error measured was 0.64 %
+    // (day 20; 1.5 % with implicit Euler throughout). The mesh (32 cells over the
+    // clay) adds under 0.2 %.
+    EXPECT_NEAR(points.column("settlement_m")[r], expected, 0.01 * expected)
         << "t = " << units::to_days(t) << " days";
     ++checked;
   }
@@ -100,6 +100,11 @@ TEST(UserMesh, RunsWithNamedPhysicalGroups) {
   options.overwrite = true;
   options.show_progress = false;
   const auto summary = simulation.run(options);
-  EXPECT_NEAR(summary.drawdown_anywhere, 2.0, 1e-9); // the lowered boundary itself
+  // The lowered boundary itself, or a little more: BDF2 is not monotone, and after
+  // its three implicit-Euler steps a single mode of a sudden change swings past its
+  // end value by up to 0.27 % of the change (step_weights.h; 0.32 % measured here,
+  // where several modes add). Implicit Euler gave 2 m to 1e-9.
+  EXPECT_GE(summary.drawdown_anywhere, 2.0 - 1e-9);
+  EXPECT_LE(summary.drawdown_anywhere, 2.0 * 1.005);
   EXPECT_GT(summary.settlement_anywhere, 0.0);
 }

@@ -80,13 +80,19 @@ TEST(BiotProblem, TimeMustMoveForward) {
   EXPECT_THROW(problem.advance_to(5.0), InternalError);
 }
 
-TEST(BiotProblem, MatrixIsReusedWhileTheStepIsUnchanged) {
+// The matrix follows the effective step dt' (next_step_weights): three steps of
+// implicit Euler first (dt' = 100), then BDF2 (dt' = 2/3 of 100), and a rung of
+// steps twice as long takes its own matrix at its first step and keeps it.
+TEST(BiotProblem, MatrixIsReusedWhileTheEffectiveStepIsUnchanged) {
   const Mesh mesh = column_mesh();
   BiotProblem problem(mesh, column_setup());
   EXPECT_TRUE(problem.advance_to(100.0).new_matrix);
   EXPECT_FALSE(problem.advance_to(200.0).new_matrix);
   EXPECT_FALSE(problem.advance_to(300.0).new_matrix);
-  EXPECT_TRUE(problem.advance_to(500.0).new_matrix);
+  EXPECT_TRUE(problem.advance_to(400.0).new_matrix);
+  EXPECT_FALSE(problem.advance_to(500.0).new_matrix);
+  EXPECT_TRUE(problem.advance_to(700.0).new_matrix);
+  EXPECT_FALSE(problem.advance_to(900.0).new_matrix);
 }
 
 TEST(BiotProblem, RigidSkeletonHoldsEveryDisplacementAtZero) {

@@ -1,5 +1,6 @@
 #include "settlewell/boundary/time_function.h"
 #include "settlewell/core/errors.h"
+#include "settlewell/physics/step_weights.h"
 #include "settlewell/time/time_grid.h"
 
 #include <gtest/gtest.h>
@@ -105,6 +106,74 @@ TEST(TimeGrid, BadLaddersAreInternalErrors) {
 TEST(TimeGrid, BadArgumentsAreInternalErrors) {
   EXPECT_THROW(log_spaced_times(0.0, 1.0, 10.0), InternalError);
   EXPECT_THROW(uniform_times(1.0, 1.0, 3), InternalError);
+}
+
+namespace {
+
+/// The step's defect for x(t) = t^power, with t_{n+1} = 0: x_{n+1} - dt' x'(t_{n+1})
+/// minus the weighted old state. Zero when the step is exact for that power.
+double defect(const StepWeights& w, double h, double h_previous, int power) {
+  const auto x = [power](double t) { return std::pow(t, power); };
+  const double slope_now = power == 1 ? 1.0 : 0.0; // d/dt t^power at t = 0
+  return x(0.0) - w.effective_dt * slope_now -
+         ((1.0 - w.previous_weight) * x(-h) + w.previous_weight * x(-h - h_previous));
+}
+
+} // namespace
+
+TEST(StepWeights, EulerWithoutHistoryAndBdf2OnEqualSteps) {
+  const StepWeights first = step_weights(3.0, 0.0);
+  EXPECT_DOUBLE_EQ(first.effective_dt, 3.0);
+  EXPECT_DOUBLE_EQ(first.previous_weight, 0.0);
+  EXPECT_FALSE(first.second_order);
+  const StepWeights equal = step_weights(3.0, 3.0);
+  EXPECT_DOUBLE_EQ(equal.effective_dt, 2.0);
+  EXPECT_DOUBLE_EQ(equal.previous_weight, -1.0 / 3.0);
+  EXPECT_TRUE(equal.second_order);
+}
+
+// Every step is consistent (exact for x = t); BDF2's are exact for x = t^2 too,
+// and so is no rung change unless its steps are equal.
+TEST(StepWeights, ConsistentAlwaysAndSecondOrderWhereBdf2) {
+  for (const double h_previous : {0.0, 1.0})
+    for (const double h : {0.1, 0.3, 0.5, 0.95, 1.0, 1.05, 2.0, 2.5, 4.0}) {
+      const StepWeights w = step_weights(h, h_previous);
+      EXPECT_NEAR(defect(w, h, h_previous, 1), 0.0, 1e-14)
+          << h << " after " << h_previous;
+      if (w.second_order)
+        EXPECT_NEAR(defect(w, h, h_previous, 2), 0.0, 1e-14) << h;
+      else
+        EXPECT_GT(std::abs(defect(w, h, h_previous, 2)), 1e-3) << h;
+    }
+}
+
+// The first step of a rung twice as long uses the rung's matrix (dt' = 2h/3) and
+// a sixth of implicit Euler's local error; a ladder starting again far below the
+// last step, or jumping far above it, takes implicit Euler.
+TEST(StepWeights, RungChangesKeepTheRungsMatrix) {
+  const StepWeights up = step_weights(2.0, 1.0);
+  EXPECT_DOUBLE_EQ(up.effective_dt, step_weights(2.0, 2.0).effective_dt);
+  EXPECT_NEAR(std::abs(defect(up, 2.0, 1.0, 2)),
+              std::abs(defect(step_weights(2.0, 0.0), 2.0, 0.0, 2)) / 6.0, 1e-14);
+  EXPECT_DOUBLE_EQ(step_weights(0.2, 1.0).previous_weight, 0.0);
+  EXPECT_DOUBLE_EQ(step_weights(3.0, 1.0).previous_weight, 0.0);
+  EXPECT_THROW(step_weights(0.0, 1.0), InternalError);
+}
+
+// Three implicit-Euler steps from the start and from each restart (a ladder
+// starting again far below the last step), BDF2 after them.
+TEST(StepWeights, ThreeEulerStepsAfterEachRestart) {
+  unsigned int left = 0;
+  const auto is_euler = [](const StepWeights& w) { return w.previous_weight == 0.0; };
+  EXPECT_TRUE(is_euler(next_step_weights(1.0, 0.0, left)));
+  for (int restart = 0; restart < 2; ++restart) {
+    EXPECT_TRUE(is_euler(next_step_weights(1.0, 1.0, left)));
+    EXPECT_TRUE(is_euler(next_step_weights(1.0, 1.0, left)));
+    EXPECT_TRUE(next_step_weights(1.0, 1.0, left).second_order);
+    EXPECT_TRUE(next_step_weights(1.0, 1.0, left).second_order);
+    EXPECT_TRUE(is_euler(next_step_weights(1.0, 10.0, left)));
+  }
+  EXPECT_EQ(left, euler_steps_after_restart - 1);
 }
 
 TEST(TimeFunction, PiecewiseLinearInterpolatesAndHoldsEnds) {

@@ -11,10 +11,16 @@ namespace settlewell::analytical {
 double terzaghi_average_degree(double Tv);
 /// Excess pore pressure ratio u/u0 at Z = z/Hdr (z from the drained face).
 double terzaghi_excess_ratio(double Z, double Tv);
-/// The same series when time is advanced by n backward-Euler steps of dT: each
-/// Fourier mode decays by (1 + M^2 dT)^-n instead of exp(-M^2 T) [derived here:
-/// the eigen-expansion of Terzaghi's series under implicit Euler].
-double terzaghi_excess_ratio_backward_euler(double Z, double dT, unsigned int n_steps);
+/// The same series when time is advanced by n equal steps of dT as the model takes
+/// them (next_step_weights): `euler_steps` implicit-Euler steps (at least one),
+/// then BDF2. Each Fourier mode's amplitude a_k falls by 1 / (1 + M^2 dT) in an
+/// Euler step and follows a_{k+1} = (4 a_k - a_{k-1}) / (3 + 2 M^2 dT) in a BDF2
+/// step, instead of exp(-M^2 T) [derived here: the eigen-expansion of Terzaghi's
+/// series under that scheme].
+double terzaghi_excess_ratio_stepped(double Z,
+                                     double dT,
+                                     unsigned int n_steps,
+                                     unsigned int euler_steps);
 /// Tv at which U reaches the given value (0 < U < 1), a root of the series.
 double terzaghi_time_factor(double U);
 

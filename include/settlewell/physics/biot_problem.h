@@ -27,10 +27,12 @@ struct StepReport {
   double solve_seconds = 0.0;
 };
 
-/// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, implicit
-/// Euler in time. Unknowns are the displacement and the excess pore pressure
-/// (change from the initial state) at the current time. The matrix depends only on
-/// dt; it is assembled and factorised once per distinct dt and reused.
+/// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, BDF2 in time
+/// (implicit Euler where a step has no usable history; see step_weights). Unknowns
+/// are the displacement and the excess pore pressure (change from the initial
+/// state) at the current time. The matrix depends only on the effective step dt'
+/// (2/3 of a step on a rung of equal steps); it is assembled and factorised once per
+/// distinct dt' and reused.
 class BiotProblem {
 public:
   /// Checks the setup against the mesh (names, materials) and distributes dofs.
@@ -40,7 +42,8 @@ public:
   BiotProblem(const BiotProblem&) = delete;
   BiotProblem& operator=(const BiotProblem&) = delete;
 
-  /// One implicit-Euler step from time() to t_new (s). Collective.
+  /// One step from time() to t_new (s): BDF2 after a step (step_weights), implicit
+  /// Euler at the start and after cells are dug or props fitted. Collective.
   StepReport advance_to(double t_new);
 
   /// The gravity-loading start (setup().gravity_loading), before the first step: a

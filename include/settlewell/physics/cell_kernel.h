@@ -26,10 +26,11 @@ struct CellCoefficients {
   static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
 };
 
-/// Per-cell integrals of the implicit-Euler Biot system,
+/// Per-cell integrals of one time step of the Biot system,
 ///   [ A        -alpha B^T ] [u]   [ f                                 ]
 ///   [ alpha B  S M + dt H ] [p] = [ alpha B u_n + S M p_n - dt q_out ]
-/// (the storage equation times dt). Its Schur complement S M + dt H +
+/// (the storage equation times dt). For BDF2, dt is the effective step dt' and
+/// (u_n, p_n) the weighted old state of step_weights. Its Schur complement S M + dt H +
 /// alpha^2 B A^-1 B^T is positive definite, which the block preconditioner needs.
 /// Axisymmetric integrals carry the weight 2 pi r and the hoop strain u_r / r.
 class CellKernel {
