@@ -235,25 +235,37 @@ void print_key_reference(std::ostream& out) {
   out << "Scenario keys (TOML). Times in days, lengths and elevations in m, stresses in\n"
          "kPa, conductivities in m/s. <name> is a name you choose; [] an array "
          "element.\n";
-  std::string table;
+  // Each table once, in the order of its first key, with all its keys under it.
+  const auto table_of = [](const std::string& path) {
+    const auto dot = path.rfind('.');
+    return dot == std::string::npos ? std::string() : path.substr(0, dot);
+  };
+  std::vector<std::string> tables;
+  std::size_t name_width = 22;
   for (const auto& key : all_keys()) {
-    const std::string path = key.path;
-    const std::string this_table =
-        path.substr(0, path.rfind('.') == std::string::npos ? 0 : path.rfind('.'));
-    if (this_table != table) {
-      table = this_table;
-      out << '\n' << (table.empty() ? "(top level)" : "[" + table + "]") << '\n';
+    const std::string path = key.path, table = table_of(path);
+    if (std::find(tables.begin(), tables.end(), table) == tables.end())
+      tables.push_back(table);
+    name_width =
+        std::max(name_width, path.size() - (table.empty() ? 0 : table.size() + 1));
+  }
+  for (const auto& table : tables) {
+    out << '\n' << (table.empty() ? "(top level)" : "[" + table + "]") << '\n';
+    for (const auto& key : all_keys()) {
+      const std::string path = key.path;
+      if (table_of(path) != table)
+        continue;
+      out << "  " << std::left << std::setw(int(name_width + 2))
+          << path.substr(table.empty() ? 0 : table.size() + 1) << std::setw(18)
+          << key.type << std::setw(8) << key.unit << key.doc;
+      const std::string fallback = key.default_value;
+      if (fallback == "required")
+        out << " (required)\n";
+      else if (fallback == "-")
+        out << '\n';
+      else
+        out << " (default: " << fallback << ")\n";
     }
-    out << "  " << std::left << std::setw(24)
-        << path.substr(table.empty() ? 0 : table.size() + 1) << std::setw(18) << key.type
-        << std::setw(8) << key.unit << key.doc;
-    const std::string fallback = key.default_value;
-    if (fallback == "required")
-      out << " (required)\n";
-    else if (fallback == "-")
-      out << '\n';
-    else
-      out << " (default: " << fallback << ")\n";
   }
 }
 

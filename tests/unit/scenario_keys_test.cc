@@ -9,6 +9,9 @@
 
 #include <cstdlib>
 #include <functional>
+#include <set>
+#include <sstream>
+#include <string>
 
 namespace sc = settlewell::scenario;
 
@@ -82,4 +85,26 @@ TEST(KeyRegistry, OmittedKeysTakeTheRegistryDefaults) {
   EXPECT_EQ(s.analysis, settlewell::AnalysisType::plane_strain);
   EXPECT_EQ(s.numerics.solver, settlewell::SolverChoice::automatic);
   EXPECT_EQ(s.title, "");
+}
+
+// The key reference names each table once, and no key name runs into its type.
+TEST(KeyRegistry, ReferenceListsEachTableOnceWithColumnsApart) {
+  std::ostringstream text;
+  sc::print_key_reference(text);
+  std::istringstream lines(text.str());
+  std::set<std::string> headings;
+  std::string line;
+  int keys = 0;
+  while (std::getline(lines, line)) {
+    if (!line.empty() && (line.front() == '[' || line == "(top level)")) {
+      EXPECT_TRUE(headings.insert(line).second) << line << " is listed twice";
+    } else if (line.rfind("  ", 0) == 0) {
+      ++keys;
+      const auto name_end = line.find(' ', 2);
+      ASSERT_NE(name_end, std::string::npos) << line;
+      EXPECT_EQ(line.compare(name_end, 2, "  "), 0)
+          << "name and type run together: " << line;
+    }
+  }
+  EXPECT_EQ(keys, int(sc::all_keys().size()));
 }
