@@ -6,6 +6,7 @@
 #include "settlewell/output/run_folder.h"
 #include "settlewell/run/simulation.h"
 #include "settlewell/run/stop_request.h"
+#include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
 
 #include <deal.II/base/mpi.h>
@@ -88,11 +89,11 @@ void write_summary(const scenario::SweepSpec& sweep,
   log << "wrote " << folder << "/sweep_summary.csv\n";
   if (sweep.chart_x.empty())
     return;
-  const std::string problem =
-      run_postprocess("plot_sweep.py",
-                      {folder + "/sweep_summary.csv", sweep.chart_x, sweep.chart_y,
-                       folder + "/sweep_chart.png"},
-                      folder + "/sweep_chart.log", log);
+  const std::string problem = run_postprocess(
+      "plot_sweep.py",
+      {folder + "/sweep_summary.csv", sweep.chart_x, sweep.chart_y,
+       folder + "/sweep_chart.png", "--x-unit", scenario::unit_of(sweep.chart_x)},
+      folder + "/sweep_chart.log", log);
   log << (problem.empty() ? "wrote " + folder + "/sweep_chart.png"
                           : "no chart: " + problem)
       << '\n';

@@ -242,7 +242,12 @@ void base_stages_table(Section& s, const toml::table& b) {
   s.table(t);
 }
 
-void base_section(Document& d, const toml::table& r) {
+/// `figures_drawn`: the plotting script ran, so a chart it did not write has nothing
+/// to show.
+void base_section(Document& d,
+                  const toml::table& r,
+                  const std::string& run,
+                  bool figures_drawn) {
   const auto* b = r["base_stability"].as_table();
   if (b == nullptr)
     return;
@@ -298,7 +303,11 @@ void base_section(Document& d, const toml::table& r) {
           *u.as_table());
   s.table(t);
   base_stages_table(s, *b);
-  s.image("plots/base_stability.png", "Factors of safety against time");
+  if (figures_drawn && !fs::exists(run + "/plots/base_stability.png"))
+    s.paragraph("No chart of the factors against time: no factor was evaluated below "
+                "20 at any output time.");
+  else
+    s.image("plots/base_stability.png", "Factors of safety against time");
 }
 
 /// A value of a per-stage list ([[x.stages]] with a "stage" or "name" key).
@@ -561,7 +570,7 @@ void write_report(const std::string& run, std::ostream& log) {
   run_section(d, r);
   inputs_section(d, r);
   discharge_section(d, r, unit);
-  base_section(d, r);
+  base_section(d, r, run, plot_problem.empty());
   stages_section(d, r);
   neighbours_section(d, r);
   columns_section(d, r);

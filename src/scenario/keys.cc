@@ -175,6 +175,42 @@ const KeySpec& key_spec(const std::string& path) {
 
 namespace {
 
+std::vector<std::string> segments_of(const std::string& path) {
+  std::vector<std::string> out;
+  std::stringstream parts(path);
+  for (std::string part; std::getline(parts, part, '.');)
+    out.push_back(part);
+  return out;
+}
+
+/// Whether a declared segment ("<name>", "stages[]", "head") matches a concrete one.
+bool segment_matches(const std::string& declared, const std::string& concrete) {
+  if (declared == "<name>")
+    return !concrete.empty();
+  if (declared.size() > 2 && declared.compare(declared.size() - 2, 2, "[]") == 0) {
+    const std::string name = declared.substr(0, declared.size() - 2);
+    return concrete.size() > name.size() + 2 &&
+           concrete.compare(0, name.size(), name) == 0 && concrete[name.size()] == '[' &&
+           concrete.back() == ']';
+  }
+  return declared == concrete;
+}
+
+} // namespace
+
+std::string unit_of(const std::string& concrete_path) {
+  const auto concrete = segments_of(concrete_path);
+  for (const auto& key : all_keys()) {
+    const auto declared = segments_of(key.path);
+    if (declared.size() == concrete.size() &&
+        std::equal(declared.begin(), declared.end(), concrete.begin(), segment_matches))
+      return key.unit;
+  }
+  return "";
+}
+
+namespace {
+
 bool starts_with(const std::string& s, const std::string& prefix) {
   return s.size() > prefix.size() && s.compare(0, prefix.size(), prefix) == 0 &&
          s[prefix.size()] == '.';

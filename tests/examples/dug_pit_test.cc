@@ -68,6 +68,8 @@ TEST(DugPitExample, BaseChecksFollowTheDigLevels) {
   EXPECT_EQ((*stage(results, "base_stability", "lift 1"))["least_piping_factor"].value_or(
                 std::string()),
             "not evaluated");
+  // The figures: heave drawn about zero, the base factors with their limits.
+  EXPECT_EQ(check_figures(run.folder), 0);
 }
 
 TEST(DugPitExample, PropsCarryLoadOnlyOnceFittedAndDugSoilHasNoValues) {

@@ -4,6 +4,7 @@
 
 #include <gtest/gtest.h>
 
+#include <cstdlib>
 #include <fstream>
 #include <sstream>
 #include <stdexcept>
@@ -153,6 +154,12 @@ void shorten_pit(toml::table& s, const std::string& solver, double tolerance) {
   s["output"].as_table()->insert_or_assign("times", toml::array{10.0});
   s.insert_or_assign("numerics",
                      toml::table{{"solver", solver}, {"tolerance", tolerance}});
+}
+
+int check_figures(const std::filesystem::path& run_folder) {
+  const std::string command = "/usr/bin/python3 " + std::string(SETTLEWELL_SOURCE_DIR) +
+                              "/tests/report/check_figures.py " + run_folder.string();
+  return std::system(command.c_str());
 }
 
 } // namespace example_support

@@ -63,4 +63,9 @@ void coarsen_section(toml::table& scenario, double near, double far, double grow
 /// day 10), solved with `solver` ("direct" or "iterative") to `tolerance`.
 void shorten_pit(toml::table& scenario, const std::string& solver, double tolerance);
 
+/// The exit status of tests/report/check_figures.py on a run folder: 0 when its
+/// figures label their axes with units, have legends for what they draw, and state
+/// their scales (it prints each failure).
+int check_figures(const std::filesystem::path& run_folder);
+
 } // namespace example_support

@@ -54,4 +54,6 @@ TEST(Report, OpensInHeadlessChromiumWithEveryFigure) {
                               "/tests/report/check_report.py " + run.folder.string() +
                               " " + CHROMIUM;
   EXPECT_EQ(std::system(command.c_str()), 0);
+  // What the figures say: units, legends, scales, the wall, neighbours and limits.
+  EXPECT_EQ(check_figures(run.folder), 0);
 }

@@ -49,6 +49,8 @@ TEST(ShaftExample, MatchesThiemFarFromTheWall) {
   EXPECT_NEAR(ds, thiem, 0.01 * thiem);
   EXPECT_NEAR(run.summary.pumped_volume.at("central"), 1800.0 * (21.0 / 2 + 6000.0),
               0.01 * 1800.0 * 6010.0);
+  // The figures of an axisymmetric run: the radius r, on a log scale.
+  EXPECT_EQ(check_figures(run.folder), 0);
 }
 
 // The column reproduces the 1D hand solution: the clay, drained at both faces,

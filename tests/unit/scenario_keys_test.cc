@@ -54,6 +54,18 @@ TEST(KeyRegistry, EveryValueLikeDefaultIsALiteralOfItsType) {
   }
 }
 
+// A sweep's chart labels its axis with the unit of the swept key, which names a
+// user's material or an element of the stages.
+TEST(KeyRegistry, UnitOfAConcretePathIsThatOfItsDeclaredKey) {
+  EXPECT_EQ(settlewell::scenario::unit_of("section.wall.toe"), "m");
+  EXPECT_EQ(settlewell::scenario::unit_of("materials.aquifer_sand.conductivity_x"),
+            "m/s");
+  EXPECT_EQ(settlewell::scenario::unit_of("stages[1].wells.W1.head"), "m");
+  EXPECT_EQ(settlewell::scenario::unit_of("materials.aquifer_sand.poisson_ratio"), "");
+  EXPECT_EQ(settlewell::scenario::unit_of("materials.aquifer_sand.no_such_key"), "");
+  EXPECT_EQ(settlewell::scenario::unit_of("stages.wells.W1.head"), "");
+}
+
 TEST(KeyRegistry, AnUndeclaredPathIsAnInternalError) {
   EXPECT_THROW(sc::key_spec("materials.<name>.no_such_key"), settlewell::InternalError);
 }

@@ -32,6 +32,12 @@ const std::vector<KeySpec>& all_keys();
 /// throws InternalError for a path that is not declared.
 const KeySpec& key_spec(const std::string& path);
 
+/// The unit of the declared key that a concrete path names
+/// ("materials.aquifer_sand.conductivity_x" or "stages[1].wells.W1.head": a user's
+/// name stands for `<name>`, an index for `[]`); "" when the key has none or no
+/// declared key matches.
+std::string unit_of(const std::string& concrete_path);
+
 /// The declared children (keys or sub-tables) of a table path such as
 /// "section.wall" or "stages[].wells.<name>".
 std::vector<std::string> children_of(const std::string& table_path);
