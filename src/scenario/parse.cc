@@ -117,6 +117,15 @@ void parse_groundwater(const TableReader& top, Scenario& s) {
     top.fail_here("missing the required table [groundwater]");
   const TableReader r(*t, "groundwater", "groundwater", top.file());
   s.groundwater.water_table = r.elevation("water_table");
+  double x0, x1, y0, y1;
+  if (model_extent(s, x0, x1, y0, y1) && s.groundwater.water_table > y1 + 1e-9) {
+    std::ostringstream top_text;
+    top_text << y1;
+    r.fail("water_table", "lies above the top of the model (" + top_text.str() +
+                              " m): water standing on the ground is not modelled; put "
+                              "the water table at or below the ground and hold a head on "
+                              "the ground surface boundary for standing water");
+  }
   const toml::table* heads = r.table("layer_heads");
   if (heads == nullptr)
     return;

@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <cmath>
 #include <set>
+#include <sstream>
 
 namespace settlewell::scenario {
 
@@ -267,6 +268,35 @@ void parse_output(const TableReader& top, Scenario& s) {
 
 namespace settlewell::scenario {
 
+namespace {
+
+std::string metres(double v) {
+  std::ostringstream out;
+  out << v;
+  return out.str();
+}
+
+/// A neighbour stands on one side of the cutoff wall: the settlement under a
+/// footprint across it would mix the pit's side with the retained ground.
+void refuse_footprint_across_wall(const Scenario& s,
+                                  const Neighbour& n,
+                                  const TableReader& r) {
+  if (!s.section || !s.section->wall)
+    return;
+  const double inner = s.section->excavation_width / 2;
+  const double outer = inner + s.section->wall->thickness;
+  std::vector<std::pair<double, double>> faces{{inner, outer}};
+  if (!s.section->half_model && s.analysis == AnalysisType::plane_strain)
+    faces.emplace_back(-outer, -inner);
+  for (const auto& [low, high] : faces)
+    if (n.x_from < high && n.x_to > low)
+      r.fail("x_from", "the foundation (x " + metres(n.x_from) + " to " + metres(n.x_to) +
+                           " m) crosses the cutoff wall (x " + metres(low) + " to " +
+                           metres(high) + " m); a neighbour stands on one side of it");
+}
+
+} // namespace
+
 void parse_checks(const TableReader& top, Scenario& s) {
   for_each_table(top, "neighbours", [&](const TableReader& r) {
     Neighbour n;
@@ -289,6 +319,7 @@ void parse_checks(const TableReader& top, Scenario& s) {
       if (n.foundation_level < y0 || n.foundation_level > y1)
         r.fail("foundation_level", "lies outside the model");
     }
+    refuse_footprint_across_wall(s, n, r);
     s.neighbours.push_back(n);
   });
   {
