@@ -416,7 +416,7 @@ def one_d(run, name):
                   "settlement (mm)")
 
 
-def discharge(run, unit):
+def discharge(run, unit, half):
     rows = read_csv(os.path.join(run, "steps.csv"))
     keys = [k for k in rows[0] if k.startswith("discharge_")]
     if not keys:
@@ -427,7 +427,8 @@ def discharge(run, unit):
         ax.step(t, numbers(rows, k), where="pre", label=k[len("discharge_"):-len("_m3_per_day")])
     if min(min(numbers(rows, k)) for k in keys) >= 0:
         ax.set_ylim(bottom=0)
-    return finish(fig, ax, "Pumped discharge", "time (days)", f"discharge (m³/day {unit})")
+    title = "Pumped discharge" + (" of the modelled half (the whole pit pumps twice this)" if half else "")
+    return finish(fig, ax, title, "time (days)", f"discharge (m³/day {unit})")
 
 
 def factor_label(key):
@@ -492,7 +493,7 @@ def figure_jobs(run, times=None):
     jobs += [("trough.png", lambda: trough(run, geometry, results, axisymmetric)),
              ("wall.png", lambda: wall(run, results)),
              ("histories.png", lambda: histories(run)),
-             ("discharge.png", lambda: discharge(run, unit)),
+             ("discharge.png", lambda: discharge(run, unit, results.get("modelled_half", False))),
              ("base_stability.png", lambda: base_factors(run, results))]
     for column in results.get("columns", []):
         jobs.append((f"one_d_{column['name']}.png", lambda n=column["name"]: one_d(run, n)))

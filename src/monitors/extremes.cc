@@ -2,6 +2,7 @@
 
 #include "dof_values.h"
 
+#include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/physics/field_layout.h"
 
@@ -9,7 +10,8 @@
 #include <deal.II/dofs/dof_tools.h>
 
 #include <cmath>
-#include <map>
+#include <optional>
+#include <set>
 
 namespace settlewell::monitors {
 
@@ -17,10 +19,111 @@ using namespace dealii;
 
 namespace {
 
-std::vector<types::global_dof_index> owned_boundary_dofs(const BiotProblem& problem,
-                                                         const std::string& boundary,
-                                                         unsigned int component) {
-  std::vector<types::global_dof_index> dofs;
+/// Values closer than this (relative) are the same maximum: the run's round-off,
+/// which differs between process counts and a resumed run, then does not move the
+/// place or the time of a maximum (a well's head held for months is reached at the
+/// end of its ramp, not at whichever later step rounds up).
+constexpr double same_value = 1e-9;
+
+bool clearly_larger(double a, double b) {
+  return a > b + same_value * std::abs(b);
+}
+
+} // namespace
+
+void Located::keep_larger(const Located& now, double at) {
+  if (!clearly_larger(now.value, value))
+    return;
+  *this = now;
+  time = at;
+}
+
+void visit(StateArchive& a, Located& l) {
+  a& l.value& l.x& l.y& l.time& l.region;
+}
+
+void Extremes::Sites::add(types::global_dof_index dof,
+                          const Point<2>& at,
+                          const std::string& region) {
+  dofs.push_back(dof);
+  points.push_back(at);
+  regions.push_back(region);
+}
+
+namespace {
+
+/// The largest value over every process and its place. Of the places whose value
+/// is the same maximum (within same_value), the one with the least x, then y: the
+/// same place for any partition of the mesh.
+Located share_largest(const std::vector<Located>& candidates, MPI_Comm comm) {
+  double local = 0.0;
+  for (const auto& c : candidates)
+    local = std::max(local, c.value);
+  const double largest = Utilities::MPI::max(local, comm);
+  const auto first = [](const Located& a, const Located& b) {
+    return a.x < b.x || (a.x == b.x && a.y < b.y);
+  };
+  std::optional<Located> mine;
+  for (const auto& c : candidates)
+    if (!clearly_larger(largest, c.value) && (!mine || first(c, *mine)))
+      mine = c;
+  // Each process's choice as plain numbers and its region's name.
+  const std::vector<double> numbers =
+      mine ? std::vector<double>{mine->value, mine->x, mine->y} : std::vector<double>{};
+  const auto all_numbers = Utilities::MPI::all_gather(comm, numbers);
+  const auto all_regions = Utilities::MPI::all_gather(comm, mine ? mine->region : "");
+  std::optional<Located> best;
+  for (std::size_t rank = 0; rank < all_numbers.size(); ++rank) {
+    const auto& n = all_numbers[rank];
+    if (n.empty())
+      continue;
+    const Located theirs{n[0], n[1], n[2], 0.0, all_regions[rank]};
+    if (!best || first(theirs, *best))
+      best = theirs;
+  }
+  Located out = best.value_or(Located{});
+  out.value = largest;
+  return out;
+}
+
+/// Where each dof of the owned cells lies, and the regions of the owned cells that
+/// hold it (two or more on a boundary between regions).
+struct DofPlaces {
+  std::map<types::global_dof_index, unsigned int> component;
+  std::map<types::global_dof_index, std::set<std::string>> regions;
+  std::map<types::global_dof_index, Point<2>> support;
+};
+
+/// "soft_clay" inside a region; "aquifer_sand / soft_clay" on their boundary.
+std::string joined(const std::set<std::string>& names) {
+  std::string out;
+  for (const auto& n : names)
+    out += (out.empty() ? "" : " / ") + n;
+  return out;
+}
+
+DofPlaces dof_places(const BiotProblem& problem) {
+  DofPlaces places;
+  const auto& dh = problem.dof_handler();
+  DoFTools::map_dofs_to_support_points(problem.mapping(), dh, places.support);
+  const auto& fe = dh.get_fe();
+  std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
+  for (const auto& cell : dh.active_cell_iterators())
+    if (cell->is_locally_owned()) {
+      cell->get_dof_indices(cell_dofs);
+      const std::string& region = problem.mesh().names.region_name(cell->material_id());
+      for (unsigned int i = 0; i < cell_dofs.size(); ++i) {
+        places.component[cell_dofs[i]] = fe.system_to_component_index(i).first;
+        places.regions[cell_dofs[i]].insert(region);
+      }
+    }
+  return places;
+}
+
+std::set<types::global_dof_index> owned_boundary_dofs(const BiotProblem& problem,
+                                                      const std::string& boundary,
+                                                      unsigned int component) {
+  std::set<types::global_dof_index> dofs;
   if (!problem.mesh().names.has_boundary(boundary))
     return dofs;
   const IndexSet on = DoFTools::extract_boundary_dofs(
@@ -28,7 +131,7 @@ std::vector<types::global_dof_index> owned_boundary_dofs(const BiotProblem& prob
       {problem.mesh().names.boundary_id(boundary)});
   for (const auto d : on)
     if (problem.dof_handler().locally_owned_dofs().is_element(d))
-      dofs.push_back(d);
+      dofs.insert(d);
   return dofs;
 }
 
@@ -37,9 +140,6 @@ std::vector<types::global_dof_index> owned_boundary_dofs(const BiotProblem& prob
 Extremes::Extremes(const RunContext& run) {
   const BiotProblem& problem = run.problem;
   const scenario::Scenario& s = run.scenario;
-  const auto& dh = problem.dof_handler();
-  std::map<types::global_dof_index, Point<2>> support;
-  DoFTools::map_dofs_to_support_points(problem.mapping(), dh, support);
   double outer = 0.0;
   if (s.section) {
     has_wall_zone_ = true;
@@ -48,85 +148,154 @@ Extremes::Extremes(const RunContext& run) {
   }
   for (const auto& e : problem.setup().excavation)
     first_dig_ = first_dig_ < 0.0 ? e.start : std::min(first_dig_, e.start);
-  const auto& fe = dh.get_fe();
-  std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
-  std::map<types::global_dof_index, unsigned int> component;
-  for (const auto& cell : dh.active_cell_iterators())
-    if (cell->is_locally_owned()) {
-      cell->get_dof_indices(cell_dofs);
-      for (unsigned int i = 0; i < cell_dofs.size(); ++i)
-        component[cell_dofs[i]] = fe.system_to_component_index(i).first;
-    }
+  const DofPlaces places = dof_places(problem);
+  const auto pit_surface =
+      owned_boundary_dofs(problem, section_names::pit_surface, FieldLayout::uy);
+  const auto ground_surface =
+      owned_boundary_dofs(problem, section_names::ground_surface, FieldLayout::uy);
   const double tol = 1e-9 * (1.0 + outer);
-  for (const auto& [dof, c] : component) {
-    if (!dh.locally_owned_dofs().is_element(dof))
+  const auto& owned = problem.dof_handler().locally_owned_dofs();
+  for (const auto& [dof, c] : places.component) {
+    if (!owned.is_element(dof))
       continue;
-    const bool outside = has_wall_zone_ && std::abs(support.at(dof)[0]) >= outer - tol;
-    if (c == FieldLayout::uy)
-      all_uy_.push_back(dof);
+    const Point<2>& at = places.support.at(dof);
+    const auto& regions = places.regions.at(dof);
+    const std::string region = joined(regions);
+    const bool outside = has_wall_zone_ && std::abs(at[0]) >= outer - tol;
+    if (c == FieldLayout::uy) {
+      all_uy_.add(dof, at, region);
+      if (pit_surface.count(dof))
+        pit_surface_uy_.add(dof, at, region);
+      if (ground_surface.count(dof) && outside)
+        outside_surface_uy_.add(dof, at, region);
+    }
     if (c == FieldLayout::pressure) {
-      all_p_.push_back(dof);
-      if (outside)
-        outside_p_.push_back(dof);
+      all_p_.add(dof, at, region);
+      if (outside) {
+        outside_p_.add(dof, at, region);
+        for (const auto& r : regions)
+          if (r != section_names::wall_region)
+            outside_p_by_region_[r].add(dof, at, r);
+      }
     }
   }
-  pit_surface_uy_ =
-      owned_boundary_dofs(problem, section_names::pit_surface, FieldLayout::uy);
-  for (const auto d :
-       owned_boundary_dofs(problem, section_names::ground_surface, FieldLayout::uy))
-    if (std::abs(support.at(d)[0]) >= outer - tol)
-      outside_surface_uy_.push_back(d);
+  // Every process lists every region outside the wall, so that each takes part in
+  // the same collective calls.
+  const auto local_names = [&] {
+    std::vector<std::string> names;
+    for (const auto& [name, sites] : outside_p_by_region_)
+      names.push_back(name);
+    return names;
+  }();
+  for (const auto& list : Utilities::MPI::all_gather(problem.communicator(), local_names))
+    for (const auto& name : list)
+      outside_p_by_region_[name];
 }
 
-double Extremes::largest(const BiotProblem& problem, const Dofs& dofs, double factor) {
-  return Utilities::MPI::max(largest_scaled(problem.reported_solution(), dofs, factor),
-                             problem.communicator());
+Located Extremes::largest(const BiotProblem& problem, const Sites& sites, double factor) {
+  // The candidates: this process's values above zero (a maximum of 0 has no place).
+  std::vector<Located> candidates;
+  const auto values = values_at(problem.reported_solution(), sites.dofs);
+  double local = 0.0;
+  for (const double v : values)
+    local = std::max(local, factor * v);
+  for (std::size_t i = 0; i < values.size(); ++i)
+    if (factor * values[i] > 0.0 && !clearly_larger(local, factor * values[i]))
+      candidates.push_back({factor * values[i], sites.points[i][0], sites.points[i][1],
+                            0.0, sites.regions[i]});
+  return share_largest(candidates, problem.communicator());
 }
 
-double Extremes::floor_heave_now(const BiotProblem& problem) const {
+Located Extremes::floor_heave_now(const BiotProblem& problem) const {
   const auto& fe = problem.dof_handler().get_fe();
+  const auto& unit_points = fe.get_unit_support_points();
   std::vector<types::global_dof_index> dofs(fe.n_dofs_per_cell());
-  double heave = 0.0;
+  std::vector<Located> candidates;
+  double local = 0.0;
   for (const auto& cell : problem.dof_handler().active_cell_iterators()) {
     if (!cell->is_locally_owned() || problem.is_removed(cell->active_cell_index()) ||
         std::abs(cell->center()[0]) > inner_)
       continue;
     cell->get_dof_indices(dofs);
-    for (unsigned int i = 0; i < dofs.size(); ++i)
-      if (fe.system_to_component_index(i).first == FieldLayout::uy)
-        heave = std::max(heave, double(problem.reported_solution()[dofs[i]]));
+    for (unsigned int i = 0; i < dofs.size(); ++i) {
+      const double up = problem.reported_solution()[dofs[i]];
+      if (fe.system_to_component_index(i).first != FieldLayout::uy || up <= 0.0 ||
+          clearly_larger(local, up))
+        continue;
+      local = std::max(local, up);
+      const Point<2> at =
+          problem.mapping().transform_unit_to_real_cell(cell, unit_points[i]);
+      candidates.push_back(
+          {up, at[0], at[1], 0.0, problem.mesh().names.region_name(cell->material_id())});
+    }
   }
-  return Utilities::MPI::max(heave, problem.communicator());
+  return share_largest(candidates, problem.communicator());
 }
 
 std::vector<double> Extremes::after_step(const RunView& view) {
   const BiotProblem& problem = view.run.problem;
   const double to_drawdown = -1.0 / problem.setup().gamma_w;
-  const bool dug = first_dig_ >= 0.0 && view.step.time > first_dig_;
+  const double t = view.step.time;
+  const bool dug = first_dig_ >= 0.0 && t > first_dig_;
   if (!dug)
-    pit_ = std::max(pit_, largest(problem, pit_surface_uy_, -1.0));
+    pit_.keep_larger(largest(problem, pit_surface_uy_, -1.0), t);
   else if (has_wall_zone_)
-    floor_heave_ = std::max(floor_heave_, floor_heave_now(problem));
-  const double outside_now = largest(problem, outside_surface_uy_, -1.0);
-  outside_ = std::max(outside_, outside_now);
+    floor_heave_.keep_larger(floor_heave_now(problem), t);
+  const Located outside_now = largest(problem, outside_surface_uy_, -1.0);
+  outside_.keep_larger(outside_now, t);
   stage_outside_.resize(view.run.schedule.stages().size(), 0.0);
-  stage_outside_[view.stage()] = std::max(stage_outside_[view.stage()], outside_now);
-  anywhere_ = std::max(anywhere_, largest(problem, all_uy_, -1.0));
-  drawdown_outside_ =
-      std::max(drawdown_outside_, largest(problem, outside_p_, to_drawdown));
-  drawdown_ = std::max(drawdown_, largest(problem, all_p_, to_drawdown));
+  stage_outside_[view.stage()] =
+      std::max(stage_outside_[view.stage()], outside_now.value);
+  anywhere_.keep_larger(largest(problem, all_uy_, -1.0), t);
+  drawdown_.keep_larger(largest(problem, all_p_, to_drawdown), t);
+  if (has_wall_zone_) {
+    drawdown_outside_.keep_larger(largest(problem, outside_p_, to_drawdown), t);
+    for (const auto& [region, sites] : outside_p_by_region_)
+      drawdown_outside_by_region_[region].keep_larger(
+          largest(problem, sites, to_drawdown), t);
+  }
   return {};
 }
 
+namespace {
+
+/// Where and when a largest value was reached: {x_m, y_m, region, time_days}; the
+/// value itself stays in its own key, which readers of earlier runs know.
+toml::table place_of(const Located& l) {
+  return toml::table{{"x_m", l.x},
+                     {"y_m", l.y},
+                     {"region", l.region},
+                     {"time_days", units::to_days(l.time)}};
+}
+
+/// The value as `key`_m and, when it is not zero (a zero is reached everywhere at
+/// the start), its place as `key`_at.
+void insert_located(toml::table& summary, const std::string& key, const Located& l) {
+  summary.insert(key + "_m", l.value);
+  if (l.value > 0.0)
+    summary.insert(key + "_at", place_of(l));
+}
+
+} // namespace
+
 void Extremes::finish(const RunView& view, toml::table& results) {
-  toml::table summary{{"settlement_anywhere_m", anywhere_},
-                      {"drawdown_anywhere_m", drawdown_}};
+  toml::table summary;
+  insert_located(summary, "settlement_anywhere", anywhere_);
+  insert_located(summary, "drawdown_anywhere", drawdown_);
   if (has_wall_zone_) {
-    summary.insert("settlement_inside_m", pit_);
+    insert_located(summary, "settlement_inside", pit_);
     if (first_dig_ >= 0.0) // the pit surface only until it is dug
-      summary.insert("floor_heave_m", floor_heave_);
-    summary.insert("settlement_outside_m", outside_);
-    summary.insert("drawdown_outside_m", drawdown_outside_);
+      insert_located(summary, "floor_heave", floor_heave_);
+    insert_located(summary, "settlement_outside", outside_);
+    insert_located(summary, "drawdown_outside", drawdown_outside_);
+    toml::array by_region;
+    for (const auto& [region, l] : drawdown_outside_by_region_) {
+      toml::table entry = l.value > 0.0 ? place_of(l) : toml::table{};
+      entry.insert_or_assign("region", region);
+      entry.insert("drawdown_m", l.value);
+      by_region.push_back(entry);
+    }
+    summary.insert("drawdown_outside_by_region", by_region);
     toml::array stages;
     for (std::size_t k = 0; k < stage_outside_.size(); ++k)
       stages.push_back(toml::table{{"stage", view.run.schedule.stages()[k].name},
@@ -139,7 +308,7 @@ void Extremes::finish(const RunView& view, toml::table& results) {
 void Extremes::visit_state(StateArchive& a) {
   a.mark("extremes");
   a& floor_heave_& pit_& outside_& anywhere_& drawdown_outside_& drawdown_&
-      stage_outside_;
+      drawdown_outside_by_region_& stage_outside_;
 }
 
 } // namespace settlewell::monitors

@@ -1,13 +1,31 @@
 #pragma once
 
 // Private to src/monitors: the largest settlement and drawdown of the run, inside
-// and outside the wall and anywhere (results.toml [summary]), and the largest
-// settlement outside the wall in each stage. When the pit is dug, the settlement of
-// the pit surface counts until the first lift and the heave of the ground left
-// inside the wall after it.
+// and outside the wall and anywhere (results.toml [summary]), each with where and
+// when it was reached; the largest drawdown outside the wall in each region
+// (layer); and the largest settlement outside the wall in each stage. When the pit
+// is dug, the settlement of the pit surface counts until the first lift and the
+// heave of the ground left inside the wall after it.
 #include "settlewell/monitors/monitor.h"
 
+#include <deal.II/base/point.h>
+
+#include <map>
+#include <string>
+
 namespace settlewell::monitors {
+
+/// A largest value, and where (the dof's support point and the region of a cell
+/// holding it) and when (the first step that reached it) it was found.
+struct Located {
+  double value = 0.0;
+  double x = 0.0, y = 0.0; ///< m
+  double time = 0.0;       ///< s
+  std::string region;
+  /// Keeps `now` (found at `time`) if it is larger.
+  void keep_larger(const Located& now, double at);
+};
+void visit(StateArchive& a, Located& l);
 
 class Extremes : public Monitor {
 public:
@@ -17,19 +35,29 @@ public:
   void finish(const RunView& view, toml::table& results) override;
 
 private:
-  using Dofs = std::vector<dealii::types::global_dof_index>;
-  /// The largest of factor * solution over the owned `dofs` of every process.
-  static double largest(const BiotProblem& problem, const Dofs& dofs, double factor);
+  /// Owned dofs of one field with their support points and regions.
+  struct Sites {
+    std::vector<dealii::types::global_dof_index> dofs;
+    std::vector<dealii::Point<2>> points;
+    std::vector<std::string> regions;
+    void add(dealii::types::global_dof_index dof,
+             const dealii::Point<2>& at,
+             const std::string& region);
+  };
+  /// The largest of factor * solution over `sites` of every process, and where; 0
+  /// (and no place) if none is larger.
+  static Located largest(const BiotProblem& problem, const Sites& sites, double factor);
   /// The largest upward displacement of the ground still in the model inside the
-  /// wall, over every process.
-  double floor_heave_now(const BiotProblem& problem) const;
+  /// wall, over every process, and where.
+  Located floor_heave_now(const BiotProblem& problem) const;
 
   bool has_wall_zone_ = false;
-  double inner_ = 0.0;       ///< half the pit's width, m
-  double first_dig_ = -1.0;  ///< s; negative: the pit is not dug
-  double floor_heave_ = 0.0; ///< m, largest after the first lift
-  Dofs pit_surface_uy_, outside_surface_uy_, all_uy_, outside_p_, all_p_;
-  double pit_ = 0, outside_ = 0, anywhere_ = 0, drawdown_outside_ = 0, drawdown_ = 0;
+  double inner_ = 0.0;      ///< half the pit's width, m
+  double first_dig_ = -1.0; ///< s; negative: the pit is not dug
+  Sites pit_surface_uy_, outside_surface_uy_, all_uy_, outside_p_, all_p_;
+  std::map<std::string, Sites> outside_p_by_region_;
+  Located floor_heave_, pit_, outside_, anywhere_, drawdown_outside_, drawdown_;
+  std::map<std::string, Located> drawdown_outside_by_region_;
   std::vector<double> stage_outside_; ///< per stage, m
 };
 

@@ -84,6 +84,11 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
                  view.run.scenario.analysis == AnalysisType::axisymmetric
                      ? "per well"
                      : "per metre run");
+  // A half model (symmetry line at x = 0) pumps half of what the whole pit pumps:
+  // the report and the summary give both.
+  const auto& sc = view.run.scenario;
+  results.insert("modelled_half", sc.analysis == AnalysisType::plane_strain &&
+                                      sc.section && sc.section->half_model);
   results.insert("water_balance",
                  toml::table{{"largest_relative_error", worst_balance_},
                              {"tolerance", tolerance_},

@@ -2,6 +2,7 @@
 
 #include "settlewell/core/errors.h"
 #include "settlewell/core/file_writing.h"
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/python_scripts.h"
 #include "settlewell/report/document.h"
 
@@ -161,34 +162,60 @@ void inputs_section(Document& d, const toml::table& r) {
   s.table(stages);
 }
 
+/// " at x 37.3 m, y 6.00 m (upper_sand), day 365" for a summary value `key` that
+/// has a place (`key`_at), or "".
+std::string place_of(const toml::table& summary, const std::string& key) {
+  const auto* at = summary[key + "_at"].as_table();
+  if (at == nullptr)
+    return "";
+  return " " + place_text(get((*at)["x_m"]), get((*at)["y_m"]), text((*at)["region"]),
+                          get((*at)["time_days"]));
+}
+
 void glance_section(Document& d, const toml::table& r, const std::string& unit) {
   Section& s = d.add("Results at a glance");
   const auto& sum = *r["summary"].as_table();
   std::vector<std::string> items;
+  const auto mm = [&](const std::string& key) {
+    return significant(1000 * get(sum[key + "_m"])) + " mm" + place_of(sum, key);
+  };
   const bool dug = sum.contains("floor_heave_m");
   if (sum.contains("settlement_inside_m"))
     items.push_back(std::string("Largest settlement inside the wall (pit surface") +
-                    (dug ? ", until dug): " : "): ") +
-                    fixed(1000 * get(sum["settlement_inside_m"]), 1) + " mm");
+                    (dug ? ", until dug): " : "): ") + mm("settlement_inside"));
   if (dug)
     items.push_back(
         "Largest heave inside the wall (ground left in the pit, since the start): " +
-        fixed(1000 * get(sum["floor_heave_m"]), 1) + " mm");
+        mm("floor_heave"));
   if (sum.contains("settlement_outside_m"))
     items.push_back("Largest settlement outside the wall (ground surface): " +
-                    fixed(1000 * get(sum["settlement_outside_m"]), 1) + " mm");
-  items.push_back("Largest settlement anywhere: " +
-                  fixed(1000 * get(sum["settlement_anywhere_m"]), 1) + " mm");
+                    mm("settlement_outside"));
+  items.push_back("Largest settlement anywhere: " + mm("settlement_anywhere"));
   if (sum.contains("drawdown_outside_m"))
     items.push_back("Largest drawdown outside the wall: " +
-                    fixed(get(sum["drawdown_outside_m"]), 2) + " m");
+                    significant(get(sum["drawdown_outside_m"])) + " m" +
+                    place_of(sum, "drawdown_outside"));
+  if (const auto* regions = sum["drawdown_outside_by_region"].as_array()) {
+    std::string each;
+    for (const auto& node : *regions) {
+      const auto& t = *node.as_table();
+      each += (each.empty() ? "" : "; ") + text(t["region"]) + " " +
+              significant(get(t["drawdown_m"])) + " m";
+    }
+    if (!each.empty())
+      items.push_back("Largest drawdown outside the wall in each layer: " + each);
+  }
+  const bool half = r["modelled_half"].value_or(false);
   if (const auto* q = r["discharge"].as_array())
     for (const auto& node : *q) {
       const auto& t = *node.as_table();
-      items.push_back("Pumped by " + text(t["line"]) + ": " +
-                      fixed(get(t["volume_m3"]), 0) + " m³ " + unit + " in all, " +
-                      fixed(get(t["final_m3_per_day"]), 2) + " m³/day " + unit +
-                      " at the end");
+      const double volume = get(t["volume_m3"]), rate = get(t["final_m3_per_day"]);
+      items.push_back(
+          "Pumped by " + text(t["line"]) + ": " + significant(volume) + " m³ " + unit +
+          " in all, " + significant(rate) + " m³/day " + unit + " at the end" +
+          (half ? " in the modelled half; the whole pit: " + significant(2 * volume) +
+                      " m³ and " + significant(2 * rate) + " m³/day " + unit
+                : ""));
     }
   s.list(items);
 }

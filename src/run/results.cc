@@ -3,6 +3,7 @@
 #include "results.h"
 
 #include "settlewell/core/file_writing.h"
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/units.h"
 #include "settlewell/core/version.h"
 #include "settlewell/model/model_builder.h"
@@ -99,6 +100,12 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.floor_heave = sum["floor_heave_m"].value<double>();
   summary.settlement_outside = sum["settlement_outside_m"].value<double>();
   summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
+  for (const char* key : {"settlement_inside", "floor_heave", "settlement_outside",
+                          "settlement_anywhere", "drawdown_outside", "drawdown_anywhere"})
+    if (const auto* at = sum[std::string(key) + "_at"].as_table())
+      summary.where[key] = place_text(
+          (*at)["x_m"].value_or(0.0), (*at)["y_m"].value_or(0.0),
+          (*at)["region"].value_or(std::string()), (*at)["time_days"].value_or(0.0));
   if (const auto* lines = r["discharge"].as_array())
     for (const auto& node : *lines) {
       const auto& line = *node.as_table();
@@ -125,33 +132,43 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   out << std::fixed;
   out << "Run finished: " << r.steps << " steps, " << r.cells << " cells, " << r.dofs
       << " unknowns, " << std::setprecision(1) << r.wall_seconds << " s wall time\n";
-  out << std::setprecision(1);
+  const auto where = [&](const char* key) {
+    const auto it = r.where.find(key);
+    return it == r.where.end() ? std::string() : " " + it->second;
+  };
+  const auto mm = [](double m) { return significant(1000 * m) + " mm"; };
   if (r.settlement_inside)
     out << "  largest settlement inside the wall (pit surface"
-        << (r.floor_heave ? ", until dug): " : "): ") << *r.settlement_inside * 1000
-        << " mm\n";
+        << (r.floor_heave ? ", until dug): " : "): ") << mm(*r.settlement_inside)
+        << where("settlement_inside") << "\n";
   if (r.floor_heave)
     out << "  largest heave inside the wall (ground left in the pit, since the start): "
-        << *r.floor_heave * 1000 << " mm\n";
+        << mm(*r.floor_heave) << where("floor_heave") << "\n";
   if (r.settlement_outside)
     out << "  largest settlement outside the wall (ground surface): "
-        << *r.settlement_outside * 1000 << " mm\n";
+        << mm(*r.settlement_outside) << where("settlement_outside") << "\n";
   if (!r.settlement_inside)
-    out << "  largest settlement: " << r.settlement_anywhere * 1000 << " mm\n";
-  out << std::setprecision(2);
+    out << "  largest settlement: " << mm(r.settlement_anywhere)
+        << where("settlement_anywhere") << "\n";
   if (r.drawdown_outside)
-    out << "  largest drawdown outside the wall: " << *r.drawdown_outside << " m\n";
+    out << "  largest drawdown outside the wall: " << significant(*r.drawdown_outside)
+        << " m" << where("drawdown_outside") << "\n";
   else
-    out << "  largest drawdown: " << r.drawdown_anywhere << " m\n";
+    out << "  largest drawdown: " << significant(r.drawdown_anywhere) << " m"
+        << where("drawdown_anywhere") << "\n";
+  const bool half = per_metre && s.section && s.section->half_model;
+  const auto volume_text = [&](double v) {
+    return significant(v) + (per_metre ? " m3 per metre run" : " m3") +
+           (half ? " in the modelled half (" + significant(2 * v) + " for the whole pit)"
+                 : "");
+  };
   double total = 0.0;
   for (const auto& [label, volume] : r.pumped_volume) {
-    out << "  pumped volume, " << label << ": " << std::setprecision(1) << volume
-        << (per_metre ? " m3 per metre run\n" : " m3\n");
+    out << "  pumped volume, " << label << ": " << volume_text(volume) << "\n";
     total += volume;
   }
   if (r.pumped_volume.size() > 1)
-    out << "  pumped volume, total: " << total
-        << (per_metre ? " m3 per metre run\n" : " m3\n");
+    out << "  pumped volume, total: " << volume_text(total) << "\n";
   if (r.mass_balance_steps_off > 0)
     out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance

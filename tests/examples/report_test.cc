@@ -34,6 +34,32 @@ TEST(Checks, WaterBalanceClosesAtEveryStep) {
   EXPECT_EQ(results["base_stability"]["uplift"].as_array()->size(), 1u);
   EXPECT_EQ(results["neighbours"].as_array()->size(), 2u);
   EXPECT_EQ(results["columns"].as_array()->size(), 2u);
+  // Each headline value says where and when: the settlement outside the wall is on
+  // the ground surface (6 m) beyond the wall's outer face (x 14.8 m), and the
+  // largest drawdown outside the wall is the largest of the layers'.
+  const auto summary = results["summary"];
+  EXPECT_DOUBLE_EQ(summary["settlement_outside_at"]["y_m"].value_or(0.0), 6.0);
+  EXPECT_GE(summary["settlement_outside_at"]["x_m"].value_or(0.0), 14.8 - 1e-9);
+  EXPECT_GT(summary["settlement_outside_at"]["time_days"].value_or(0.0), 0.0);
+  const double outside = summary["drawdown_outside_m"].value_or(0.0);
+  double of_layers = 0.0;
+  std::string region_of_largest;
+  for (const auto& node : *summary["drawdown_outside_by_region"].as_array()) {
+    const auto& layer = *node.as_table();
+    const double d = layer["drawdown_m"].value_or(0.0);
+    EXPECT_LE(d, outside) << layer;
+    if (d > of_layers) {
+      of_layers = d;
+      region_of_largest = layer["region"].value_or(std::string());
+    }
+  }
+  EXPECT_DOUBLE_EQ(of_layers, outside);
+  EXPECT_NE(summary["drawdown_outside_at"]["region"]
+                .value_or(std::string())
+                .find(region_of_largest),
+            std::string::npos);
+  // A half model says so: the whole pit pumps twice what the model pumps.
+  EXPECT_TRUE(results["modelled_half"].value_or(false));
 }
 
 // The HTML report opens in headless Chromium with every figure decoded and is not

@@ -38,6 +38,9 @@ struct RunSummary {
   double settlement_anywhere = 0.0;         ///< m, largest over the whole model
   std::optional<double> drawdown_outside;   ///< m, outside the wall, any depth
   double drawdown_anywhere = 0.0;           ///< m
+  /// Where and when each of the values above was reached, by its results.toml
+  /// name ("settlement_outside": "at x 37.3 m, y 6.00 m (upper_sand), day 365").
+  std::map<std::string, std::string> where;
   /// Pumped volume per pumped line (m^3; per metre run in plane strain).
   std::map<std::string, double> pumped_volume;
   /// The same per stage, in stage order.
