@@ -63,8 +63,14 @@ void describe_scenario(const scenario::Scenario& s,
         << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n';
   }
   out << "Boundaries:\n";
-  for (const auto& [name, role] : model::boundary_roles(s, mesh))
-    out << "  " << name << ": " << role_text(role) << '\n';
+  for (const auto& [name, role] : model::boundary_roles(s, mesh)) {
+    out << "  " << name << ": " << role_text(role);
+    const auto spec = s.boundaries.find(name);
+    if (spec != s.boundaries.end() && spec->second.part)
+      out << "; part of " << spec->second.part->of << ", its faces at "
+          << boundary_extent(mesh, name).text();
+    out << '\n';
+  }
   if (!mesh.internal_lines.empty()) {
     out << "Internal lines:";
     for (const auto& [name, segments] : mesh.internal_lines)

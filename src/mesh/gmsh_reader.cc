@@ -157,14 +157,28 @@ Mesh make_scenario_mesh(const scenario::Scenario& s,
   return mesh;
 }
 
-Mesh coarse_scenario_mesh(const scenario::Scenario& s,
-                          MPI_Comm comm,
-                          const std::string& msh_path) {
-  if (s.mesh_file) {
-    Mesh mesh = read_gmsh_file(s.mesh_file->path, comm);
-    check_model_size(s, mesh.triangulation->n_global_active_cells());
-    return mesh;
-  }
+namespace {
+
+/// The x and y ends of the boundary parts' windows: lines of nodes in a generated
+/// section, so that a part ends where the user put it.
+std::pair<std::vector<double>, std::vector<double>>
+window_ends(const scenario::Scenario& s) {
+  std::vector<double> x, y;
+  for (const auto& [name, spec] : s.boundaries)
+    if (spec.part) {
+      for (const auto& v : {spec.part->x_from, spec.part->x_to})
+        if (v)
+          x.push_back(*v);
+      for (const auto& v : {spec.part->y_from, spec.part->y_to})
+        if (v)
+          y.push_back(*v);
+    }
+  return {x, y};
+}
+
+Mesh generated_mesh(const scenario::Scenario& s,
+                    MPI_Comm comm,
+                    const std::string& msh_path) {
   GmshSession session;
   try {
     GridPlan plan;
@@ -173,7 +187,8 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
       for (const auto& stage : s.stages)
         if (stage.dig_level)
           dig_levels.push_back(*stage.dig_level);
-      plan = section_plan(*s.section, s.analysis, dig_levels);
+      const auto [x_ends, y_ends] = window_ends(s);
+      plan = section_plan(*s.section, s.analysis, dig_levels, x_ends, y_ends);
     } else
       plan = box_plan(*s.box);
     check_model_size(s, planned_cells(plan));
@@ -189,6 +204,22 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
     gmsh::write(msh_path);
   }
   return mesh_from_current_model(s.source_path, comm, false);
+}
+
+} // namespace
+
+Mesh coarse_scenario_mesh(const scenario::Scenario& s,
+                          MPI_Comm comm,
+                          const std::string& msh_path) {
+  Mesh mesh = [&] {
+    if (!s.mesh_file)
+      return generated_mesh(s, comm, msh_path);
+    Mesh file_mesh = read_gmsh_file(s.mesh_file->path, comm);
+    check_model_size(s, file_mesh.triangulation->n_global_active_cells());
+    return file_mesh;
+  }();
+  apply_boundary_parts(s, mesh);
+  return mesh;
 }
 
 MeshSummary summarise(const Mesh& mesh) {

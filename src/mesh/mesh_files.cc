@@ -92,11 +92,13 @@ void write_scenario_mesh(const scenario::Scenario& s,
     return;
   std::filesystem::create_directories(directory);
   const std::string msh = directory + "/mesh.msh";
-  const Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF, true)
-                                : coarse_scenario_mesh(s, MPI_COMM_SELF, msh);
-  if (s.mesh_file)
+  Mesh mesh = s.mesh_file ? read_gmsh_file(s.mesh_file->path, MPI_COMM_SELF, true)
+                          : coarse_scenario_mesh(s, MPI_COMM_SELF, msh);
+  if (s.mesh_file) {
+    apply_boundary_parts(s, mesh); // a generated mesh has its parts already
     std::filesystem::copy_file(s.mesh_file->path, msh,
                                std::filesystem::copy_options::overwrite_existing);
+  }
   write_cells(mesh, directory + "/mesh_cells.vtu");
   write_names(mesh, write_lines(mesh, directory + "/mesh_lines.vtu"),
               directory + "/names.toml");

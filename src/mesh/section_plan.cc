@@ -65,9 +65,23 @@ SectionFrame frame_of(const Section& s, AnalysisType analysis) {
   return f;
 }
 
-std::vector<AxisInterval> x_intervals(const SectionFrame& f) {
+/// The ends strictly inside (low, high): edges of blocks without a grading of
+/// their own.
+void add_inside(std::vector<double>& points,
+                const std::vector<double>& ends,
+                double low,
+                double high,
+                double tol) {
+  for (const double v : ends)
+    if (v > low + tol && v < high - tol)
+      points.push_back(v);
+}
+
+std::vector<AxisInterval> x_intervals(const SectionFrame& f,
+                                      const std::vector<double>& x_ends) {
   const Section& s = f.s;
   std::vector<double> points{f.x_min, f.x_max};
+  add_inside(points, x_ends, f.x_min, f.x_max, f.tol);
   std::vector<GradingFeature> features;
   for (const double side : {-1.0, 1.0}) {
     const double edge = side * f.half_width;
@@ -96,9 +110,11 @@ std::vector<AxisInterval> x_intervals(const SectionFrame& f) {
 }
 
 std::vector<AxisInterval> y_intervals(const SectionFrame& f,
-                                      const std::vector<double>& dig_levels) {
+                                      const std::vector<double>& dig_levels,
+                                      const std::vector<double>& y_ends) {
   const Section& s = f.s;
   std::vector<double> points{s.bottom, s.ground_surface, s.excavation_level()};
+  add_inside(points, y_ends, s.bottom, s.ground_surface, f.tol);
   std::vector<GradingFeature> features{{s.ground_surface, s.mesh.near_wall},
                                        {s.excavation_level(), s.mesh.near_wall}};
   for (const double level : dig_levels) {
@@ -130,11 +146,13 @@ std::vector<AxisInterval> y_intervals(const SectionFrame& f,
 
 GridPlan section_plan(const Section& s,
                       AnalysisType analysis,
-                      const std::vector<double>& dig_levels) {
+                      const std::vector<double>& dig_levels,
+                      const std::vector<double>& x_ends,
+                      const std::vector<double>& y_ends) {
   const SectionFrame f = frame_of(s, analysis);
   GridPlan plan;
-  plan.x = x_intervals(f);
-  plan.y = y_intervals(f, dig_levels);
+  plan.x = x_intervals(f, x_ends);
+  plan.y = y_intervals(f, dig_levels, y_ends);
   const std::vector<double> X = corner_coordinates(plan.x),
                             Y = corner_coordinates(plan.y);
   const double y_exc = s.excavation_level();

@@ -6,6 +6,7 @@
 
 #include <deal.II/base/mpi.h>
 
+#include <algorithm>
 #include <cmath>
 #include <functional>
 #include <limits>
@@ -489,9 +490,12 @@ void add_props(const Scenario& s, const Schedule& schedule, BiotSetup& setup) {
 
 std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh& mesh) {
   std::map<std::string, BoundarySpec> roles;
-  for (const auto& name : mesh.names.boundary_names())
-    roles[name] = default_role(s, name);
-  for (const auto& [name, spec] : s.boundaries) {
+  for (const auto& name : mesh.names.boundary_names()) {
+    const auto spec = s.boundaries.find(name);
+    if (spec == s.boundaries.end() || !spec->second.part)
+      roles[name] = default_role(s, name);
+  }
+  const auto apply = [&](const std::string& name, const BoundarySpec& spec) {
     const bool internal = mesh.internal_lines.count(name) != 0;
     if (!mesh.names.has_boundary(name) && !internal) {
       std::string known;
@@ -508,6 +512,27 @@ std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh
       r.hydraulic = spec.hydraulic, r.head = spec.head;
     if (spec.mechanical != BoundarySpec::Mechanical::unset)
       r.mechanical = spec.mechanical;
+  };
+  for (const auto& [name, spec] : s.boundaries)
+    if (!spec.part)
+      apply(name, spec);
+  // A part starts from what holds on its boundary (parents first; the mesh has
+  // checked that every parent exists), then takes its own settings.
+  std::vector<std::string> parts;
+  for (const auto& [name, spec] : s.boundaries)
+    if (spec.part)
+      parts.push_back(name);
+  while (!parts.empty()) {
+    const auto next = std::find_if(parts.begin(), parts.end(), [&](const auto& n) {
+      return roles.count(s.boundaries.at(n).part->of) != 0;
+    });
+    if (next == parts.end())
+      throw InternalError("a boundary part's parent has no role");
+    const std::string name = *next;
+    parts.erase(next);
+    const auto& spec = s.boundaries.at(name);
+    roles[name] = roles.at(spec.part->of);
+    apply(name, spec);
   }
   return roles;
 }

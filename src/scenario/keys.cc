@@ -93,6 +93,12 @@ const std::vector<KeySpec>& all_keys() {
     {"boundaries.<name>.hydraulic", "string", "", "depends on the boundary", "no_flow or fixed_head"},
     {"boundaries.<name>.head", "number", "m", "the initial head", "Head held on a fixed_head boundary"},
     {"boundaries.<name>.mechanical", "string", "", "depends on the boundary", "free, fixed (both directions) or roller (normal direction fixed)"},
+    {"boundaries.<name>.part_of", "string", "", "-", "Makes <name> a part of this boundary (its faces on the side and in the window); what the part does not set it takes from that boundary"},
+    {"boundaries.<name>.side", "string", "", "-", "With part_of: left (x < 0) or right (x > 0) side of a full section's boundary"},
+    {"boundaries.<name>.x_from", "number", "m", "-", "With part_of: the part's faces have their midpoints at x >= x_from"},
+    {"boundaries.<name>.x_to", "number", "m", "-", "With part_of: ... at x <= x_to"},
+    {"boundaries.<name>.y_from", "number", "m", "-", "With part_of: ... at elevations >= y_from"},
+    {"boundaries.<name>.y_to", "number", "m", "-", "With part_of: ... at elevations <= y_to"},
 
     {"stages[].name", "string", "", "required", "Stage name"},
     {"stages[].duration", "number", "days", "required", "Stage duration (stages follow each other)"},

@@ -18,6 +18,13 @@ double Scenario::end_time() const {
   return t;
 }
 
+bool BoundaryPart::contains(double x, double y) const {
+  if (side && (*side == "left" ? x >= 0.0 : x <= 0.0))
+    return false;
+  return (!x_from || x >= *x_from) && (!x_to || x <= *x_to) &&
+         (!y_from || y >= *y_from) && (!y_to || y <= *y_to);
+}
+
 std::string Scenario::location_of(const std::string& key_path) const {
   const auto found = locations.find(key_path);
   return found != locations.end() ? found->second : source_path;
@@ -152,6 +159,50 @@ void parse_initial_state(const TableReader& top, Scenario& s) {
   s.gravity_loading = method == "gravity";
 }
 
+namespace {
+
+/// A window's two ends: both optional, the second above the first.
+void read_window(const TableReader& r,
+                 const std::string& from,
+                 const std::string& to,
+                 std::optional<double>& low,
+                 std::optional<double>& high) {
+  if (r.has(from))
+    low = r.elevation(from);
+  if (r.has(to))
+    high = r.elevation(to);
+  if (low && high && !(*high > *low))
+    r.fail(to, "must be greater than " + from);
+}
+
+/// boundaries.<name>.part_of and its side and window, if given.
+std::optional<BoundaryPart>
+read_boundary_part(const TableReader& r, const Scenario& s, const std::string& name) {
+  if (!r.has("part_of")) {
+    for (const char* key : {"side", "x_from", "x_to", "y_from", "y_to"})
+      if (r.has(key))
+        r.fail(key, "needs part_of, the boundary this is a part of");
+    return std::nullopt;
+  }
+  BoundaryPart part;
+  part.of = r.text("part_of");
+  if (part.of == name)
+    r.fail("part_of", "names the boundary itself");
+  if (r.has("side")) {
+    part.side = r.text("side");
+    if (part.side != "left" && part.side != "right")
+      r.fail("side", "must be left (x < 0) or right (x > 0) (got '" + *part.side + "')");
+    if (s.section && (s.section->half_model || s.analysis == AnalysisType::axisymmetric))
+      r.fail("side", "a half model or an axisymmetric section has its far boundary on "
+                     "the right only; give x_from/x_to or y_from/y_to instead");
+  }
+  read_window(r, "x_from", "x_to", part.x_from, part.x_to);
+  read_window(r, "y_from", "y_to", part.y_from, part.y_to);
+  return part;
+}
+
+} // namespace
+
 void parse_boundaries(const TableReader& top, Scenario& s) {
   for_each_named(top, "boundaries", [&](const std::string& name, const TableReader& r) {
     BoundarySpec b;
@@ -177,9 +228,11 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
       b.mechanical = BoundarySpec::Mechanical::roller;
     else if (!mechanical.empty())
       r.fail("mechanical", "must be free, fixed or roller (got '" + mechanical + "')");
+    b.part = read_boundary_part(r, s, name);
     s.boundaries[name] = b;
-    s.locations["boundaries." + name] =
-        r.where(r.has("hydraulic") ? "hydraulic" : "mechanical");
+    s.locations["boundaries." + name] = r.where(b.part               ? "part_of"
+                                                : r.has("hydraulic") ? "hydraulic"
+                                                                     : "mechanical");
   });
 }
 

@@ -120,3 +120,17 @@ TEST(KeyRegistry, ReferenceListsEachTableOnceWithColumnsApart) {
   }
   EXPECT_EQ(keys, int(sc::all_keys().size()));
 }
+
+// A boundary part holds the faces whose midpoints lie on its side and in its
+// window; an end not given is open.
+TEST(BoundaryPart, ContainsMidpointsOnItsSideAndInItsWindow) {
+  sc::BoundaryPart bank{"far_boundary", "left", std::nullopt, std::nullopt, -16.0, -3.0};
+  EXPECT_TRUE(bank.contains(-68.4, -9.0));
+  EXPECT_FALSE(bank.contains(68.4, -9.0));   // the right side
+  EXPECT_FALSE(bank.contains(-68.4, -20.0)); // below the window
+  EXPECT_TRUE(bank.contains(-68.4, -3.0));   // the window's ends belong to it
+  sc::BoundaryPart channel{"ground_surface", std::nullopt, std::nullopt, -28.4,
+                           std::nullopt,     std::nullopt};
+  EXPECT_TRUE(channel.contains(-50.0, 4.0));
+  EXPECT_FALSE(channel.contains(-20.0, 4.0));
+}

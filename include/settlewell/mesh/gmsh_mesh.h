@@ -48,6 +48,19 @@ Mesh coarse_scenario_mesh(const scenario::Scenario& s,
                           MPI_Comm comm,
                           const std::string& msh_path = "");
 
+/// Gives each part of a boundary (boundaries.<name>.part_of) its own boundary id:
+/// the parent's faces whose midpoints the part contains. On the coarse mesh, before
+/// refinement. Throws InputError naming the key if the parent is unknown, the part
+/// takes no face or every face, or its name is taken.
+void apply_boundary_parts(const scenario::Scenario& s, Mesh& mesh);
+
+/// The smallest box holding a boundary's faces, for `check`. Collective.
+struct BoundaryExtent {
+  double x_min, x_max, y_min, y_max; ///< m
+  std::string text() const;          ///< "x -120 m, y -4 to 3.5 m"
+};
+BoundaryExtent boundary_extent(const Mesh& mesh, const std::string& name);
+
 /// Reads a Gmsh file whose physical groups name the regions (surfaces) and the
 /// boundaries or internal lines (curves). Collective. Warns of slender cells
 /// unless `quiet` (a second reading of the same file).

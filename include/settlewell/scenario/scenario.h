@@ -103,6 +103,17 @@ struct Groundwater {
   std::map<std::string, double> layer_heads; ///< piezometric head per layer, m
 };
 
+/// A part of a boundary that takes conditions of its own (a river over part of a
+/// far boundary or of the ground surface): the faces of `of` whose midpoints lie
+/// on `side` (left: x < 0, right: x > 0) and inside the window. The rest of `of`
+/// keeps its conditions; what the part does not set, it takes from `of`.
+struct BoundaryPart {
+  std::string of;
+  std::optional<std::string> side;                  ///< "left" or "right"
+  std::optional<double> x_from, x_to, y_from, y_to; ///< m
+  bool contains(double x, double y) const;
+};
+
 /// What holds on a named boundary for the whole analysis (stages may change heads).
 struct BoundarySpec {
   enum class Hydraulic { unset, no_flow, fixed_head };
@@ -110,6 +121,7 @@ struct BoundarySpec {
   Hydraulic hydraulic = Hydraulic::unset;
   std::optional<double> head; ///< m; fixed_head without it keeps the initial head
   Mechanical mechanical = Mechanical::unset;
+  std::optional<BoundaryPart> part; ///< set when the boundary is a part of another
 };
 
 /// A change a stage makes to one controlled item, reached at the end of the ramp.
