@@ -59,12 +59,12 @@ std::vector<double> stage_output_times(const StageTimes& st,
   return times;
 }
 
-/// The steps of a stage, by default from a thousandth of it to a fortieth, and to a
-/// hundredth of a ramp inside it. They were chosen for implicit Euler, which leads a
-/// ramped change by about half a step (with a twentieth of the ramp the
-/// layered-column example ran 3 % ahead of the hand solution; with a hundredth,
-/// under 1 %; with a tenth of the stage the demo's histories were up to 1.2 % from a
-/// run with four times the steps, with a fortieth 0.4 %: tests/smoke/
+/// The ladder of a stage, by default from a thousandth of it to a fortieth, and to
+/// a hundredth of a ramp inside it (after the ramp, stage_step_times climbs on). They
+/// were chosen for implicit Euler, which leads a ramped change by about half a step (with
+/// a twentieth of the ramp the layered-column example ran 3 % ahead of the hand solution;
+/// with a hundredth, under 1 %; with a tenth of the stage the demo's histories were up
+/// to 1.2 % from a run with four times the steps, with a fortieth 0.4 %: tests/smoke/
 /// ladder_accuracy.py). BDF2 (physics/step_weights.h) is more accurate on the same
 /// steps; fewer steps by default have not been measured yet.
 Ladder stage_ladder(const StageTimes& st, const scenario::TimeSteps& steps) {
@@ -78,6 +78,32 @@ Ladder stage_ladder(const StageTimes& st, const scenario::TimeSteps& steps) {
   ladder.growth = steps.growth;
   ladder.per_rung = steps.per_rung;
   return ladder;
+}
+
+/// The steps of a stage that land on every must-hit time: the stage's ladder up to
+/// the end of its ramp, then, unless the scenario caps the step itself, a ladder
+/// from the ramp's last step up to a fortieth of the stage. (One ladder for the
+/// whole stage kept a hundredth of the ramp to the stage's end: a pit lift dug
+/// over 4 days of a 20-day stage took 500 steps.)
+std::vector<double> stage_step_times(const StageTimes& st,
+                                     const scenario::TimeSteps& steps,
+                                     const std::vector<double>& must_hit) {
+  const Ladder ladder = stage_ladder(st, steps);
+  const bool ramp_inside = st.ramp_end > st.start && st.ramp_end < st.end;
+  if (!ramp_inside || steps.largest > 0.0)
+    return ladder_times(st.start, must_hit, ladder);
+  std::vector<double> in_ramp, after_ramp;
+  for (const double t : must_hit)
+    (t <= st.ramp_end ? in_ramp : after_ramp).push_back(t);
+  std::vector<double> times = ladder_times(st.start, in_ramp, ladder);
+  const double last_step =
+      times.size() > 1 ? times.back() - times[times.size() - 2] : times.back() - st.start;
+  Ladder after = ladder;
+  after.first = last_step;
+  after.largest = std::max(last_step, (st.end - st.start) / 40.0);
+  const auto rest = ladder_times(st.ramp_end, after_ramp, after);
+  times.insert(times.end(), rest.begin(), rest.end());
+  return times;
 }
 
 } // namespace
@@ -102,7 +128,7 @@ Schedule::Schedule(const scenario::Scenario& s) {
     const auto same = [](double a, double b) { return b - a <= 1e-9 * std::abs(b); };
     must_hit.erase(std::unique(must_hit.begin(), must_hit.end(), same), must_hit.end());
     check_step_count(s, st, ladder);
-    const auto stage_steps = ladder_times(st.start, must_hit, ladder);
+    const auto stage_steps = stage_step_times(st, s.stages[k].steps, must_hit);
     steps_.insert(steps_.end(), stage_steps.begin(), stage_steps.end());
     outputs_.push_back(st.end);
     for (const double o : s.output.times)

@@ -1,5 +1,6 @@
 #include "settlewell/boundary/time_function.h"
 #include "settlewell/core/errors.h"
+#include "settlewell/model/schedule.h"
 #include "settlewell/physics/step_weights.h"
 #include "settlewell/time/time_grid.h"
 
@@ -188,4 +189,31 @@ TEST(TimeFunction, PiecewiseLinearInterpolatesAndHoldsEnds) {
   EXPECT_DOUBLE_EQ(ramp(3.0), 4.0);
   EXPECT_DOUBLE_EQ(step_at_start(3.0)(0.0), 0.0);
   EXPECT_DOUBLE_EQ(step_at_start(3.0)(1e-9), 3.0);
+}
+
+// A ramp shorter than its stage caps the steps at a hundredth of the ramp inside
+// it only; after it the ladder climbs on to a fortieth of the stage. (One cap for
+// the whole stage made a 90-day stage with a 14-day ramp take 647 steps.)
+TEST(Schedule, StepsClimbAgainAfterARampShorterThanTheStage) {
+  settlewell::scenario::Scenario s;
+  settlewell::scenario::Stage stage;
+  stage.name = "pump";
+  stage.duration = 90.0 * 86400.0;
+  stage.ramp = 14.0 * 86400.0;
+  s.stages.push_back(stage);
+  const settlewell::model::Schedule schedule(s);
+  const auto& t = schedule.step_times();
+  const double ramp_end = stage.ramp, hundredth = stage.ramp / 100;
+  EXPECT_TRUE(std::any_of(t.begin(), t.end(),
+                          [&](double v) { return std::abs(v - ramp_end) < 1e-6; }));
+  double largest_in_ramp = 0.0, largest_after = 0.0;
+  for (std::size_t i = 0; i < t.size(); ++i) {
+    const double step = t[i] - (i == 0 ? 0.0 : t[i - 1]);
+    (t[i] <= ramp_end + 1e-6 ? largest_in_ramp : largest_after) =
+        std::max(t[i] <= ramp_end + 1e-6 ? largest_in_ramp : largest_after, step);
+  }
+  EXPECT_LE(largest_in_ramp, hundredth * (1 + 1e-9));
+  EXPECT_NEAR(largest_after, stage.duration / 40, 1e-6 * stage.duration);
+  EXPECT_LT(t.size(), 200u); // 171: the ramp's ~110 and the climb to 90/40 days
+  EXPECT_DOUBLE_EQ(t.back(), stage.duration);
 }
