@@ -49,27 +49,16 @@ move_faces(Mesh& mesh, const scenario::BoundaryPart& part, const std::string& na
 } // namespace
 
 void apply_boundary_parts(const scenario::Scenario& s, Mesh& mesh) {
-  // Parts of parts are taken in an order where each parent exists first.
-  std::vector<std::string> pending;
-  for (const auto& [name, spec] : s.boundaries)
-    if (spec.part)
-      pending.push_back(name);
-  while (!pending.empty()) {
-    const auto ready = std::find_if(pending.begin(), pending.end(), [&](const auto& n) {
-      return mesh.names.has_boundary(s.boundaries.at(n).part->of);
-    });
-    if (ready == pending.end()) {
-      const std::string& name = pending.front();
-      const std::string& of = s.boundaries.at(name).part->of;
-      const std::string suggestion = scenario::nearest(of, mesh.names.boundary_names());
+  for (const auto& name : s.boundary_parts_parents_first()) {
+    const auto& part = *s.boundaries.at(name).part;
+    if (!mesh.names.has_boundary(part.of)) {
+      const std::string suggestion =
+          scenario::nearest(part.of, mesh.names.boundary_names());
       throw InputError(s.location_of("boundaries." + name) + ": boundaries." + name +
-                       ".part_of: the mesh has no boundary '" + of + "'" +
+                       ".part_of: the mesh has no boundary '" + part.of + "'" +
                        (suggestion.empty() ? " (known: " + known_boundaries(mesh) + ")"
                                            : "; did you mean '" + suggestion + "'?"));
     }
-    const std::string name = *ready;
-    pending.erase(ready);
-    const auto& part = *s.boundaries.at(name).part;
     if (mesh.names.has_boundary(name) || mesh.internal_lines.count(name))
       throw InputError(s.location_of("boundaries." + name) + ": boundaries." + name +
                        ": the mesh already has a line of that name; a part needs a "

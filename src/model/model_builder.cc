@@ -516,20 +516,9 @@ std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh
   for (const auto& [name, spec] : s.boundaries)
     if (!spec.part)
       apply(name, spec);
-  // A part starts from what holds on its boundary (parents first; the mesh has
-  // checked that every parent exists), then takes its own settings.
-  std::vector<std::string> parts;
-  for (const auto& [name, spec] : s.boundaries)
-    if (spec.part)
-      parts.push_back(name);
-  while (!parts.empty()) {
-    const auto next = std::find_if(parts.begin(), parts.end(), [&](const auto& n) {
-      return roles.count(s.boundaries.at(n).part->of) != 0;
-    });
-    if (next == parts.end())
-      throw InternalError("a boundary part's parent has no role");
-    const std::string name = *next;
-    parts.erase(next);
+  // A part starts from what holds on its boundary (parents first), then takes its
+  // own settings.
+  for (const auto& name : s.boundary_parts_parents_first()) {
     const auto& spec = s.boundaries.at(name);
     roles[name] = roles.at(spec.part->of);
     apply(name, spec);

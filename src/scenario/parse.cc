@@ -25,6 +25,29 @@ bool BoundaryPart::contains(double x, double y) const {
          (!y_from || y >= *y_from) && (!y_to || y <= *y_to);
 }
 
+std::vector<std::string> Scenario::boundary_parts_parents_first() const {
+  std::vector<std::string> pending, ordered;
+  for (const auto& [name, spec] : boundaries)
+    if (spec.part)
+      pending.push_back(name);
+  const auto placed = [&](const std::string& parent) {
+    const auto found = boundaries.find(parent);
+    return found == boundaries.end() || !found->second.part ||
+           std::find(ordered.begin(), ordered.end(), parent) != ordered.end();
+  };
+  while (!pending.empty()) {
+    const auto next = std::find_if(pending.begin(), pending.end(), [&](const auto& n) {
+      return placed(boundaries.at(n).part->of);
+    });
+    if (next == pending.end())
+      throw InputError(location_of("boundaries." + pending.front()) + ": boundaries." +
+                       pending.front() + ".part_of: the parts form a loop");
+    ordered.push_back(*next);
+    pending.erase(next);
+  }
+  return ordered;
+}
+
 std::string Scenario::location_of(const std::string& key_path) const {
   const auto found = locations.find(key_path);
   return found != locations.end() ? found->second : source_path;
@@ -234,6 +257,7 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
                                                 : r.has("hydraulic") ? "hydraulic"
                                                                      : "mechanical");
   });
+  s.boundary_parts_parents_first(); // refuses parts that form a loop
 }
 
 Scenario parse_scenario(const std::string& text, const std::string& name) {

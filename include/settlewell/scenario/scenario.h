@@ -243,6 +243,9 @@ struct Scenario {
   double end_time() const;
   /// "FILE:LINE:COL" of a key path if known, else the file name.
   std::string location_of(const std::string& key_path) const;
+  /// The names of the boundaries that are parts of others, each after the part it
+  /// is a part of (if that is a part too). The parser has refused loops.
+  std::vector<std::string> boundary_parts_parents_first() const;
 };
 
 } // namespace settlewell::scenario
