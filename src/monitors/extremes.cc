@@ -86,8 +86,10 @@ Located share_largest(const std::vector<Located>& candidates, MPI_Comm comm) {
   return out;
 }
 
-/// Where each dof of the owned cells lies, and the regions of the owned cells that
-/// hold it (two or more on a boundary between regions).
+/// Where each dof of this process's cells lies, and the regions of the cells that
+/// hold it (two or more on a boundary between regions). The ghost cells count too:
+/// every cell beside an owned dof is owned or a ghost, so a dof on a partition's
+/// edge has the same regions on any number of processes.
 struct DofPlaces {
   std::map<types::global_dof_index, unsigned int> component;
   std::map<types::global_dof_index, std::set<std::string>> regions;
@@ -109,7 +111,7 @@ DofPlaces dof_places(const BiotProblem& problem) {
   const auto& fe = dh.get_fe();
   std::vector<types::global_dof_index> cell_dofs(fe.n_dofs_per_cell());
   for (const auto& cell : dh.active_cell_iterators())
-    if (cell->is_locally_owned()) {
+    if (!cell->is_artificial()) {
       cell->get_dof_indices(cell_dofs);
       const std::string& region = problem.mesh().names.region_name(cell->material_id());
       for (unsigned int i = 0; i < cell_dofs.size(); ++i) {
