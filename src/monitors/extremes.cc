@@ -52,14 +52,18 @@ void Extremes::Sites::add(types::global_dof_index dof,
 
 namespace {
 
-/// The largest value over every process and its place. Of the places whose value
-/// is the same maximum (within same_value), the one with the least x, then y: the
-/// same place for any partition of the mesh.
-Located share_largest(const std::vector<Located>& candidates, MPI_Comm comm) {
+/// The largest value over every process, and its place when it is clearly larger
+/// than `kept` (the maximum so far, the same on every process): only a new maximum
+/// is gathered. Of the places whose value is the same maximum (within same_value),
+/// the one with the least x, then y: the same place for any partition of the mesh.
+Located
+share_largest(const std::vector<Located>& candidates, MPI_Comm comm, double kept) {
   double local = 0.0;
   for (const auto& c : candidates)
     local = std::max(local, c.value);
   const double largest = Utilities::MPI::max(local, comm);
+  if (!clearly_larger(largest, kept))
+    return Located{largest, 0.0, 0.0, 0.0, ""}; // not a new maximum: no place needed
   const auto first = [](const Located& a, const Located& b) {
     return a.x < b.x || (a.x == b.x && a.y < b.y);
   };
@@ -194,7 +198,10 @@ Extremes::Extremes(const RunContext& run) {
       outside_p_by_region_[name];
 }
 
-Located Extremes::largest(const BiotProblem& problem, const Sites& sites, double factor) {
+Located Extremes::largest(const BiotProblem& problem,
+                          const Sites& sites,
+                          double factor,
+                          double kept) {
   // The candidates: this process's values above zero (a maximum of 0 has no place).
   std::vector<Located> candidates;
   const auto values = values_at(problem.reported_solution(), sites.dofs);
@@ -205,7 +212,7 @@ Located Extremes::largest(const BiotProblem& problem, const Sites& sites, double
     if (factor * values[i] > 0.0 && !clearly_larger(local, factor * values[i]))
       candidates.push_back({factor * values[i], sites.points[i][0], sites.points[i][1],
                             0.0, sites.regions[i]});
-  return share_largest(candidates, problem.communicator());
+  return share_largest(candidates, problem.communicator(), kept);
 }
 
 Located Extremes::floor_heave_now(const BiotProblem& problem) const {
@@ -231,7 +238,7 @@ Located Extremes::floor_heave_now(const BiotProblem& problem) const {
           {up, at[0], at[1], 0.0, problem.mesh().names.region_name(cell->material_id())});
     }
   }
-  return share_largest(candidates, problem.communicator());
+  return share_largest(candidates, problem.communicator(), floor_heave_.value);
 }
 
 std::vector<double> Extremes::after_step(const RunView& view) {
@@ -240,21 +247,23 @@ std::vector<double> Extremes::after_step(const RunView& view) {
   const double t = view.step.time;
   const bool dug = first_dig_ >= 0.0 && t > first_dig_;
   if (!dug)
-    pit_.keep_larger(largest(problem, pit_surface_uy_, -1.0), t);
+    pit_.keep_larger(largest(problem, pit_surface_uy_, -1.0, pit_.value), t);
   else if (has_wall_zone_)
     floor_heave_.keep_larger(floor_heave_now(problem), t);
-  const Located outside_now = largest(problem, outside_surface_uy_, -1.0);
+  const Located outside_now = largest(problem, outside_surface_uy_, -1.0, outside_.value);
   outside_.keep_larger(outside_now, t);
   stage_outside_.resize(view.run.schedule.stages().size(), 0.0);
   stage_outside_[view.stage()] =
       std::max(stage_outside_[view.stage()], outside_now.value);
-  anywhere_.keep_larger(largest(problem, all_uy_, -1.0), t);
-  drawdown_.keep_larger(largest(problem, all_p_, to_drawdown), t);
+  anywhere_.keep_larger(largest(problem, all_uy_, -1.0, anywhere_.value), t);
+  drawdown_.keep_larger(largest(problem, all_p_, to_drawdown, drawdown_.value), t);
   if (has_wall_zone_) {
-    drawdown_outside_.keep_larger(largest(problem, outside_p_, to_drawdown), t);
-    for (const auto& [region, sites] : outside_p_by_region_)
-      drawdown_outside_by_region_[region].keep_larger(
-          largest(problem, sites, to_drawdown), t);
+    drawdown_outside_.keep_larger(
+        largest(problem, outside_p_, to_drawdown, drawdown_outside_.value), t);
+    for (const auto& [region, sites] : outside_p_by_region_) {
+      Located& kept = drawdown_outside_by_region_[region];
+      kept.keep_larger(largest(problem, sites, to_drawdown, kept.value), t);
+    }
   }
   return {};
 }

@@ -44,9 +44,10 @@ private:
              const dealii::Point<2>& at,
              const std::string& region);
   };
-  /// The largest of factor * solution over `sites` of every process, and where; 0
-  /// (and no place) if none is larger.
-  static Located largest(const BiotProblem& problem, const Sites& sites, double factor);
+  /// The largest of factor * solution over `sites` of every process (0 if none is
+  /// larger), and where when it is clearly larger than `kept`.
+  static Located
+  largest(const BiotProblem& problem, const Sites& sites, double factor, double kept);
   /// The largest upward displacement of the ground still in the model inside the
   /// wall, over every process, and where.
   Located floor_heave_now(const BiotProblem& problem) const;

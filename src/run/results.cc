@@ -100,6 +100,7 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.floor_heave = sum["floor_heave_m"].value<double>();
   summary.settlement_outside = sum["settlement_outside_m"].value<double>();
   summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
+  summary.modelled_half = r["modelled_half"].value_or(false);
   for (const char* key : {"settlement_inside", "floor_heave", "settlement_outside",
                           "settlement_anywhere", "drawdown_outside", "drawdown_anywhere"})
     if (const auto* at = sum[std::string(key) + "_at"].as_table())
@@ -156,7 +157,7 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   else
     out << "  largest drawdown: " << significant(r.drawdown_anywhere) << " m"
         << where("drawdown_anywhere") << "\n";
-  const bool half = per_metre && s.section && s.section->half_model;
+  const bool half = r.modelled_half;
   const auto volume_text = [&](double v) {
     return significant(v) + (per_metre ? " m3 per metre run" : " m3") +
            (half ? " in the modelled half (" + significant(2 * v) + " for the whole pit)"

@@ -41,6 +41,9 @@ struct RunSummary {
   /// Where and when each of the values above was reached, by its results.toml
   /// name ("settlement_outside": "at x 37.3 m, y 6.00 m (upper_sand), day 365").
   std::map<std::string, std::string> where;
+  /// Whether the model is the half of a symmetric section (its volumes are half
+  /// the whole pit's).
+  bool modelled_half = false;
   /// Pumped volume per pumped line (m^3; per metre run in plane strain).
   std::map<std::string, double> pumped_volume;
   /// The same per stage, in stage order.
