@@ -120,7 +120,13 @@ def read_grid(path):
     points = vtk_to_numpy(grid.GetPoints().GetData())
     cells = [[grid.GetCell(c).GetPointId(i) for i in range(grid.GetCell(c).GetNumberOfPoints())]
              for c in range(grid.GetNumberOfCells())]
-    return points, cells, grid.GetPointData()
+    return points, cells, grid.GetCellData()
+
+
+def cell_texts(data, name):
+    """A String array of cell data (VTK keeps those apart from numeric arrays)."""
+    array = data.GetAbstractArray(name)
+    return [array.GetValue(i) for i in range(array.GetNumberOfValues())]
 
 
 def label_position(centres, x_min, x_max):
@@ -152,15 +158,10 @@ def mesh_geometry(run):
     between regions and where each region's name goes, the wall's cells and its
     extent along x, the well screens and the excavation level."""
     folder = os.path.join(run, "mesh")
-    with open(os.path.join(folder, "names.toml"), "rb") as f:
-        names = tomllib.load(f)
-    regions = {int(k): v for k, v in names["regions"].items()}
-    lines = {int(k): v for k, v in names["lines"].items()}
     points, cells, data = read_grid(os.path.join(folder, "mesh_cells.vtu"))
-    region = vtk_to_numpy(data.GetArray("region"))
+    region_names = cell_texts(data, "region_name")
     owners, wall, centres = {}, [], {}
-    for ids in cells:
-        name = regions[int(region[ids[0]])]  # constant over the cell
+    for ids, name in zip(cells, region_names):
         if name == "wall":
             wall.append([tuple(points[i][:2]) for i in ids])
         else:
@@ -173,10 +174,9 @@ def mesh_geometry(run):
     labels = {name: label_position(c, x_min, x_max) for name, c in centres.items()}
     wall_spans = merged_spans([(min(p[0] for p in w), max(p[0] for p in w)) for w in wall])
     points, cells, data = read_grid(os.path.join(folder, "mesh_lines.vtu"))
-    line = vtk_to_numpy(data.GetArray("line"))
     segments = {}
-    for ids in cells:
-        segments.setdefault(lines[int(line[ids[0]])], []).append([points[i][:2] for i in ids])
+    for ids, name in zip(cells, cell_texts(data, "line_name")):
+        segments.setdefault(name, []).append([points[i][:2] for i in ids])
     return {"outlines": outlines, "wall": wall, "wall_spans": wall_spans, "segments": segments,
             "labels": labels, "x_min": x_min}
 

@@ -9,29 +9,56 @@ namespace settlewell::checks {
 
 namespace {
 
-LayerEstimate consolidating_layer(const std::vector<ColumnLayer>& layers,
-                                  std::size_t k,
-                                  double gamma_w,
-                                  bool surface_drained) {
-  const ColumnLayer& l = layers[k];
-  LayerEstimate e{l.name, true, 0.0, 0.0, 0, 0.0, 0.0, l.cv};
-  const double H = l.top - l.bottom;
-  const bool top_drained = k == 0 ? surface_drained : !layers[k - 1].consolidating;
-  const bool bottom_drained = k + 1 < layers.size() && !layers[k + 1].consolidating;
-  const double fall_top = k == 0 ? 0.0 : layers[k - 1].head_fall;
-  const double fall_bottom = k + 1 < layers.size() ? layers[k + 1].head_fall : 0.0;
-  e.drained_faces = int(top_drained) + int(bottom_drained);
-  if (e.drained_faces == 0)
-    return e;
-  // Final effective-stress change gamma_w * (head fall): linear between two
-  // drained faces, uniform when only one drains.
-  const double mean_fall = e.drained_faces == 2 ? 0.5 * (fall_top + fall_bottom)
-                                                : (top_drained ? fall_top : fall_bottom);
-  e.settlement = l.mv * gamma_w * mean_fall * H;
-  e.drainage_path = e.drained_faces == 2 ? H / 2 : H;
-  e.t50 = 0.197 * e.drainage_path * e.drainage_path / l.cv;
-  e.t90 = 0.848 * e.drainage_path * e.drainage_path / l.cv;
-  return e;
+double resistance(const ColumnLayer& l) {
+  return (l.top - l.bottom) / (l.conductivity > 0.0 ? l.conductivity : 1.0);
+}
+
+/// The final head fall at the outer faces of the sequence first..last, m.
+double face_fall(const std::vector<ColumnLayer>& layers, std::size_t k, bool top) {
+  const double given = top ? layers[k].fall_top : layers[k].fall_bottom;
+  if (!std::isnan(given))
+    return given;
+  if (top)
+    return k == 0 ? 0.0 : layers[k - 1].head_fall;
+  return k + 1 < layers.size() ? layers[k + 1].head_fall : 0.0;
+}
+
+/// The estimates of the consolidating layers first..last (one sequence).
+void consolidating_sequence(const std::vector<ColumnLayer>& layers,
+                            std::size_t first,
+                            std::size_t last,
+                            double gamma_w,
+                            bool surface_drained,
+                            std::vector<LayerEstimate>& out) {
+  const bool top_drained = first == 0 ? surface_drained : true;
+  const bool bottom_drained = last + 1 < layers.size();
+  const int faces = int(top_drained) + int(bottom_drained);
+  const double fall_top = face_fall(layers, first, true);
+  const double fall_bottom = face_fall(layers, last, false);
+  double total_resistance = 0.0, time_scale = 0.0; // sum H/k, sum H/sqrt(cv)
+  for (std::size_t k = first; k <= last; ++k) {
+    total_resistance += resistance(layers[k]);
+    time_scale += (layers[k].top - layers[k].bottom) / std::sqrt(layers[k].cv);
+  }
+  double above = 0.0; // resistance above the current layer
+  for (std::size_t k = first; k <= last; ++k) {
+    const ColumnLayer& l = layers[k];
+    LayerEstimate e{l.name, true, 0.0, 0.0, faces, 0.0, 0.0, l.cv};
+    const double share = (above + 0.5 * resistance(l)) / total_resistance;
+    above += resistance(l);
+    if (faces == 0) {
+      out.push_back(e);
+      continue;
+    }
+    const double mean_fall = faces == 2 ? fall_top + (fall_bottom - fall_top) * share
+                                        : (top_drained ? fall_top : fall_bottom);
+    e.settlement = l.mv * gamma_w * mean_fall * (l.top - l.bottom);
+    const double sequence = time_scale * std::sqrt(l.cv); // in this layer's cv, m
+    e.drainage_path = faces == 2 ? sequence / 2 : sequence;
+    e.t50 = 0.197 * e.drainage_path * e.drainage_path / l.cv;
+    e.t90 = 0.848 * e.drainage_path * e.drainage_path / l.cv;
+    out.push_back(e);
+  }
 }
 
 } // namespace
@@ -42,14 +69,21 @@ OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
   OneDEstimate out;
   for (std::size_t k = 0; k < layers.size(); ++k) {
     const ColumnLayer& l = layers[k];
-    LayerEstimate e{l.name, false, 0.0, 0.0, 0, 0.0, 0.0, l.cv};
-    if (l.consolidating)
-      e = consolidating_layer(layers, k, gamma_w, surface_drained);
-    else // a draining layer compresses as its head falls
-      e.settlement = l.mv * gamma_w * l.head_fall * (l.top - l.bottom);
-    out.ultimate += e.settlement;
-    out.layers.push_back(e);
+    if (l.consolidating) {
+      std::size_t last = k;
+      while (last + 1 < layers.size() && layers[last + 1].consolidating)
+        ++last;
+      consolidating_sequence(layers, k, last, gamma_w, surface_drained, out.layers);
+      k = last;
+      continue;
+    }
+    // A draining layer compresses as its head falls.
+    out.layers.push_back({l.name, false,
+                          l.mv * gamma_w * l.head_fall * (l.top - l.bottom), 0.0, 0, 0.0,
+                          0.0, l.cv});
   }
+  for (const auto& e : out.layers)
+    out.ultimate += e.settlement;
   return out;
 }
 

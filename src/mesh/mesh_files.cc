@@ -1,19 +1,20 @@
 // The mesh of a scenario as files for inspection and for the plotting scripts,
-// written with deal.II's DataOut (cells) and DataOutBase (line segments).
+// written as deal.II patches with the region and line ids and names as cell data.
 #include "settlewell/mesh/mesh_files.h"
 
 #include "settlewell/core/errors.h"
 #include "settlewell/core/file_writing.h"
 #include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/output/vtu_extras.h"
 
 #include <deal.II/base/data_out_base.h>
 #include <deal.II/base/mpi.h>
-#include <deal.II/numerics/data_out.h>
 
 #include <toml++/toml.h>
 
 #include <filesystem>
 #include <fstream>
+#include <sstream>
 
 namespace settlewell {
 
@@ -21,16 +22,35 @@ using namespace dealii;
 
 namespace {
 
-/// Cells with their region id as cell data.
+/// The region names "id: name", for the files' field data.
+std::vector<std::string> region_list(const Mesh& mesh) {
+  std::vector<std::string> out;
+  for (const auto& name : mesh.names.region_names())
+    out.push_back(std::to_string(mesh.names.region_id(name)) + ": " + name);
+  return out;
+}
+
+/// Cells with their region's id and name as cell data.
 void write_cells(const Mesh& mesh, const std::string& path) {
-  DataOut<2> data_out;
-  data_out.attach_triangulation(*mesh.triangulation);
-  Vector<float> region(mesh.triangulation->n_active_cells());
-  for (const auto& cell : mesh.triangulation->active_cell_iterators())
-    region[cell->active_cell_index()] = cell->material_id();
-  data_out.add_data_vector(region, "region", DataOut<2>::type_cell_data);
-  data_out.build_patches();
-  write_whole_file(path, [&](std::ostream& out) { data_out.write_vtu(out); });
+  std::vector<DataOutBase::Patch<2, 2>> patches;
+  VtuExtras extras;
+  extras.cell_integers = {{"region", {}}};
+  extras.cell_texts = {{"region_name", {}}};
+  extras.field_texts = {{"region_names", region_list(mesh)}};
+  for (const auto& cell : mesh.triangulation->active_cell_iterators()) {
+    DataOutBase::Patch<2, 2> patch;
+    for (const unsigned int v : cell->vertex_indices())
+      patch.vertices[v] = cell->vertex(v);
+    patch.patch_index = patches.size();
+    patch.reference_cell = cell->reference_cell();
+    patches.push_back(patch);
+    extras.cell_integers[0].values.push_back(cell->material_id());
+    extras.cell_texts[0].values.push_back(mesh.names.region_name(cell->material_id()));
+  }
+  std::ostringstream vtu;
+  DataOutBase::write_vtu(patches, {}, {}, DataOutBase::VtkFlags(), vtu);
+  write_whole_file(path,
+                   [&](std::ostream& out) { out << with_vtu_extras(vtu.str(), extras); });
 }
 
 /// Every boundary face and internal-line segment as a two-point patch carrying the
@@ -38,15 +58,18 @@ void write_cells(const Mesh& mesh, const std::string& path) {
 std::vector<std::string> write_lines(const Mesh& mesh, const std::string& path) {
   std::vector<DataOutBase::Patch<1, 2>> patches;
   std::vector<std::string> names;
+  VtuExtras extras;
+  extras.cell_integers = {{"line", {}}};
+  extras.cell_texts = {{"line_name", {}}};
   auto add_segment = [&](const Point<2>& a, const Point<2>& b) {
     DataOutBase::Patch<1, 2> patch;
     patch.vertices[0] = a;
     patch.vertices[1] = b;
     patch.patch_index = patches.size();
     patch.reference_cell = ReferenceCells::Line;
-    patch.data.reinit(1, 2);
-    patch.data(0, 0) = patch.data(0, 1) = float(names.size() - 1);
     patches.push_back(patch);
+    extras.cell_integers[0].values.push_back(static_cast<int>(names.size() - 1));
+    extras.cell_texts[0].values.push_back(names.back());
   };
   for (const auto& name : mesh.names.boundary_names()) {
     names.push_back(name);
@@ -61,9 +84,10 @@ std::vector<std::string> write_lines(const Mesh& mesh, const std::string& path) 
     for (const auto& s : segments)
       add_segment(s.a, s.b);
   }
-  write_whole_file(path, [&](std::ostream& out) {
-    DataOutBase::write_vtu(patches, {"line"}, {}, DataOutBase::VtkFlags(), out);
-  });
+  std::ostringstream vtu;
+  DataOutBase::write_vtu(patches, {}, {}, DataOutBase::VtkFlags(), vtu);
+  write_whole_file(path,
+                   [&](std::ostream& out) { out << with_vtu_extras(vtu.str(), extras); });
   return names;
 }
 

@@ -125,6 +125,13 @@ void require_line(const Scenario& s,
                      ": the mesh has no line named '" + line + "'");
 }
 
+/// The mesh line of a stage's well: `well_<name>` in a section, and in a mesh file
+/// too when it has that line (as `settlewell mesh` names them); else `<name>`.
+std::string well_line(const Scenario& s, const Mesh& mesh, const std::string& well) {
+  const std::string prefixed = section_names::well(well);
+  return s.section || mesh.has_line(prefixed) ? prefixed : well;
+}
+
 std::map<std::string, ControlItem>
 hydraulic_items(const Scenario& s,
                 const Mesh& mesh,
@@ -154,9 +161,11 @@ hydraulic_items(const Scenario& s,
       item(name).targets[k] = Target{Target::Kind::head, head};
     }
     for (const auto& [well, target] : stage.wells) {
-      const std::string line = s.section ? section_names::well(well) : well;
-      require_line(s, mesh, line, where,
-                   "stage '" + stage.name + "' well '" + well + "'");
+      const std::string line = well_line(s, mesh, well);
+      if (!mesh.has_line(line))
+        throw InputError(s.location_of(where) + ": stage '" + stage.name + "' well '" +
+                         well + "': the mesh has no line named '" + well + "' or '" +
+                         section_names::well(well) + "'");
       item(line).targets[k] = target;
     }
     if (stage.excavation_level_head)
@@ -171,8 +180,8 @@ hydraulic_items(const Scenario& s,
     for (const auto& stage : s.stages)
       for (const auto& [well, target] : stage.wells)
         if (std::none_of(pumped.begin(), pumped.end(),
-                         [&w = well](auto& p) { return p.line == w; }))
-          pumped.push_back({well, well});
+                         [&w = well](auto& p) { return p.label == w; }))
+          pumped.push_back({well, well_line(s, mesh, well)});
   if (items.count(section_names::excavation_level))
     pumped.push_back({section_names::excavation_level, section_names::excavation_level});
   return items;

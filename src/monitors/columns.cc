@@ -1,8 +1,11 @@
 #include "columns.h"
 
-#include "layer_stack.h"
+#include "column_stack.h"
 
+#include "settlewell/core/errors.h"
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/units.h"
+#include "settlewell/model/model_builder.h"
 #include "settlewell/output/csv_file.h"
 
 #include <deal.II/base/mpi.h>
@@ -29,14 +32,6 @@ std::string days_text(double seconds) {
   std::ostringstream os;
   os << std::lround(to_days(seconds)) << " days";
   return os.str();
-}
-
-bool surface_drained(const scenario::Scenario& s, double x) {
-  const bool inside = s.section && std::abs(x) < s.section->excavation_width / 2;
-  const std::string top = s.section ? (inside ? "pit_surface" : "ground_surface") : "top";
-  const auto found = s.boundaries.find(top);
-  return found != s.boundaries.end() &&
-         found->second.hydraulic == scenario::BoundarySpec::Hydraulic::fixed_head;
 }
 
 std::vector<std::string> comparison_notes(const ColumnComparison& c,
@@ -166,20 +161,32 @@ void write_history(const std::string& folder, const ColumnComparison& c, MPI_Com
 
 Columns::Columns(const RunContext& run)
     : scenario_(run.scenario)
-    , layers_(*layers_of(run.scenario)) {
-  const double base = model_base(scenario_);
+    , materials_(run.problem.setup().materials) {
+  const auto roles = model::boundary_roles(scenario_, run.problem.mesh());
   for (const auto& c : scenario_.output.columns) {
     ColumnComparison cc;
     cc.name = c.name;
     cc.x = c.x;
+    const ColumnStack stack = column_stack(run.problem, c.x);
+    if (stack.layers.empty())
+      throw InputError(scenario_.location_of("output.columns." + c.name) + ": column '" +
+                       c.name + "': the line x = " + significant(c.x, 4) +
+                       " m misses the mesh");
+    const auto role = roles.find(stack.top_boundary);
+    cc.surface_drained =
+        role != roles.end() &&
+        role->second.hydraulic == scenario::BoundarySpec::Hydraulic::fixed_head;
+    cc.layers = stack.layers;
     columns_.push_back(cc);
     tops_.emplace_back(run.problem,
-                       std::vector<Point<2>>{Point<2>(c.x, layers_.front().top)},
+                       std::vector<Point<2>>{Point<2>(c.x, stack.layers.front().top)},
                        "column '" + c.name + "'");
-    std::vector<Point<2>> mids;
-    for (std::size_t k = 0; k < layers_.size(); ++k)
-      mids.emplace_back(c.x, 0.5 * (layers_[k].top + bottom_of(layers_, k, base)));
-    layer_mids_.emplace_back(run.problem, mids, "column '" + c.name + "'");
+    // Each layer's top, middle and bottom: the heads at its faces and through it.
+    std::vector<Point<2>> levels;
+    for (const auto& l : stack.layers)
+      for (const double y : {l.top, 0.5 * (l.top + l.bottom), l.bottom})
+        levels.emplace_back(c.x, y);
+    layer_levels_.emplace_back(run.problem, levels, "column '" + c.name + "'");
   }
   design_falls(run);
   // The hand method's ramp is that of the first stage that changes a head.
@@ -192,31 +199,32 @@ Columns::Columns(const RunContext& run)
 }
 
 void Columns::design_falls(const RunContext& run) {
-  // The head falls the scenario itself sets in each layer: a well's final target
-  // head against the initial head at its screen, or a box boundary's.
+  // The head falls the scenario itself sets, by region: a well's final target head
+  // against the initial head at the middle of its screen, in the region there; a
+  // box's top or bottom boundary head in the region it bounds.
   const auto& s = scenario_;
-  design_fall_.assign(layers_.size(), std::numeric_limits<double>::quiet_NaN());
-  auto set_fall = [&](std::size_t k, double fall) {
-    design_fall_[k] =
-        std::isnan(design_fall_[k]) ? fall : std::max(design_fall_[k], fall);
+  auto set_fall = [&](const std::string& region, double fall) {
+    const auto found = design_fall_.find(region);
+    design_fall_[region] =
+        found == design_fall_.end() ? fall : std::max(found->second, fall);
   };
   for (const auto& stage : s.stages) {
     for (const auto& [name, target] : stage.wells) {
-      if (!s.section || target.kind != scenario::Target::Kind::head)
+      if (target.kind != scenario::Target::Kind::head)
         continue;
-      for (const auto& w : s.section->wells)
-        if (w.name == name) {
-          const Point<2> mid(w.x, 0.5 * (w.screen_top + w.screen_bottom));
-          for (std::size_t k = 0; k < layers_.size(); ++k)
-            if (&layer_at(layers_, mid[1]) == &layers_[k])
-              set_fall(k, run.initial.head(mid) - target.value);
+      for (const auto& p : run.model.pumped)
+        if (p.label == name && !p.line.empty()) {
+          const Point<2> mid = line_middle(run.problem, p.line);
+          set_fall(region_at(run.problem, mid), run.initial.head(mid) - target.value);
         }
     }
-    if (s.box)
+    if (s.box && !columns_.empty())
       for (const auto& [boundary, head] : stage.boundary_heads) {
-        const std::size_t k = boundary == "bottom" ? layers_.size() - 1 : 0;
-        if (boundary == "bottom" || boundary == "top")
-          set_fall(k, run.initial.head(Point<2>(0.0, layers_[k].top)) - head);
+        const auto& layers = columns_.front().layers;
+        if (boundary == "bottom" || boundary == "top") {
+          const StackLayer& l = boundary == "bottom" ? layers.back() : layers.front();
+          set_fall(l.region, run.initial.head(Point<2>(0.0, l.top)) - head);
+        }
       }
   }
 }
@@ -240,37 +248,49 @@ std::vector<double> Columns::after_step(const RunView& view) {
   return {};
 }
 
-std::vector<checks::ColumnLayer> Columns::column_layers() const {
-  const double base = model_base(scenario_);
+std::vector<checks::ColumnLayer> Columns::column_layers(const ColumnComparison& c) const {
   std::vector<checks::ColumnLayer> out;
-  for (std::size_t k = 0; k < layers_.size(); ++k) {
-    const auto& m = scenario_.materials.at(layers_[k].material).poroelastic;
-    out.push_back({layers_[k].name, layers_[k].top, bottom_of(layers_, k, base),
-                   1.0 / m.constrained_modulus(),
-                   m.consolidation_coefficient(m.conductivity_y, scenario_.gamma_w),
-                   m.conductivity_y <= scenario_.limits.low_permeability, 0.0});
+  for (const auto& l : c.layers) {
+    const auto& m = materials_.at(l.region);
+    checks::ColumnLayer layer{
+        l.region,
+        l.top,
+        l.bottom,
+        1.0 / m.constrained_modulus(),
+        m.consolidation_coefficient(m.conductivity_y, scenario_.gamma_w),
+        m.conductivity_y <= scenario_.limits.low_permeability,
+        0.0};
+    layer.conductivity = m.conductivity_y;
+    out.push_back(layer);
   }
   return out;
 }
 
 void Columns::compare(std::size_t c, const RunView& view) {
   ColumnComparison& cc = columns_[c];
-  std::vector<checks::ColumnLayer> design = column_layers(), computed = design;
-  const auto mids = layer_mids_[c].evaluate(view.run.problem, view.run.derivation);
-  std::vector<double> computed_fall(design.size());
+  std::vector<checks::ColumnLayer> design = column_layers(cc), computed = design;
+  const auto levels = layer_levels_[c].evaluate(view.run.problem, view.run.derivation);
+  std::vector<double> design_fall(design.size(),
+                                  std::numeric_limits<double>::quiet_NaN()),
+      computed_fall(design.size());
   cc.design_known = false;
   for (std::size_t k = 0; k < design.size(); ++k) {
-    computed_fall[k] = mids[k].drawdown;
+    // The 2D heads: at the layer's faces, and through it by Simpson's rule.
+    const double top = levels[3 * k].drawdown, mid = levels[3 * k + 1].drawdown,
+                 bottom = levels[3 * k + 2].drawdown;
+    computed_fall[k] = (top + 4.0 * mid + bottom) / 6.0;
     computed[k].head_fall = computed_fall[k];
-    if (!std::isnan(design_fall_[k])) {
-      design[k].head_fall = design_fall_[k];
+    computed[k].fall_top = top;
+    computed[k].fall_bottom = bottom;
+    const auto found = design_fall_.find(cc.layers[k].region);
+    if (found != design_fall_.end()) {
+      design_fall[k] = design[k].head_fall = found->second;
       cc.design_known = true;
     }
   }
-  const bool drained = surface_drained(scenario_, cc.x);
-  cc.design = checks::estimate_one_d(design, scenario_.gamma_w, drained);
-  cc.computed = checks::estimate_one_d(computed, scenario_.gamma_w, drained);
-  cc.notes = comparison_notes(cc, design, design_fall_, computed_fall);
+  cc.design = checks::estimate_one_d(design, scenario_.gamma_w, cc.surface_drained);
+  cc.computed = checks::estimate_one_d(computed, scenario_.gamma_w, cc.surface_drained);
+  cc.notes = comparison_notes(cc, design, design_fall, computed_fall);
 }
 
 void Columns::finish(const RunView& view, toml::table& results) {

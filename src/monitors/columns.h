@@ -2,6 +2,8 @@
 
 // Private to src/monitors: the 1D hand estimate at each column beside the 2D
 // settlement there (one_d/<column>.csv and results.toml [[columns]]).
+#include "column_stack.h"
+
 #include "settlewell/checks/one_d.h"
 #include "settlewell/monitors/monitor.h"
 #include "settlewell/output/samples.h"
@@ -15,14 +17,16 @@ struct ColumnComparison {
   checks::OneDEstimate design; ///< head falls the scenario sets (wells' and boundaries')
   checks::OneDEstimate computed; ///< head falls the 2D model computed at this column
   bool design_known = false;
-  double ramp = 0.0;                        ///< s, of the stage that lowers the heads
+  bool surface_drained = false;   ///< the boundary at the column's top holds a head
+  std::vector<StackLayer> layers; ///< the regions the column crosses, top down
+  double ramp = 0.0;              ///< s, of the stage that lowers the heads
   std::vector<double> times, settlement_2d; ///< every step
   std::vector<std::string> notes;
 };
 
 class Columns : public Monitor {
 public:
-  /// A section or box scenario only (make_monitors asks).
+  /// Throws InputError when a column misses the mesh. Collective.
   explicit Columns(const RunContext& run);
   void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
@@ -31,15 +35,15 @@ public:
 
 private:
   void record(const RunView& view);
-  std::vector<checks::ColumnLayer> column_layers() const;
+  std::vector<checks::ColumnLayer> column_layers(const ColumnComparison& c) const;
   void design_falls(const RunContext& run);
   void compare(std::size_t c, const RunView& view);
 
   const scenario::Scenario& scenario_;
-  const std::vector<scenario::Layer>& layers_;
-  std::vector<SamplePoints> tops_, layer_mids_;
+  const std::map<std::string, PoroelasticMaterial>& materials_; ///< by region
+  std::vector<SamplePoints> tops_, layer_levels_;
   std::vector<ColumnComparison> columns_;
-  std::vector<double> design_fall_; ///< per layer of the stack, m (NaN: none set)
+  std::map<std::string, double> design_fall_; ///< by region, m
 };
 
 } // namespace settlewell::monitors

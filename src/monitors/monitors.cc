@@ -2,7 +2,6 @@
 #include "columns.h"
 #include "extremes.h"
 #include "field_series.h"
-#include "layer_stack.h"
 #include "neighbours.h"
 #include "plausibility.h"
 #include "prop_forces.h"
@@ -11,6 +10,23 @@
 #include "water_account.h"
 
 namespace settlewell::monitors {
+
+namespace {
+
+/// Says in the results why the base checks are not made in a user's mesh that
+/// names no pit (the report prints it where the checks would be).
+class BaseChecksSkipped : public Monitor {
+public:
+  void finish(const RunView&, toml::table& results) override {
+    results.insert(
+        "base_stability",
+        toml::table{{"skipped", "the mesh (mesh_file) names no "
+                                "excavation_regions, so there is no pit floor: "
+                                "piping, heave and uplift are not checked"}});
+  }
+};
+
+} // namespace
 
 std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   std::vector<std::unique_ptr<Monitor>> list;
@@ -22,12 +38,14 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   list.push_back(std::make_unique<Plausibility>(run));
   if (run.scenario.section || !run.problem.setup().excavation.empty())
     list.push_back(std::make_unique<BaseStability>(run));
+  else
+    list.push_back(std::make_unique<BaseChecksSkipped>());
   if (!run.problem.setup().springs.empty())
     list.push_back(std::make_unique<PropForces>(run));
   if (run.scenario.section && run.scenario.section->wall)
     list.push_back(std::make_unique<WallProfile>(run));
   list.push_back(std::make_unique<Neighbours>(run));
-  if (layers_of(run.scenario) != nullptr) // a user's mesh has no layer stack
+  if (!run.scenario.output.columns.empty())
     list.push_back(std::make_unique<Columns>(run));
   return list;
 }

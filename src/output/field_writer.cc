@@ -2,6 +2,7 @@
 
 #include "settlewell/core/file_writing.h"
 #include "settlewell/core/units.h"
+#include "settlewell/output/vtu_extras.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/numerics/data_out.h>
@@ -18,6 +19,12 @@ using namespace dealii;
 
 namespace {
 
+std::string number(unsigned int n, unsigned int digits) {
+  std::ostringstream os;
+  os << std::setw(digits) << std::setfill('0') << n;
+  return os.str();
+}
+
 /// Fields derived point by point from the primary unknowns (see DerivedState).
 /// The movements (settlement, volumetric strain) come from the displacement
 /// reported, the state (heads, pressures, stresses, flow) from the solution: when
@@ -30,35 +37,41 @@ public:
       : derivation_(derivation) {
     using namespace DataComponentInterpretation;
     const std::vector<Field> fields{
-        {"settlement", true, component_is_scalar,
+        {"settlement", "m, positive downward", true, component_is_scalar,
          [](const DerivedState& d) { return d.settlement; }},
-        {"hydraulic_head", false, component_is_scalar,
+        {"hydraulic_head", "m", false, component_is_scalar,
          [](const DerivedState& d) { return d.head; }},
-        {"drawdown", false, component_is_scalar,
+        {"drawdown", "m, positive when heads fall", false, component_is_scalar,
          [](const DerivedState& d) { return d.drawdown; }},
-        {"pore_pressure", false, component_is_scalar,
-         [](const DerivedState& d) { return d.pore_pressure; }},
-        {"mean_effective_stress", false, component_is_scalar,
+        {"pore_pressure", "kPa, absolute, compression positive", false,
+         component_is_scalar, [](const DerivedState& d) { return d.pore_pressure; }},
+        {"mean_effective_stress", "kPa, compression positive", false, component_is_scalar,
          [](const DerivedState& d) { return d.mean_effective_stress; }},
-        {"deviator_stress", false, component_is_scalar,
+        {"deviator_stress", "kPa", false, component_is_scalar,
          [](const DerivedState& d) { return d.deviator_stress; }},
-        {"vertical_effective_stress", false, component_is_scalar,
+        {"vertical_effective_stress", "kPa, compression positive", false,
+         component_is_scalar,
          [](const DerivedState& d) { return d.vertical_effective_stress; }},
-        {"volumetric_strain", true, component_is_scalar,
-         [](const DerivedState& d) { return d.volumetric_strain; }},
-        {"effective_stress_out_of_plane", false, component_is_scalar,
+        {"volumetric_strain", "1 (dimensionless), tension positive", true,
+         component_is_scalar, [](const DerivedState& d) { return d.volumetric_strain; }},
+        {"effective_stress_out_of_plane", "kPa, tension positive", false,
+         component_is_scalar,
          [](const DerivedState& d) { return d.effective_stress[2][2]; }},
-        {"darcy_flux", false, component_is_part_of_vector,
+        {"darcy_flux", "m/s", false, component_is_part_of_vector,
          [](const DerivedState& d) { return d.darcy_flux[0]; }},
-        {"darcy_flux", false, component_is_part_of_vector,
+        {"darcy_flux", "m/s", false, component_is_part_of_vector,
          [](const DerivedState& d) { return d.darcy_flux[1]; }},
-        {"effective_stress", false, component_is_part_of_tensor,
+        {"effective_stress", "kPa, absolute, tension positive", false,
+         component_is_part_of_tensor,
          [](const DerivedState& d) { return d.effective_stress[0][0]; }},
-        {"effective_stress", false, component_is_part_of_tensor,
+        {"effective_stress", "kPa, absolute, tension positive", false,
+         component_is_part_of_tensor,
          [](const DerivedState& d) { return d.effective_stress[0][1]; }},
-        {"effective_stress", false, component_is_part_of_tensor,
+        {"effective_stress", "kPa, absolute, tension positive", false,
+         component_is_part_of_tensor,
          [](const DerivedState& d) { return d.effective_stress[0][1]; }},
-        {"effective_stress", false, component_is_part_of_tensor,
+        {"effective_stress", "kPa, absolute, tension positive", false,
+         component_is_part_of_tensor,
          [](const DerivedState& d) { return d.effective_stress[1][1]; }}};
     for (const auto& f : fields)
       if (part == Part::all || (part == Part::movement) == f.movement)
@@ -89,6 +102,14 @@ public:
       kinds.push_back(f.kind);
     return kinds;
   }
+  /// "name: unit" for each field, once.
+  std::vector<std::string> units() const {
+    std::vector<std::string> out;
+    for (std::size_t c = 0; c < fields_.size(); ++c)
+      if (c == 0 || fields_[c].name != fields_[c - 1].name)
+        out.push_back(fields_[c].name + ": " + fields_[c].unit);
+    return out;
+  }
   UpdateFlags get_needed_update_flags() const override {
     return update_values | update_gradients | update_quadrature_points;
   }
@@ -96,6 +117,7 @@ public:
 private:
   struct Field {
     std::string name;
+    std::string unit;
     bool movement;
     DataComponentInterpretation::DataComponentInterpretation kind;
     double (*value)(const DerivedState&);
@@ -103,6 +125,66 @@ private:
   const Derivation& derivation_;
   std::vector<Field> fields_;
 };
+
+/// Per cell, in DataOut's order (the selected active cells, level by level): the
+/// region's id and name and the owning process; for the whole file: the region
+/// names and the fields' units.
+VtuExtras annotations(const BiotProblem& problem,
+                      MPI_Comm comm,
+                      std::vector<std::string> field_units) {
+  const auto& names = problem.mesh().names;
+  const int rank = static_cast<int>(Utilities::MPI::this_mpi_process(comm));
+  VtuExtras extras;
+  extras.cell_integers = {{"region", {}}, {"process", {}}};
+  extras.cell_texts = {{"region_name", {}}};
+  for (const auto& cell : problem.dof_handler().active_cell_iterators())
+    if (cell->is_locally_owned() && !problem.is_removed(cell->active_cell_index())) {
+      extras.cell_integers[0].values.push_back(cell->material_id());
+      extras.cell_integers[1].values.push_back(rank);
+      extras.cell_texts[0].values.push_back(names.region_name(cell->material_id()));
+    }
+  std::vector<std::string> regions;
+  for (const auto& name : names.region_names())
+    regions.push_back(std::to_string(names.region_id(name)) + ": " + name);
+  extras.field_texts = {{"region_names", regions}, {"units", std::move(field_units)}};
+  return extras;
+}
+
+/// One VTU file (one process), or a piece per process and a PVTU record written by
+/// rank 0, named `stem`.vtu or `stem`.R.vtu and `stem`.pvtu in `directory`.
+/// Returns the name of the file that stands for this time.
+std::string write_pieces(const DataOut<2>& data_out,
+                         const VtuExtras& extras,
+                         const std::string& directory,
+                         const std::string& stem,
+                         MPI_Comm comm) {
+  auto write_vtu = [&](const std::string& file) {
+    std::ostringstream vtu;
+    data_out.write_vtu(vtu);
+    write_whole_file(directory + "/" + file, [&](std::ostream& out) {
+      out << with_vtu_extras(vtu.str(), extras);
+    });
+  };
+  const unsigned int n = Utilities::MPI::n_mpi_processes(comm);
+  if (n == 1) {
+    write_vtu(stem + ".vtu");
+    return stem + ".vtu";
+  }
+  const unsigned int digits = Utilities::needed_digits(n - 1);
+  const unsigned int rank = Utilities::MPI::this_mpi_process(comm);
+  write_vtu(stem + "." + number(rank, digits) + ".vtu");
+  if (rank == 0) {
+    std::vector<std::string> pieces;
+    for (unsigned int r = 0; r < n; ++r)
+      pieces.push_back(stem + "." + number(r, digits) + ".vtu");
+    std::ostringstream record;
+    data_out.write_pvtu_record(record, pieces);
+    write_whole_file(directory + "/" + stem + ".pvtu", [&](std::ostream& out) {
+      out << with_pvtu_extras(record.str(), extras);
+    });
+  }
+  return stem + ".pvtu";
+}
 
 } // namespace
 
@@ -148,15 +230,6 @@ std::string FieldWriter::write(const BiotProblem& problem) {
   if (!one_vector)
     data_out.add_data_vector(problem.solution(), state);
 
-  const auto& tria = problem.dof_handler().get_triangulation();
-  Vector<float> region(tria.n_active_cells());
-  for (const auto& cell : tria.active_cell_iterators())
-    if (cell->is_locally_owned())
-      region[cell->active_cell_index()] = cell->material_id();
-  data_out.add_data_vector(region, "region");
-  Vector<float> subdomain(tria.n_active_cells());
-  subdomain = static_cast<float>(Utilities::MPI::this_mpi_process(comm_));
-  data_out.add_data_vector(subdomain, "process");
   data_out.build_patches(problem.mapping(), FieldLayout::displacement_degree);
 
   DataOutBase::VtkFlags flags;
@@ -167,18 +240,17 @@ std::string FieldWriter::write(const BiotProblem& problem) {
   flags.compression_level = DataOutBase::VtkFlags::best_speed;
   data_out.set_flags(flags);
 
-  const unsigned int counter = series_.size();
-  std::string file;
-  if (Utilities::MPI::n_mpi_processes(comm_) == 1) {
-    std::ostringstream name;
-    name << basename_ << '_' << std::setw(4) << std::setfill('0') << counter << ".vtu";
-    file = name.str();
-    write_whole_file(directory_ + "/" + file,
-                     [&](std::ostream& out) { data_out.write_vtu(out); });
-  } else {
-    file = data_out.write_vtu_with_pvtu_record(directory_ + "/", basename_, counter,
-                                               comm_, 4, 0);
-  }
+  std::vector<std::string> field_units{"displacement: m",
+                                       "excess_pore_pressure: kPa, change "
+                                       "from the initial state, compression "
+                                       "positive"};
+  for (const auto* fields : {&movement, &state})
+    if (fields == &movement || !one_vector)
+      for (const auto& u : fields->units())
+        field_units.push_back(u);
+  const std::string file =
+      write_pieces(data_out, annotations(problem, comm_, std::move(field_units)),
+                   directory_, basename_ + '_' + number(series_.size(), 4), comm_);
   series_.emplace_back(units::to_days(problem.time()), file);
   if (Utilities::MPI::this_mpi_process(comm_) == 0) {
     write_whole_file(series_path(), [&](std::ostream& pvd) {

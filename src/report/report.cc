@@ -279,6 +279,10 @@ void base_section(Document& d,
   if (b == nullptr)
     return;
   Section& s = d.add("Base stability");
+  if (b->contains("skipped")) {
+    s.paragraph("Not checked: " + text((*b)["skipped"]) + ".");
+    return;
+  }
   s.paragraph(
       "Each factor is for the level the pit is dug to at each output time, on the "
       "field of that time with the pit as dug; a check that cannot apply (the pit not "
@@ -458,13 +462,22 @@ void columns_section(Document& d, const toml::table& r) {
     return;
   Section& s = d.add("1D hand estimate against the 2D model");
   s.paragraph(
-      "At each column the 1D method is applied to the scenario's own layers: the "
-      "effective stress rises by γw·Δh in the draining layers, linearly through a "
-      "clay drained at both faces; S = Σ mv·Δσ'·H; t50 and t90 from Tv = 0.197 and "
-      "0.848 (common practice) with each clay's own drainage path; U(t) from "
+      "At each column the 1D method is applied to the regions the column crosses "
+      "in the mesh, top down: the effective stress rises by γw·Δh in the draining "
+      "layers; clays next to each other form one sequence, drained through each "
+      "outer face that meets a draining layer (or a ground surface that holds its "
+      "head), with the head fall at that face; through a sequence drained at both "
+      "faces the final fall is that of steady seepage across it (each clay's share "
+      "by H/k), with one drained face it is that face's fall; S = Σ mv·Δσ'·H; t50 "
+      "and t90 from Tv = 0.197 and 0.848 (common practice), a sequence's drainage "
+      "path by the transformed-thickness approximation (common practice); U(t) from "
       "Terzaghi (1925) for an instantaneous drop and Olson (1977) for the ramp. "
-      "\"Design\" uses the head falls the scenario sets (the wells' target heads); "
-      "\"2D heads\" uses the falls the 2D model computes at the column.");
+      "\"Design\" uses the head falls the scenario sets (the wells' target heads, "
+      "in the layer of each screen); \"2D heads\" uses the heads the 2D model "
+      "computes at the column, at each clay's own faces. What the notes under each "
+      "table can show: heads that fall less than designed (distance, flow round the "
+      "wall, recharge), consolidation lagging a ramp, and ground that is not in 1D "
+      "strain (the wall, the 2D shape of the drawdown).");
   for (const auto& node : *cs) {
     const auto& c = *node.as_table();
     const std::string name = text(c["name"]);

@@ -7,6 +7,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <limits>
 
 namespace c = settlewell::checks;
 
@@ -141,4 +142,47 @@ TEST(OneD, SingleDrainageUsesTheWholeThickness) {
   EXPECT_EQ(e.layers[1].drained_faces, 1);
   EXPECT_NEAR(e.layers[1].drainage_path, 4.0, 1e-12);
   EXPECT_NEAR(e.layers[1].settlement, 1e-3 * 9.81 * 4.0 * 4.0, 1e-12);
+}
+
+// Two clays in sequence between a sand whose head stays and a sand whose head
+// falls 6 m (numbers of our own). Steady seepage across the pair at the end: the
+// fall is shared by H / k, clay A 4 m at k = 1e-9 m/s (4e9 s), clay B 2 m at
+// 4e-9 m/s (0.5e9 s), of 4.5e9 s in all.
+//   A: mean fall 6 * 2e9 / 4.5e9 = 2.666667 m, mv 1e-3: 1e-3 * 9.81 * 2.666667 * 4
+//      = 0.104640 m
+//   B: mean fall 6 * 4.25e9 / 4.5e9 = 5.666667 m, mv 5e-4: 5e-4 * 9.81 * 5.666667 * 2
+//      = 0.055590 m
+// Time (the transformed-thickness approximation, common practice): sum H / sqrt(cv)
+// = 4 / sqrt(1e-7) + 2 / sqrt(4e-7) = 15811.39 s^0.5; halved for two drained faces
+// and put in each layer's cv: A 2.5 m, B 5.0 m, so both reach Tv = 0.197 together.
+TEST(OneD, ClaysInSequenceShareTheSeepageAndOneTimeScale) {
+  std::vector<c::ColumnLayer> layers{
+      {"upper_sand", 0.0, -2.0, 2e-5, 1.0, false, 0.0},
+      {"clay_a", -2.0, -6.0, 1e-3, 1e-7, true, 0.0},
+      {"clay_b", -6.0, -8.0, 5e-4, 4e-7, true, 0.0},
+      {"lower_sand", -8.0, -11.0, 1.5e-5, 1.0, false, 6.0}};
+  layers[1].conductivity = 1e-9;
+  layers[2].conductivity = 4e-9;
+  const c::OneDEstimate e = c::estimate_one_d(layers, 9.81, true);
+  EXPECT_NEAR(e.layers[1].settlement, 0.104640, 1e-6);
+  EXPECT_NEAR(e.layers[2].settlement, 0.055590, 1e-6);
+  EXPECT_EQ(e.layers[1].drained_faces, 2);
+  EXPECT_EQ(e.layers[2].drained_faces, 2);
+  EXPECT_NEAR(e.layers[1].drainage_path, 2.5, 1e-9);
+  EXPECT_NEAR(e.layers[2].drainage_path, 5.0, 1e-9);
+  EXPECT_NEAR(e.layers[1].t50, e.layers[2].t50, 1e-6 * e.layers[1].t50);
+}
+
+// The heads at a clay's own faces, where given, replace its neighbours' mean falls:
+// the aquifer below falls 5.3 m on average but 3.85 m at the clay's underside.
+TEST(OneD, FallsAtTheClaysFacesTakePrecedence) {
+  std::vector<c::ColumnLayer> layers{{"clay", 0.0, -4.0, 1e-3, 1e-7, true, 0.0},
+                                     {"aquifer", -4.0, -10.0, 1e-5, 1.0, false, 5.3}};
+  layers[0].fall_top = 0.0;
+  layers[0].fall_bottom = 3.85;
+  const c::OneDEstimate e = c::estimate_one_d(layers, 9.81, true);
+  EXPECT_NEAR(e.layers[0].settlement, 1e-3 * 9.81 * 0.5 * 3.85 * 4.0, 1e-12);
+  layers[0].fall_bottom = std::numeric_limits<double>::quiet_NaN();
+  EXPECT_NEAR(c::estimate_one_d(layers, 9.81, true).layers[0].settlement,
+              1e-3 * 9.81 * 0.5 * 5.3 * 4.0, 1e-12);
 }

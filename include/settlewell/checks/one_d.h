@@ -1,5 +1,6 @@
 #pragma once
 
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -14,6 +15,11 @@ struct ColumnLayer {
   double cv = 0.0;                ///< m^2/s
   bool consolidating = false;     ///< low permeability: drains slowly to its neighbours
   double head_fall = 0.0;         ///< final fall of head in a draining layer, m
+  double conductivity = 0.0;      ///< vertical k, m/s (0: the same in every layer)
+  /// Final fall of head at the layer's top and bottom faces, m (the 2D heads there).
+  /// NaN: the draining neighbour's head_fall (none at the ground surface).
+  double fall_top = std::numeric_limits<double>::quiet_NaN();
+  double fall_bottom = std::numeric_limits<double>::quiet_NaN();
 };
 
 /// One layer's share of the estimate.
@@ -39,11 +45,17 @@ struct OneDEstimate {
   double t50(double ramp, double target = -1.0) const;
 };
 
-/// Layers top down. A consolidating layer drains through each face that touches a
-/// draining layer (its head fall applies there) and, at the top of the column,
-/// through the ground surface when `surface_drained` (no head change there).
-/// Its ultimate settlement is mv * gamma_w * H times the mean final head fall
-/// over its drained faces (both drained: linear; one: uniform).
+/// Layers top down. Adjacent consolidating layers form one sequence, which drains
+/// through each outer face that touches a draining layer and, at the top of the
+/// column, through the ground surface when `surface_drained`; the head falls at
+/// those faces are the outer layers' fall_top and fall_bottom. Each layer's
+/// ultimate settlement is mv * gamma_w * H times its mean final head fall: with two
+/// drained faces that of steady vertical seepage across the sequence (the fall
+/// varies linearly through each layer, by its share of the sum of H / k), with one
+/// the fall at that face throughout, with none nothing. The sequence's time scale
+/// is that of one layer of the same (sum of H / sqrt(cv)), common practice (the
+/// transformed-thickness approximation, no single source; from memory): each
+/// layer's drainage path is that sequence expressed in its own cv.
 OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
                             double gamma_w,
                             bool surface_drained);
