@@ -5,7 +5,8 @@ default written out. The stages keep the demo's `wells.W1`, the mesh calls the
 screen `well_W1`. Both runs must give the same discharge, settlements, heads and
 1D comparisons at the columns (the same mesh and equations: to round-off), the
 user mesh's column stacks must come from its own regions, and its figures must
-draw the outlines and the well.
+draw the outlines and the well. Its field files carry each cell's region id and
+name and every point field's unit.
 
     demo_as_user_mesh.py SETTLEWELL SOURCE_DIR FOLDER
 """
@@ -92,6 +93,38 @@ def compare_points(section_dir, user_dir, failures):
                   failures, floor=1e-8)
 
 
+def check_field_files(run_dir, failures):
+    """The last field file: each cell's region as an id and a name that agree with
+    the region list in the file, and a unit for every point field."""
+    import vtk  # Debian's python3-vtk9, as the plotting scripts use
+
+    last = sorted((run_dir / "fields").glob("fields_*.vtu"))[-1]
+    reader = vtk.vtkXMLUnstructuredGridReader()
+    reader.SetFileName(str(last))
+    reader.Update()
+    grid = reader.GetOutput()
+    cells, fields = grid.GetCellData(), grid.GetFieldData()
+    ids, names = cells.GetArray("region"), cells.GetAbstractArray("region_name")
+    listed, units = fields.GetAbstractArray("region_names"), fields.GetAbstractArray("units")
+    if None in (ids, names, listed, units):
+        failures.append(f"{last.name}: region, region_name, region_names or units missing")
+        return
+    regions = dict(listed.GetValue(i).split(": ", 1) for i in range(listed.GetNumberOfValues()))
+    if names.GetNumberOfValues() != grid.GetNumberOfCells():
+        failures.append(f"{last.name}: {names.GetNumberOfValues()} region names for "
+                        f"{grid.GetNumberOfCells()} cells")
+    for c in range(grid.GetNumberOfCells()):
+        if regions.get(str(int(ids.GetValue(c)))) != names.GetValue(c):
+            failures.append(f"{last.name}: cell {c} region {ids.GetValue(c)} named "
+                            f"{names.GetValue(c)!r}")
+            break
+    with_unit = {units.GetValue(i).split(":")[0] for i in range(units.GetNumberOfValues())}
+    points = grid.GetPointData()
+    for i in range(points.GetNumberOfArrays()):
+        if points.GetArrayName(i) not in with_unit:
+            failures.append(f"{last.name}: no unit for the point field {points.GetArrayName(i)}")
+
+
 def main():
     settlewell, source, folder = sys.argv[1], pathlib.Path(sys.argv[2]).resolve(), pathlib.Path(sys.argv[3])
     folder.mkdir(parents=True, exist_ok=True)
@@ -111,6 +144,7 @@ def main():
               failures)
     compare_columns(section, as_mesh, failures)
     compare_points(folder / "section", folder / "user_mesh", failures)
+    check_field_files(folder / "user_mesh", failures)
     figures = subprocess.run([sys.executable, str(source / "tests" / "report" / "check_figures.py"),
                               str(folder / "user_mesh")], capture_output=True, text=True)
     if figures.returncode != 0:
