@@ -34,6 +34,7 @@ RESULTS = {
     "pumped_volume_m3": ("pumped volume (m³)", None),
     "settlement_outside_m": ("largest settlement outside the wall (m)", None),
     "drawdown_outside_m": ("largest drawdown outside the wall (m)", None),
+    "share_from_lateral_edges": ("share of the pumped water from the model's lateral edges (-)", None),
 }
 
 

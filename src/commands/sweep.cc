@@ -66,7 +66,8 @@ std::vector<std::optional<double>> variant_results(const std::string& run_folder
           discharge,
           volume,
           r["summary"]["settlement_outside_m"].value_or(0.0),
-          r["summary"]["drawdown_outside_m"].value_or(0.0)};
+          r["summary"]["drawdown_outside_m"].value_or(0.0),
+          r["water_budget"]["share_from_lateral_edges"].value<double>()};
 }
 
 void write_summary(const scenario::SweepSpec& sweep,

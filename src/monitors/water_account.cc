@@ -1,6 +1,7 @@
 #include "water_account.h"
 
 #include "settlewell/core/units.h"
+#include "settlewell/mesh/gmsh_mesh.h"
 
 #include <deal.II/base/conditional_ostream.h>
 #include <deal.II/base/mpi.h>
@@ -10,6 +11,28 @@
 
 namespace settlewell::monitors {
 
+namespace {
+
+/// The boundaries that stand for the ground beyond the model (a section's far
+/// boundary, a box's sides) and the parts of them.
+std::set<std::string> lateral_edges(const scenario::Scenario& s) {
+  std::set<std::string> edges;
+  if (s.section)
+    edges.insert(section_names::far_boundary);
+  if (s.box)
+    edges.insert({"left", "right"});
+  for (const auto& name : s.boundary_parts_parents_first()) // parents come first
+    if (edges.count(s.boundaries.at(name).part->of))
+      edges.insert(name);
+  return edges;
+}
+
+double share(double part, double whole) {
+  return whole > 0.0 ? part / whole : 0.0;
+}
+
+} // namespace
+
 WaterAccount::WaterAccount(const RunContext& run)
     : pumped_(run.model.pumped)
     , tolerance_(run.scenario.limits.mass_balance) {
@@ -17,12 +40,25 @@ WaterAccount::WaterAccount(const RunContext& run)
     volume_[p.label] = 0.0;
     stage_volume_[p.label].assign(run.schedule.stages().size(), 0.0);
   }
+  std::set<std::string> lines;
+  for (const auto& c : run.problem.setup().conditions.hydraulic)
+    lines.insert(c.boundary);
+  for (const auto& p : pumped_)
+    lines.erase(p.line);
+  sources_.assign(lines.begin(), lines.end());
+  for (const auto& edge : lateral_edges(run.scenario))
+    if (lines.count(edge))
+      far_.insert(edge);
+  for (const auto& line : sources_)
+    inflow_volume_[line] = final_inflow_[line] = 0.0;
 }
 
 std::vector<std::string> WaterAccount::step_columns() const {
   std::vector<std::string> columns;
   for (const auto& p : pumped_)
     columns.push_back("discharge_" + p.label + "_m3_per_day");
+  for (const auto& line : sources_)
+    columns.push_back("inflow_" + line + "_m3_per_day");
   columns.insert(columns.end(), {"net_outflow_m3_per_day", "storage_gain_m3",
                                  "water_balance_error_relative"});
   return columns;
@@ -40,6 +76,12 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
     final_discharge_[p.label] = q;
     values.push_back(q * units::seconds_per_day);
   }
+  for (const auto& line : sources_) {
+    const double q_in = -problem.outflow(line);
+    inflow_volume_[line] += q_in * dt;
+    final_inflow_[line] = q_in;
+    values.push_back(q_in * units::seconds_per_day);
+  }
   // Water balance of the step: what left plus what was stored must vanish, relative
   // to the water that moved: in plus out through the boundaries, and the storage
   // change of every cell whatever its sign, in this step or in the run's largest
@@ -51,6 +93,8 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
   const double out = net_outflow * dt;
   const auto storage = problem.storage_change();
   const double stored = storage.net;
+  storage_release_ -= stored;
+  final_storage_release_ = -stored / dt;
   largest_moved_ = std::max({largest_moved_, exchange.gross * dt, storage.gross});
   const double scale = std::max(largest_moved_, 1e-30);
   const double error = std::abs(out + stored) / scale;
@@ -89,6 +133,7 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
   const auto& sc = view.run.scenario;
   results.insert("modelled_half", sc.analysis == AnalysisType::plane_strain &&
                                       sc.section && sc.section->half_model);
+  write_budget(view, results);
   results.insert("water_balance",
                  toml::table{{"largest_relative_error", worst_balance_},
                              {"tolerance", tolerance_},
@@ -96,9 +141,63 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
                              {"closes", worst_balance_ <= tolerance_}});
 }
 
+/// Where the pumped water came from, over the run and at its end: the inflow through
+/// each line that holds a head or a flux, and the water released from storage, each
+/// as a share of what was pumped; a warning when the model's lateral edges supply
+/// most of it (their fixed head then feeds the pit, and the distance to them
+/// matters).
+void WaterAccount::write_budget(const RunView& view, toml::table& results) const {
+  double pumped = 0.0, pumped_rate = 0.0;
+  for (const auto& p : pumped_) {
+    pumped += volume_.at(p.label);
+    const auto q = final_discharge_.find(p.label);
+    pumped_rate += q != final_discharge_.end() ? q->second : 0.0;
+  }
+  toml::array sources;
+  double from_edges = 0.0;
+  auto add = [&](const std::string& name, const std::string& kind, double volume,
+                 double rate) {
+    sources.push_back(
+        toml::table{{"name", name},
+                    {"kind", kind},
+                    {"volume_m3", volume},
+                    {"share_of_pumped_volume", share(volume, pumped)},
+                    {"final_m3_per_day", rate * units::seconds_per_day},
+                    {"share_of_final_discharge", share(rate, pumped_rate)}});
+  };
+  for (const auto& line : sources_) {
+    const bool edge = far_.count(line) != 0;
+    add(line, edge ? "lateral edge" : "boundary or line", inflow_volume_.at(line),
+        final_inflow_.at(line));
+    if (edge)
+      from_edges += inflow_volume_.at(line);
+  }
+  add("storage", "storage", storage_release_, final_storage_release_);
+  toml::table budget{{"pumped_volume_m3", pumped},
+                     {"final_discharge_m3_per_day", pumped_rate * units::seconds_per_day},
+                     {"sources", sources},
+                     {"share_from_lateral_edges", share(from_edges, pumped)}};
+  if (share(from_edges, pumped) > 0.5) {
+    const std::string warning =
+        "the model's lateral edges (held at a fixed head) supply " +
+        std::to_string(std::lround(100 * share(from_edges, pumped))) +
+        " % of the pumped water: the distance to them sets the discharge and the "
+        "drawdown outside the wall; unless they stand for a real source (a river, a "
+        "lake), run again with them farther away" +
+        std::string(view.run.scenario.section ? " (section.far_distance)" : "") +
+        " and compare";
+    budget.insert("warning", warning);
+    dealii::ConditionalOStream(std::cerr,
+                               dealii::Utilities::MPI::this_mpi_process(view.comm()) == 0)
+        << "settlewell: warning: " << warning << "\n";
+  }
+  results.insert("water_budget", budget);
+}
+
 void WaterAccount::visit_state(StateArchive& a) {
   a.mark("water account");
   a& volume_& final_discharge_& stage_volume_& worst_balance_& largest_moved_& steps_off_;
+  a& inflow_volume_& final_inflow_& storage_release_& final_storage_release_;
 }
 
 } // namespace settlewell::monitors

@@ -1,10 +1,15 @@
 #pragma once
 
-// Private to src/monitors: the discharge of every pumped line and the water balance
-// of every step (steps.csv), the volumes per stage and the balance (results.toml).
+// Private to src/monitors: the discharge of every pumped line, the water that
+// enters through every other line that holds a head or a flux, and the water
+// balance of every step (steps.csv); the volumes per stage, the water budget (where
+// the pumped water comes from) and the balance (results.toml).
 #include "settlewell/monitors/monitor.h"
 
 #include <map>
+#include <set>
+#include <string>
+#include <vector>
 
 namespace settlewell::monitors {
 
@@ -17,7 +22,13 @@ public:
   void finish(const RunView& view, toml::table& results) override;
 
 private:
+  void write_budget(const RunView& view, toml::table& results) const;
+
   std::vector<model::PumpedLine> pumped_;
+  std::vector<std::string> sources_; ///< lines, not pumped, that hold a head or a flux
+  std::set<std::string> far_;        ///< those of them that are the model's lateral edges
+  std::map<std::string, double> inflow_volume_, final_inflow_; ///< m^3; m^3/s
+  double storage_release_ = 0.0, final_storage_release_ = 0.0; ///< m^3; m^3/s
   double tolerance_;
   std::map<std::string, double> volume_, final_discharge_;  ///< m^3; m^3/s
   std::map<std::string, std::vector<double>> stage_volume_; ///< m^3 per stage

@@ -220,6 +220,36 @@ void glance_section(Document& d, const toml::table& r, const std::string& unit) 
   s.list(items);
 }
 
+/// Where the pumped water came from: each line that holds a head or a flux, and
+/// storage, as shares of the pumped volume and of the discharge at the end.
+void budget_table(Section& s, const toml::table& r, const std::string& unit) {
+  const auto* sources = r["water_budget"]["sources"].as_array();
+  if (sources == nullptr)
+    return;
+  s.paragraph("Where the pumped water comes from (m³ " + unit +
+              "): the net inflow through each boundary or line that holds a head or a "
+              "flux, and the water released from storage (the soil's compression and "
+              "the water's). The shares add up to the pumped total within the water "
+              "balance; a negative share is water that left there.");
+  Table t{{"source", "volume (m³)", "share of the pumped volume",
+           "rate at the end (m³/day)", "share of the discharge at the end"},
+          {}};
+  const auto percent = [](double v) { return significant(100 * v) + " %"; };
+  for (const auto& node : *sources) {
+    const auto& src = *node.as_table();
+    const std::string kind = text(src["kind"]);
+    t.rows.push_back({{kind == "storage" ? "storage (released by the soil and the water)"
+                                         : text(src["name"]) + " (" + kind + ")"},
+                      {significant(get(src["volume_m3"]))},
+                      {percent(get(src["share_of_pumped_volume"]))},
+                      {significant(get(src["final_m3_per_day"]))},
+                      {percent(get(src["share_of_final_discharge"]))}});
+  }
+  s.table(t);
+  if (const auto warning = r["water_budget"]["warning"].value<std::string>())
+    s.note("Attention: " + *warning + ".");
+}
+
 void discharge_section(Document& d, const toml::table& r, const std::string& unit) {
   const auto* q = r["discharge"].as_array();
   if (q == nullptr || q->empty())
@@ -245,6 +275,7 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
     t.rows.push_back(row);
   }
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
+  budget_table(s, r, unit);
 }
 
 void base_stages_table(Section& s, const toml::table& b) {

@@ -118,6 +118,12 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       for (const auto& v : *line["stage_volumes_m3"].as_array())
         per_stage.push_back(v.value_or(0.0));
     }
+  if (const auto* sources = r["water_budget"]["sources"].as_array())
+    for (const auto& node : *sources) {
+      const auto& src = *node.as_table();
+      summary.water_sources.emplace_back(src["name"].value_or(std::string()),
+                                         src["share_of_pumped_volume"].value_or(0.0));
+    }
   summary.mass_balance = r["water_balance"]["largest_relative_error"].value_or(0.0);
   summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
   summary.mass_balance_steps_off =
@@ -170,6 +176,13 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   }
   if (r.pumped_volume.size() > 1)
     out << "  pumped volume, total: " << volume_text(total) << "\n";
+  if (total > 0.0 && !r.water_sources.empty()) {
+    out << "  the pumped water came from:";
+    for (std::size_t i = 0; i < r.water_sources.size(); ++i)
+      out << (i == 0 ? " " : ", ") << r.water_sources[i].first << " "
+          << significant(100 * r.water_sources[i].second, 2) << " %";
+    out << "\n";
+  }
   if (r.mass_balance_steps_off > 0)
     out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance

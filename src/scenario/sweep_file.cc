@@ -91,7 +91,8 @@ const std::vector<std::string>& sweep_result_columns() {
                                                 "final_discharge_m3_per_day",
                                                 "pumped_volume_m3",
                                                 "settlement_outside_m",
-                                                "drawdown_outside_m"};
+                                                "drawdown_outside_m",
+                                                "share_from_lateral_edges"};
   return columns;
 }
 

@@ -39,6 +39,25 @@ void short_stages(toml::table& s) {
   s["output"].as_table()->insert_or_assign("times", toml::array{10.0});
 }
 
+/// The sources of the water budget add up to the pumped volume (conservation:
+/// within the run's water-balance tolerance times the water moved), and returns
+/// the share of the named source (0 when it is not listed).
+double budget_share(const std::filesystem::path& folder, const std::string& source) {
+  const toml::table r = toml::parse_file((folder / "results.toml").string());
+  const auto& budget = *r["water_budget"].as_table();
+  const double pumped = budget["pumped_volume_m3"].value_or(0.0);
+  double sum = 0.0, share = 0.0;
+  for (const auto& node : *budget["sources"].as_array()) {
+    const auto& src = *node.as_table();
+    sum += src["volume_m3"].value_or(0.0);
+    if (src["name"].value_or(std::string()) == source)
+      share = src["share_of_pumped_volume"].value_or(0.0);
+  }
+  EXPECT_GT(pumped, 0.0);
+  EXPECT_NEAR(sum, pumped, 1e-6 * pumped);
+  return share;
+}
+
 } // namespace
 
 // Settlement beside the pit is positive and, beyond its peak, falls with distance.
@@ -65,6 +84,9 @@ TEST(PitExample, SettlementOutsideTheWallIsPositiveAndDecays) {
   ASSERT_TRUE(run.summary.settlement_outside.has_value());
   EXPECT_NEAR(*run.summary.settlement_outside, peak->second, 0.02 * peak->second);
   EXPECT_GT(run.summary.pumped_volume.at("W1"), 0.0);
+  // A year on, the flow is close to steady: the far boundary, at a fixed head,
+  // supplies nearly all of the water, and the run warns of it.
+  EXPECT_GT(budget_share(run.folder, "far_boundary"), 0.9);
 }
 
 // A full model with a mirrored row of wells is the half model twice: same heads and
@@ -151,6 +173,10 @@ TEST(PitExample, FarFieldDrawdownVanishesWithANoFlowBoundary) {
   }
   EXPECT_GT(near_wall, 1.0);
   EXPECT_LT(at_far, 0.01 * near_wall);
+  // A no-flow far boundary supplies nothing: the water comes from storage and the
+  // ground surface.
+  EXPECT_EQ(budget_share(run.folder, "far_boundary"), 0.0);
+  EXPECT_GT(budget_share(run.folder, "storage"), 0.5);
 }
 
 // Long after pumping reaches its final head, the transient heads equal those of a

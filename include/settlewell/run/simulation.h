@@ -50,6 +50,8 @@ struct RunSummary {
   std::map<std::string, std::vector<double>> stage_volume;
   /// Discharge of each pumped line at the last step, m^3/s.
   std::map<std::string, double> final_discharge;
+  /// Where the pumped water came from: each source's share of the pumped volume.
+  std::vector<std::pair<std::string, double>> water_sources;
   /// Largest relative water-balance error of a step, and its tolerance.
   double mass_balance = 0.0, mass_balance_tolerance = 0.0;
   std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
