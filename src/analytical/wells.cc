@@ -23,4 +23,8 @@ double thiem_drawdown_difference(double Q, double T, double r1, double r2) {
   return Q / (2.0 * pi * T) * std::log(r2 / r1);
 }
 
+double well_row_convergence_loss(double Q, double T, double spacing, double radius) {
+  return Q / (2.0 * pi * T) * std::log(spacing / (2.0 * pi * radius));
+}
+
 } // namespace settlewell::analytical

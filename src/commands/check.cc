@@ -44,6 +44,32 @@ void describe_stages(const scenario::Scenario& s,
   }
 }
 
+/// The storage terms a material's pore-pressure equation uses, and where they
+/// came from.
+std::string storage_text(const scenario::Material& m, double gamma_w) {
+  std::ostringstream os;
+  const auto& p = m.poroelastic;
+  os << "Biot alpha " << p.biot_alpha;
+  if (p.storage == 0.0 && !m.storage_from) {
+    os << ", S 0: water and grains incompressible (give porosity for the water's "
+          "storage)";
+    return os.str();
+  }
+  os << ", S " << p.storage << " 1/kPa (specific storage " << gamma_w * p.storage
+     << " 1/m)";
+  if (!m.storage_from) {
+    os << " as given";
+    return os.str();
+  }
+  os << " from porosity " << m.storage_from->porosity << ", Kw "
+     << m.storage_from->water_bulk_modulus << " kPa, Ks ";
+  if (m.storage_from->grain_bulk_modulus > 0.0)
+    os << m.storage_from->grain_bulk_modulus << " kPa";
+  else
+    os << "infinite (incompressible grains)";
+  return os.str();
+}
+
 void describe_scenario(const scenario::Scenario& s,
                        const Mesh& mesh,
                        const model::Schedule& schedule,
@@ -60,7 +86,8 @@ void describe_scenario(const scenario::Scenario& s,
     out << "  " << region << " (" << material << "): E' " << m.poroelastic.youngs_modulus
         << " kPa, nu' " << m.poroelastic.poisson_ratio << ", kx "
         << m.poroelastic.conductivity_x << " m/s, ky " << m.poroelastic.conductivity_y
-        << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n';
+        << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n'
+        << "    storage: " << storage_text(m, s.gamma_w) << '\n';
   }
   out << "Boundaries:\n";
   for (const auto& [name, role] : model::boundary_roles(s, mesh)) {

@@ -23,9 +23,19 @@ std::string significant(double v, int digits) {
   return out.str();
 }
 
+std::string day_text(double day) {
+  std::string text = significant(day);
+  if (text.find('.') != std::string::npos && text.find('e') == std::string::npos) {
+    text.erase(text.find_last_not_of('0') + 1);
+    if (text.back() == '.')
+      text.pop_back();
+  }
+  return text;
+}
+
 std::string place_text(double x, double y, const std::string& region, double day) {
   return "at x " + significant(x) + " m, y " + significant(y) + " m (" + region +
-         "), day " + significant(day);
+         "), day " + day_text(day);
 }
 
 } // namespace settlewell

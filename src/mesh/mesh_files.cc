@@ -4,8 +4,8 @@
 
 #include "settlewell/core/errors.h"
 #include "settlewell/core/file_writing.h"
+#include "settlewell/core/vtu_extras.h"
 #include "settlewell/mesh/gmsh_mesh.h"
-#include "settlewell/output/vtu_extras.h"
 
 #include <deal.II/base/data_out_base.h>
 #include <deal.II/base/mpi.h>

@@ -8,6 +8,7 @@
 #include "sampled_tables.h"
 #include "wall_profile.h"
 #include "water_account.h"
+#include "well_levels.h"
 
 namespace settlewell::monitors {
 
@@ -34,6 +35,8 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   list.push_back(std::make_unique<PointHistory>(run));
   list.push_back(std::make_unique<LineProfiles>(run));
   list.push_back(std::make_unique<WaterAccount>(run));
+  if (WellLevels::wanted(run.scenario))
+    list.push_back(std::make_unique<WellLevels>(run));
   list.push_back(std::make_unique<Extremes>(run));
   list.push_back(std::make_unique<Plausibility>(run));
   if (run.scenario.section || !run.problem.setup().excavation.empty())

@@ -2,7 +2,7 @@
 
 #include "settlewell/core/file_writing.h"
 #include "settlewell/core/units.h"
-#include "settlewell/output/vtu_extras.h"
+#include "settlewell/core/vtu_extras.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/numerics/data_out.h>

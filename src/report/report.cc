@@ -250,6 +250,46 @@ void budget_table(Section& s, const toml::table& r, const std::string& unit) {
     s.note("Attention: " + *warning + ".");
 }
 
+/// The water level in a well of each plane-strain row that gives a spacing.
+void well_level_table(Section& s, const toml::table& r) {
+  const auto* rows = r["well_levels"].as_array();
+  if (rows == nullptr || rows->empty())
+    return;
+  s.paragraph(
+      "The section carries a row of wells as a line whose head is the row's average. "
+      "In each well the water stands lower by the convergence loss of an infinite row "
+      "of equal wells in steady flow, Q/(2πT)·ln(a/(2πr)) with Q the discharge of one "
+      "well (the row's per metre run times the spacing a), T the horizontal "
+      "conductivity integrated along the screen and r the well's radius (Muskat "
+      "1937). Not included: the losses of the screen and filter pack (well "
+      "efficiency) and of partial penetration, which lower the level in the well "
+      "further.");
+  Table t{{"row", "spacing / radius (m)", "T (m²/day)", "row average at the end (m)",
+           "convergence loss (m)", "level in a well at the end (m)",
+           "lowest level (m, day)", "screen bottom (m)"},
+          {}};
+  for (const auto& node : *rows) {
+    const auto& w = *node.as_table();
+    const bool dry = w["below_screen_bottom"].value_or(false);
+    const auto lowest = w["lowest_level_m"].value<double>();
+    t.rows.push_back(
+        {{text(w["well"])},
+         {significant(get(w["spacing_m"])) + " / " + significant(get(w["radius_m"]))},
+         {significant(get(w["transmissivity_m2_per_day"]))},
+         {significant(get(w["row_head_at_end_m"]))},
+         {significant(get(w["convergence_loss_at_end_m"]))},
+         {significant(get(w["level_at_end_m"]))},
+         lowest ? Cell{significant(*lowest) + " (day " +
+                           day_text(get(w["lowest_level_day"])) + ")",
+                       dry ? Flag::attention : Flag::ok}
+                : Cell{"not pumped"},
+         {significant(get(w["screen_bottom_m"]))}});
+    if (const auto warning = w["warning"].value<std::string>())
+      s.note("Attention: " + *warning + ".");
+  }
+  s.table(t);
+}
+
 void discharge_section(Document& d, const toml::table& r, const std::string& unit) {
   const auto* q = r["discharge"].as_array();
   if (q == nullptr || q->empty())
@@ -276,6 +316,7 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
   }
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
   budget_table(s, r, unit);
+  well_level_table(s, r);
 }
 
 void base_stages_table(Section& s, const toml::table& b) {

@@ -118,6 +118,13 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       for (const auto& v : *line["stage_volumes_m3"].as_array())
         per_stage.push_back(v.value_or(0.0));
     }
+  if (const auto* rows = r["well_levels"].as_array())
+    for (const auto& node : *rows) {
+      const auto& w = *node.as_table();
+      summary.well_levels.push_back({w["well"].value_or(std::string()),
+                                     w["level_at_end_m"].value_or(0.0),
+                                     w["row_head_at_end_m"].value_or(0.0)});
+    }
   if (const auto* sources = r["water_budget"]["sources"].as_array())
     for (const auto& node : *sources) {
       const auto& src = *node.as_table();
@@ -176,6 +183,10 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   }
   if (r.pumped_volume.size() > 1)
     out << "  pumped volume, total: " << volume_text(total) << "\n";
+  for (const auto& w : r.well_levels)
+    out << "  water level in a well of " << w.well
+        << " at the end: " << significant(w.level) << " m (the row's average head "
+        << significant(w.row_head) << " m; convergence loss of the row, Muskat 1937)\n";
   if (total > 0.0 && !r.water_sources.empty()) {
     out << "  the pumped water came from:";
     for (std::size_t i = 0; i < r.water_sources.size(); ++i)

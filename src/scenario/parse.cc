@@ -115,6 +115,7 @@ Material read_material(const std::string& name, const TableReader& r) {
     const double inverse_Ks =
         r.has("grain_bulk_modulus") ? 1.0 / r.positive("grain_bulk_modulus") : 0.0;
     p.storage = (p.biot_alpha - n) * inverse_Ks + n / Kw; // (alpha - n)/Ks + n/Kw
+    m.storage_from = {n, Kw, inverse_Ks > 0.0 ? 1.0 / inverse_Ks : 0.0};
     if (p.storage < 0.0)
       r.fail("porosity", "gives a negative storage (alpha < n with finite Ks)");
   } else {

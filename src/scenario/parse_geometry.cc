@@ -1,6 +1,7 @@
 // Geometry of a scenario: a parametric section, a layered box, or a Gmsh file.
 #include "parse_parts.h"
 #include "settlewell/core/files.h"
+#include "settlewell/core/units.h"
 
 #include <algorithm>
 #include <filesystem>
@@ -89,6 +90,13 @@ void check_well(const TableReader& r,
                     std::string(section.half_model ? "0 < x < " : "|x| < ") +
                     format_number(half_width) + " m)");
   }
+  if (well.spacing > 0.0 && s.analysis == AnalysisType::axisymmetric)
+    r.fail("spacing",
+           "applies to a plane-strain row of wells, not to an axisymmetric well");
+  if (well.spacing > 0.0 && !(well.spacing > 2.0 * units::pi * well.radius))
+    r.fail("spacing", "must exceed 2 pi times the radius (" +
+                          format_number(2.0 * units::pi * well.radius) +
+                          " m): closer wells act as a slot");
   if (!(well.screen_top > well.screen_bottom))
     r.fail("screen_top", "must lie above screen_bottom");
   if (!(well.screen_top <= section.ground_surface))
@@ -105,7 +113,9 @@ read_wells(const TableReader& r, const Scenario& s, const Section& section) {
     Well well;
     well.name = w.text("name");
     well.x = w.number("x");
-    well.radius = w.number("radius");
+    well.radius = w.positive("radius");
+    if (w.has("spacing"))
+      well.spacing = w.positive("spacing");
     well.screen_top = w.number("screen_top");
     well.screen_bottom = w.number("screen_bottom");
     check_well(w, well, s, section);

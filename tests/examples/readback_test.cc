@@ -5,9 +5,12 @@
 #include "../test_support.h"
 
 #include <gtest/gtest.h>
+#include <vtkCellData.h>
 #include <vtkDataArray.h>
+#include <vtkFieldData.h>
 #include <vtkPointData.h>
 #include <vtkSmartPointer.h>
+#include <vtkStringArray.h>
 #include <vtkUnstructuredGrid.h>
 #include <vtkXMLUnstructuredGridReader.h>
 
@@ -52,12 +55,28 @@ TEST(RunFolder, SeriesOpensInVtkWithEveryFieldAndTimesInDays) {
       {"deviator_stress", 1},
       {"vertical_effective_stress", 1},
       {"volumetric_strain", 1},
-      {"darcy_flux", 3},
-      {"region", 1}};
+      {"darcy_flux", 3}};
   for (const auto& [name, components] : fields) {
     vtkDataArray* array = grid->GetPointData()->GetArray(name);
     ASSERT_NE(array, nullptr) << name;
     EXPECT_EQ(array->GetNumberOfComponents(), components) << name;
+  }
+  // Each cell's region id and name are cell data, the names and every point
+  // field's unit field data.
+  for (const char* name : {"region", "process"})
+    EXPECT_NE(grid->GetCellData()->GetArray(name), nullptr) << name;
+  auto* names =
+      vtkStringArray::SafeDownCast(grid->GetCellData()->GetAbstractArray("region_name"));
+  ASSERT_NE(names, nullptr);
+  EXPECT_EQ(names->GetNumberOfValues(), grid->GetNumberOfCells());
+  auto* units =
+      vtkStringArray::SafeDownCast(grid->GetFieldData()->GetAbstractArray("units"));
+  ASSERT_NE(units, nullptr);
+  for (const auto& [name, components] : fields) {
+    bool found = false;
+    for (vtkIdType i = 0; i < units->GetNumberOfValues(); ++i)
+      found = found || units->GetValue(i).rfind(std::string(name) + ": ", 0) == 0;
+    EXPECT_TRUE(found) << "no unit for " << name;
   }
   // The largest drawdown in the field equals the one the run summary reports.
   double range[2];

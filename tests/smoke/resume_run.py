@@ -67,8 +67,39 @@ def rows_of(path):
         return list(csv.reader(f))
 
 
+def session_members(session):
+    """The live processes of a session (from /proc: mpirun puts each rank in a
+    process group of its own, but they stay in the session mpirun started)."""
+    members = []
+    for entry in pathlib.Path("/proc").iterdir():
+        if not entry.name.isdigit():
+            continue
+        try:
+            fields = (entry / "stat").read_text().rsplit(")", 1)[1].split()
+        except OSError:
+            continue
+        if int(fields[3]) == session and fields[0] != "Z":
+            members.append(int(entry.name))
+    return members
+
+
+def kill_session(session, timeout=30.0):
+    """SIGKILL to every process of the session, until none is left: a rank that
+    outlived mpirun would go on writing into the run folder while it is resumed."""
+    deadline = time.time() + timeout
+    while (members := session_members(session)) and time.time() < deadline:
+        for pid in members:
+            try:
+                os.kill(pid, signal.SIGKILL)
+            except ProcessLookupError:
+                pass
+        time.sleep(0.05)
+    if session_members(session):
+        sys.exit(f"FAIL: processes of the killed run are still alive: {session_members(session)}")
+
+
 def kill_part_way(args, scenario, folder, total_steps):
-    """Starts a run and kills it (SIGKILL, the whole process group) past 60 % of its
+    """Starts a run and kills it (SIGKILL, every process of its session) past 60 % of its
     steps and a few steps after a checkpoint, so that steps.csv holds rows the
     resumed run must drop. Returns the steps in steps.csv when killed."""
     run = subprocess.Popen(command(args, args.processes, str(scenario), "-o", str(folder),
@@ -89,7 +120,7 @@ def kill_part_way(args, scenario, folder, total_steps):
     if run.poll() is not None:
         sys.exit(f"FAIL: the run ended (status {run.returncode}) before it could be "
                  f"killed part way: {run.stderr.read()!r}")
-    os.killpg(run.pid, signal.SIGKILL)
+    kill_session(run.pid)
     run.wait()
     return len(rows_of(steps)) - 1
 

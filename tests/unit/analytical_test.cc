@@ -6,6 +6,7 @@
 #include "settlewell/analytical/cutoff_wall.h"
 #include "settlewell/analytical/mandel.h"
 #include "settlewell/analytical/wells.h"
+#include "settlewell/core/units.h"
 
 #include <gtest/gtest.h>
 
@@ -115,6 +116,29 @@ TEST(Wells, TheisWellFunctionAndThiem) {
   EXPECT_NEAR(a::theis_drawdown(5e-3, 1e-3, 1e-4, 10.0, day) -
                   a::theis_drawdown(5e-3, 1e-3, 1e-4, 100.0, day),
               1.83120, 1e-5);
+}
+
+// The row formula (Muskat 1937) against the superposition of 2N + 1 Thiem (1906)
+// wells, j = -N..N, each at x = j a: the head at well 0's face against the mean
+// head along the row, taken over x in [0, a], where the mean of ln|x - j a| over the
+// period sums to the integral of ln|u| from -N a to (N + 1) a. The sums converge
+// as 1/N (1.4e-6 relative at N = 1e5 for these numbers).
+TEST(Wells, RowConvergenceLossIsThatOfThiemWellsSuperposed) {
+  const double Q = 2e-3, T = 5e-4, a = 10.0, rw = 0.15;
+  const long N = 100000;
+  double at_face = -std::log(rw);
+  for (long j = 1; j <= N; ++j)
+    at_face -= 2.0 * std::log(j * a);
+  auto F = [](double u) { return u * std::log(std::abs(u)) - u; }; // of ln|u|
+  const double mean_on_row = -((F((N + 1) * a)) - F(-N * a)) / a;
+  const double superposed =
+      Q / (2.0 * settlewell::units::pi * T) * (at_face - mean_on_row);
+  const double row = a::well_row_convergence_loss(Q, T, a, rw);
+  EXPECT_NEAR(row,
+              Q / (2.0 * settlewell::units::pi * T) *
+                  std::log(a / (2.0 * settlewell::units::pi * rw)),
+              1e-12);
+  EXPECT_NEAR(superposed, row, 1e-5 * row);
 }
 
 // Harr (1962) single wall in a layer of finite depth: check values of the

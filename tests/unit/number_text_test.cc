@@ -17,6 +17,15 @@ TEST(NumberText, KeepsThreeSignificantFiguresWithoutAnExponent) {
   EXPECT_EQ(significant(0.2118, 2), "0.21");
 }
 
+TEST(NumberText, DaysGoWithoutTrailingZeros) {
+  EXPECT_EQ(settlewell::day_text(60.0), "60");
+  EXPECT_EQ(settlewell::day_text(90.0), "90");
+  EXPECT_EQ(settlewell::day_text(7.5), "7.5");
+  EXPECT_EQ(settlewell::day_text(0.0375), "0.0375");
+  EXPECT_EQ(settlewell::day_text(123.456), "123");
+  EXPECT_EQ(settlewell::day_text(0.0), "0");
+}
+
 TEST(NumberText, PlaceSaysWhereAndWhen) {
   EXPECT_EQ(place_text(14.8, -17.17, "aquifer_sand", 365.0),
             "at x 14.8 m, y -17.2 m (aquifer_sand), day 365");

@@ -50,6 +50,13 @@ struct RunSummary {
   std::map<std::string, std::vector<double>> stage_volume;
   /// Discharge of each pumped line at the last step, m^3/s.
   std::map<std::string, double> final_discharge;
+  /// The water level in a well of each row with a spacing, at the end, and the
+  /// row's average head there (m).
+  struct WellLevel {
+    std::string well;
+    double level = 0.0, row_head = 0.0;
+  };
+  std::vector<WellLevel> well_levels;
   /// Where the pumped water came from: each source's share of the pumped volume.
   std::vector<std::pair<std::string, double>> water_sources;
   /// Largest relative water-balance error of a step, and its tolerance.

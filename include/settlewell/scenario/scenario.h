@@ -20,6 +20,13 @@ struct Material {
   double unit_weight = 0.0; ///< saturated, kN/m^3
   double k0 = 0.0;          ///< coefficient of earth pressure at rest
   PoroelasticMaterial poroelastic;
+  /// What the storage was computed from, when it was given as a porosity.
+  struct StorageInputs {
+    double porosity = 0.0;
+    double water_bulk_modulus = 0.0; ///< kPa
+    double grain_bulk_modulus = 0.0; ///< kPa (0: incompressible grains)
+  };
+  std::optional<StorageInputs> storage_from;
 };
 
 struct Layer {
@@ -41,8 +48,11 @@ struct Wall {
 
 struct Well {
   std::string name;
-  double x = 0.0;          ///< m (plane strain: position of the row of wells)
-  double radius = 0.0;     ///< m (axisymmetric: the model starts at this radius)
+  double x = 0.0;      ///< m (plane strain: position of the row of wells)
+  double radius = 0.0; ///< m (axisymmetric: the model starts at this radius)
+  /// m, plane strain: the distance between the wells of the row (0: not given);
+  /// with the radius, it gives the water level in a well (Muskat 1937).
+  double spacing = 0.0;
   double screen_top = 0.0; ///< elevation, m
   double screen_bottom = 0.0;
 };

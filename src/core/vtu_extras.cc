@@ -1,7 +1,7 @@
 // VTK's XML format for the arrays deal.II does not write: an ASCII DataArray of
 // Int32 per cell, and String arrays, whose ASCII form is each string's bytes as
 // numbers, each string ended by a 0 (as VTK's own XML writer writes them).
-#include "settlewell/output/vtu_extras.h"
+#include "settlewell/core/vtu_extras.h"
 
 #include <sstream>
 #include <stdexcept>
