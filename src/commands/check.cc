@@ -79,7 +79,11 @@ void describe_scenario(const scenario::Scenario& s,
   out << "Analysis: "
       << (s.analysis == AnalysisType::axisymmetric ? "axisymmetric (r = x, z = y)"
                                                    : "plane strain (per metre run)")
-      << ", unit weight of water " << s.gamma_w << " kN/m3\n";
+      << ", unit weight of water " << s.gamma_w << " kN/m3"
+      << (s.coupling == scenario::Coupling::flow_only
+              ? "; flow only (the skeleton held rigid: no movement computed)"
+              : "")
+      << "\n";
   out << "Regions (material):\n";
   for (const auto& [region, material] : model::region_materials(s, mesh)) {
     const auto& m = s.materials.at(material);

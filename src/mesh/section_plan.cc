@@ -208,7 +208,7 @@ GridPlan section_plan(const Section& s,
 
 GridPlan box_plan(const scenario::Box& box) {
   GridPlan plan;
-  plan.x = {AxisInterval{0.0, box.width, box.cells_x, 1.0}};
+  plan.x = {AxisInterval{box.x_origin, box.x_origin + box.width, box.cells_x, 1.0}};
   std::vector<double> tops;
   for (const auto& l : box.layers)
     tops.push_back(l.top);

@@ -156,9 +156,9 @@ hydraulic_items(const Scenario& s,
   for (std::size_t k = 0; k < n; ++k) {
     const auto& stage = s.stages[k];
     const std::string where = "stages." + stage.name;
-    for (const auto& [name, head] : stage.boundary_heads) {
-      require_line(s, mesh, name, where, "stage '" + stage.name + "' boundary head");
-      item(name).targets[k] = Target{Target::Kind::head, head};
+    for (const auto& [name, target] : stage.boundary_targets) {
+      require_line(s, mesh, name, where, "stage '" + stage.name + "' boundary " + name);
+      item(name).targets[k] = target;
     }
     for (const auto& [well, target] : stage.wells) {
       const std::string line = well_line(s, mesh, well);
@@ -212,8 +212,15 @@ void add_hydraulic(const Scenario& s,
 
 void add_mechanical(const Mesh& mesh,
                     const std::map<std::string, BoundarySpec>& roles,
+                    AnalysisType analysis,
                     BoundaryConditions& bc) {
   for (const auto& [name, spec] : roles) {
+    if (spec.mechanical == BoundarySpec::Mechanical::rigid_plate) {
+      // The plate's force: its mean pressure over its length (per metre run) or
+      // its area (axisymmetric), from the first instant on.
+      const double force = spec.plate_pressure * line_measure(mesh, name, analysis);
+      bc.rigid_plate(name, [force](double t) { return t > 0.0 ? force : 0.0; });
+    }
     if (spec.mechanical == BoundarySpec::Mechanical::fixed)
       bc.fix(name, true, true);
     if (spec.mechanical == BoundarySpec::Mechanical::roller) {
@@ -520,7 +527,7 @@ std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh
     if (spec.hydraulic != BoundarySpec::Hydraulic::unset)
       r.hydraulic = spec.hydraulic, r.head = spec.head;
     if (spec.mechanical != BoundarySpec::Mechanical::unset)
-      r.mechanical = spec.mechanical;
+      r.mechanical = spec.mechanical, r.plate_pressure = spec.plate_pressure;
   };
   for (const auto& [name, spec] : s.boundaries)
     if (!spec.part)
@@ -542,6 +549,7 @@ Model build_model(const Scenario& s,
   Model model;
   BiotSetup& setup = model.setup;
   setup.analysis = s.analysis;
+  setup.rigid_skeleton = s.coupling == scenario::Coupling::flow_only;
   setup.gamma_w = s.gamma_w;
   for (const auto& [region, material] : region_materials(s, mesh)) {
     setup.materials[region] = s.materials.at(material).poroelastic;
@@ -557,7 +565,7 @@ Model build_model(const Scenario& s,
   const auto roles = boundary_roles(s, mesh);
   const auto items = hydraulic_items(s, mesh, initial, roles, model.pumped);
   add_hydraulic(s, mesh, initial, schedule, items, setup.conditions);
-  add_mechanical(mesh, roles, setup.conditions);
+  add_mechanical(mesh, roles, s.analysis, setup.conditions);
   add_loads(s, mesh, schedule, setup.conditions);
   add_excavation(s, mesh, schedule, setup, model.pumped);
   add_props(s, schedule, setup);

@@ -192,7 +192,7 @@ Columns::Columns(const RunContext& run)
   // The hand method's ramp is that of the first stage that changes a head.
   const auto& stages = scenario_.stages;
   const auto lowering = std::find_if(stages.begin(), stages.end(), [](const auto& st) {
-    return !st.wells.empty() || !st.boundary_heads.empty();
+    return !st.wells.empty() || !st.boundary_targets.empty();
   });
   for (auto& cc : columns_)
     cc.ramp = lowering != stages.end() ? lowering->ramp : 0.0;
@@ -219,7 +219,10 @@ void Columns::design_falls(const RunContext& run) {
         }
     }
     if (s.box && !columns_.empty())
-      for (const auto& [boundary, head] : stage.boundary_heads) {
+      for (const auto& [boundary, target] : stage.boundary_targets) {
+        if (target.kind != scenario::Target::Kind::head)
+          continue;
+        const double head = target.value;
         const auto& layers = columns_.front().layers;
         if (boundary == "bottom" || boundary == "top") {
           const StackLayer& l = boundary == "bottom" ? layers.back() : layers.front();

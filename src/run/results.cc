@@ -67,21 +67,22 @@ toml::table run_results(const scenario::Scenario& s,
                         const RunSummary& size,
                         const std::string& started,
                         MPI_Comm comm) {
-  toml::table root{{"program", "settlewell"},
-                   {"version", version_string},
-                   {"input", s.source_path},
-                   {"input_sha256", sha256_of_file(s.source_path)},
-                   {"started", started},
-                   {"finished", utc_now()},
-                   {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(comm))},
-                   {"title", s.title},
-                   {"analysis", s.analysis == AnalysisType::axisymmetric
-                                    ? "axisymmetric"
-                                    : "plane_strain"},
-                   {"cells", int64_t(size.cells)},
-                   {"unknowns", int64_t(size.dofs)},
-                   {"steps", int64_t(size.steps)},
-                   {"wall_time_s", size.wall_seconds}};
+  toml::table root{
+      {"program", "settlewell"},
+      {"version", version_string},
+      {"input", s.source_path},
+      {"input_sha256", sha256_of_file(s.source_path)},
+      {"started", started},
+      {"finished", utc_now()},
+      {"processes", int64_t(dealii::Utilities::MPI::n_mpi_processes(comm))},
+      {"title", s.title},
+      {"analysis",
+       s.analysis == AnalysisType::axisymmetric ? "axisymmetric" : "plane_strain"},
+      {"coupling", s.coupling == scenario::Coupling::flow_only ? "flow_only" : "biot"},
+      {"cells", int64_t(size.cells)},
+      {"unknowns", int64_t(size.dofs)},
+      {"steps", int64_t(size.steps)},
+      {"wall_time_s", size.wall_seconds}};
   root.insert("inputs", inputs_table(s, mesh, schedule));
   toml::array stages;
   for (const auto& st : schedule.stages())
@@ -101,6 +102,7 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.settlement_outside = sum["settlement_outside_m"].value<double>();
   summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
   summary.modelled_half = r["modelled_half"].value_or(false);
+  summary.flow_only = r["coupling"].value_or(std::string()) == "flow_only";
   for (const char* key : {"settlement_inside", "floor_heave", "settlement_outside",
                           "settlement_anywhere", "drawdown_outside", "drawdown_anywhere"})
     if (const auto* at = sum[std::string(key) + "_at"].as_table())
@@ -151,17 +153,20 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     return it == r.where.end() ? std::string() : " " + it->second;
   };
   const auto mm = [](double m) { return significant(1000 * m) + " mm"; };
-  if (r.settlement_inside)
+  if (r.flow_only)
+    out << "  flow only (coupling = \"flow_only\"): heads and discharges, no movement "
+           "computed\n";
+  if (r.settlement_inside && !r.flow_only)
     out << "  largest settlement inside the wall (pit surface"
         << (r.floor_heave ? ", until dug): " : "): ") << mm(*r.settlement_inside)
         << where("settlement_inside") << "\n";
-  if (r.floor_heave)
+  if (r.floor_heave && !r.flow_only)
     out << "  largest heave inside the wall (ground left in the pit, since the start): "
         << mm(*r.floor_heave) << where("floor_heave") << "\n";
-  if (r.settlement_outside)
+  if (r.settlement_outside && !r.flow_only)
     out << "  largest settlement outside the wall (ground surface): "
         << mm(*r.settlement_outside) << where("settlement_outside") << "\n";
-  if (!r.settlement_inside)
+  if (!r.settlement_inside && !r.flow_only)
     out << "  largest settlement: " << mm(r.settlement_anywhere)
         << where("settlement_anywhere") << "\n";
   if (r.drawdown_outside)

@@ -16,10 +16,16 @@ std::string role_text(const BoundarySpec& b) {
     h << "fixed head (the initial head)";
   else
     h << (b.hydraulic == H::no_flow ? "no flow" : "set by the stages");
-  const char* m = b.mechanical == M::fixed    ? "fixed"
-                  : b.mechanical == M::roller ? "roller (normal fixed)"
-                                              : "free";
-  return h.str() + ", " + m;
+  std::ostringstream m;
+  if (b.mechanical == M::fixed)
+    m << "fixed";
+  else if (b.mechanical == M::roller)
+    m << "roller (normal fixed)";
+  else if (b.mechanical == M::rigid_plate)
+    m << "rigid frictionless plate, mean pressure " << b.plate_pressure << " kPa";
+  else
+    m << "free";
+  return h.str() + ", " + m.str();
 }
 
 std::string target_text(const Target& t) {
@@ -36,8 +42,8 @@ std::string stage_changes(const Stage& st) {
   const char* sep = "";
   for (const auto& [well, target] : st.wells)
     os << sep << "well " << well << ": " << target_text(target), sep = "; ";
-  for (const auto& [b, head] : st.boundary_heads)
-    os << sep << b << " head " << head << " m", sep = "; ";
+  for (const auto& [b, target] : st.boundary_targets)
+    os << sep << b << " " << target_text(target), sep = "; ";
   if (st.dig_level)
     os << sep << "dig to " << *st.dig_level << " m", sep = "; ";
   if (st.pit_water_level)
@@ -81,7 +87,8 @@ std::vector<std::string> geometry_lines(const Scenario& s) {
       lines.push_back(w.str());
     }
   } else if (s.box) {
-    os << "Layered box " << s.box->width << " m wide, base at " << s.box->bottom << " m";
+    os << "Layered box " << s.box->width << " m wide from x = " << s.box->x_origin
+       << " m, base at " << s.box->bottom << " m";
     lines.push_back(os.str());
     for (const auto& l : s.box->layers)
       lines.push_back("Layer " + l.name + " (" + l.material + ") from " +

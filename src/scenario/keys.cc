@@ -26,6 +26,7 @@ std::string number_text(double v) {
 const std::vector<KeySpec>& all_keys() {
   static const std::vector<KeySpec> keys{
     {"title", "string", "", "\"\"", "A title for the run folder and reports"},
+    {"coupling", "string", "", "\"biot\"", "biot (flow and deformation) or flow_only (the skeleton held rigid: transient seepage with the storage S alone; no movement is computed)"},
     {"analysis", "string", "", "\"plane_strain\"", "plane_strain (a section, per metre run) or axisymmetric (a shaft or single well about x = 0)"},
     {"unit_weight_water", "number", "kN/m3", number_text(units::default_gamma_w), "Unit weight of water"},
 
@@ -76,6 +77,7 @@ const std::vector<KeySpec>& all_keys() {
     {"section.mesh.growth", "number", "", "1.25", "Ratio of neighbouring cell sizes away from a wall or well"},
 
     {"box.width", "number", "m", "1", "Width of the box"},
+    {"box.x_origin", "number", "m", "0", "x of the box's left side (axisymmetric: its inner radius, > 0 for an annulus)"},
     {"box.bottom", "number", "m", "required", "Elevation of the box base"},
     {"box.layers[].top", "number", "m", "required", "Elevation of the layer's top (the first is the box's top)"},
     {"box.layers[].material", "string", "", "required", "Material of the layer"},
@@ -93,7 +95,8 @@ const std::vector<KeySpec>& all_keys() {
 
     {"boundaries.<name>.hydraulic", "string", "", "depends on the boundary", "no_flow or fixed_head"},
     {"boundaries.<name>.head", "number", "m", "the initial head", "Head held on a fixed_head boundary"},
-    {"boundaries.<name>.mechanical", "string", "", "depends on the boundary", "free, fixed (both directions) or roller (normal direction fixed)"},
+    {"boundaries.<name>.mechanical", "string", "", "depends on the boundary", "free, fixed (both directions), roller (normal direction fixed) or rigid_plate (a rigid frictionless plate: one normal movement for the whole straight boundary)"},
+    {"boundaries.<name>.plate_pressure", "number", "kPa", "0", "With rigid_plate: mean pressure on the plate (compression positive), applied at the start and held"},
     {"boundaries.<name>.part_of", "string", "", "-", "Makes <name> a part of this boundary (its faces on the side and in the window); what the part does not set it takes from that boundary"},
     {"boundaries.<name>.side", "string", "", "-", "With part_of: left (x < 0) or right (x > 0) side of a full section's boundary"},
     {"boundaries.<name>.x_from", "number", "m", "-", "With part_of: the part's faces have their midpoints at x >= x_from"},
@@ -106,7 +109,8 @@ const std::vector<KeySpec>& all_keys() {
     {"stages[].ramp", "number", "days", "0", "Changes of this stage ramp linearly over this time from the stage start"},
     {"stages[].wells.<name>.head", "number", "m", "-", "Target head in the well (give head or discharge)"},
     {"stages[].wells.<name>.discharge", "number", "m3/day", "-", "Target pumped discharge (per metre run in plane strain, per well in axisymmetric); 0 stops the well"},
-    {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a fixed_head boundary"},
+    {"stages[].boundaries.<name>.head", "number", "m", "-", "Target head on a boundary or internal line (give head or discharge)"},
+    {"stages[].boundaries.<name>.discharge", "number", "m3/day", "-", "Total water leaving through a boundary or internal line, spread evenly over it (per metre run in plane strain, in all in axisymmetric); negative: water entering"},
     {"stages[].excavation_level_head", "number", "m", "-", "Target head held along the final excavation level inside the pit"},
     {"stages[].pit_water_level", "number", "m", "the dig level", "Elevation of the water in the pit during the stage (a sump); the dug surface drains to it: water leaves where its pressure would be higher, none enters where it is lower"},
     {"stages[].dig_level", "number", "m", "-", "Elevation the pit is dug to in this stage: the soil inside the walls (a user's mesh: of mesh_file.excavation_regions) above it is taken out at the stage's start and the forces it carried are released over the ramp"},

@@ -250,8 +250,16 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
       b.mechanical = BoundarySpec::Mechanical::fixed;
     else if (mechanical == "roller")
       b.mechanical = BoundarySpec::Mechanical::roller;
+    else if (mechanical == "rigid_plate")
+      b.mechanical = BoundarySpec::Mechanical::rigid_plate;
     else if (!mechanical.empty())
-      r.fail("mechanical", "must be free, fixed or roller (got '" + mechanical + "')");
+      r.fail("mechanical",
+             "must be free, fixed, roller or rigid_plate (got '" + mechanical + "')");
+    if (r.has("plate_pressure")) {
+      if (b.mechanical != BoundarySpec::Mechanical::rigid_plate)
+        r.fail("plate_pressure", "needs mechanical = \"rigid_plate\"");
+      b.plate_pressure = r.number("plate_pressure");
+    }
     b.part = read_boundary_part(r, s, name);
     s.boundaries[name] = b;
     s.locations["boundaries." + name] = r.where(b.part               ? "part_of"
@@ -273,6 +281,11 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   else if (analysis != "plane_strain")
     top.fail("analysis", "must be plane_strain or axisymmetric (got '" + analysis + "')");
   s.gamma_w = top.number("unit_weight_water");
+  const std::string coupling = top.text("coupling");
+  if (coupling == "flow_only")
+    s.coupling = Coupling::flow_only;
+  else if (coupling != "biot")
+    top.fail("coupling", "must be biot or flow_only (got '" + coupling + "')");
   if (!(s.gamma_w > 0.0))
     top.fail("unit_weight_water", "must be positive");
   parse_materials(top, s);
@@ -283,6 +296,10 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_stages(top, s);
   parse_output(top, s);
   parse_checks(top, s);
+  if (s.coupling == Coupling::flow_only &&
+      (!s.neighbours.empty() || !s.output.columns.empty()))
+    top.fail("coupling", "flow_only computes no movement, so it has no settlement for "
+                         "[[neighbours]] or [[output.columns]]; remove them or use biot");
   return s;
 }
 

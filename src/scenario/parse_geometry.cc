@@ -195,6 +195,9 @@ Section read_section(const TableReader& r, const Scenario& s) {
 Box read_box(const TableReader& r, const Scenario& s) {
   Box box;
   box.width = r.positive("width");
+  box.x_origin = r.number("x_origin");
+  if (s.analysis == AnalysisType::axisymmetric && box.x_origin < 0.0)
+    r.fail("x_origin", "is a radius in an axisymmetric model: it must not be negative");
   box.bottom = r.number("bottom");
   const toml::array* layers = r.array("layers");
   if (layers == nullptr || layers->empty() || !(*layers)[0].is_table())
@@ -315,8 +318,8 @@ bool model_extent(
     return true;
   }
   if (s.box) {
-    x_min = 0.0;
-    x_max = s.box->width;
+    x_min = s.box->x_origin;
+    x_max = s.box->x_origin + s.box->width;
     y_min = s.box->bottom;
     y_max = s.box->layers.front().top;
     return true;

@@ -26,13 +26,14 @@ bool well_exists(const Scenario& s, const std::string& name) {
   return false;
 }
 
-Target read_target(const TableReader& r, const std::string& what) {
+Target
+read_target(const TableReader& r, const std::string& what, bool may_enter = false) {
   if (r.has("head") == r.has("discharge"))
     r.fail_here("give either head or discharge for " + what);
   if (r.has("head"))
     return {Target::Kind::head, r.elevation("head")};
   const double q = r.number("discharge");
-  if (q < 0.0)
+  if (q < 0.0 && !may_enter)
     r.fail("discharge", "must not be negative (it is the pumped rate)");
   return {Target::Kind::discharge, q / units::seconds_per_day};
 }
@@ -102,7 +103,7 @@ void read_stage_changes(const TableReader& r, Scenario& s, Stage& stage) {
     stage.wells[name] = read_target(w, "well '" + name + "'");
   });
   for_each_named(r, "boundaries", [&](const std::string& name, const TableReader& b) {
-    stage.boundary_heads[name] = b.elevation("head");
+    stage.boundary_targets[name] = read_target(b, "boundary '" + name + "'", true);
   });
   if (r.has("dig_level"))
     read_dig_level(r, s, stage);

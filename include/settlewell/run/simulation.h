@@ -44,6 +44,8 @@ struct RunSummary {
   /// Whether the model is the half of a symmetric section (its volumes are half
   /// the whole pit's).
   bool modelled_half = false;
+  /// The skeleton was held rigid (coupling = "flow_only"): no movement computed.
+  bool flow_only = false;
   /// Pumped volume per pumped line (m^3; per metre run in plane strain).
   std::map<std::string, double> pumped_volume;
   /// The same per stage, in stage order.

@@ -91,7 +91,12 @@ struct Section {
 };
 
 /// Geometry (b): a box with horizontal layers (columns, simple cases).
+/// What the analysis couples: Biot (flow and deformation) or flow alone, the
+/// skeleton held rigid (transient seepage with the storage S only).
+enum class Coupling { biot, flow_only };
+
 struct Box {
+  double x_origin = 0.0;     ///< m: x (or the radius r) of the box's left side
   double width = 0.0;        ///< m
   double bottom = 0.0;       ///< elevation, m
   std::vector<Layer> layers; ///< top to bottom; the first top is the box's top
@@ -127,10 +132,12 @@ struct BoundaryPart {
 /// What holds on a named boundary for the whole analysis (stages may change heads).
 struct BoundarySpec {
   enum class Hydraulic { unset, no_flow, fixed_head };
-  enum class Mechanical { unset, free, fixed, roller };
+  enum class Mechanical { unset, free, fixed, roller, rigid_plate };
   Hydraulic hydraulic = Hydraulic::unset;
   std::optional<double> head; ///< m; fixed_head without it keeps the initial head
   Mechanical mechanical = Mechanical::unset;
+  /// kPa: the mean pressure on a rigid plate, applied at the start and held.
+  double plate_pressure = 0.0;
   std::optional<BoundaryPart> part; ///< set when the boundary is a part of another
 };
 
@@ -158,9 +165,11 @@ struct Stage {
   std::string name;
   double duration = 0.0; ///< s
   double ramp = 0.0;     ///< s from the stage start; 0: changes apply at once
-  std::map<std::string, Target> wells;          ///< by well name
-  std::map<std::string, double> boundary_heads; ///< by boundary name, m
-  std::optional<double> excavation_level_head;  ///< m
+  std::map<std::string, Target> wells; ///< by well name
+  /// By boundary or line name: a head (m) or a total discharge leaving (m^3/s per
+  /// metre run, or in all in axisymmetric; negative: water entering).
+  std::map<std::string, Target> boundary_targets;
+  std::optional<double> excavation_level_head; ///< m
   std::optional<double> dig_level;       ///< elevation the pit is dug to in this stage, m
   std::optional<double> pit_water_level; ///< elevation of the water in the pit, m
   std::vector<SurfaceLoad> loads;
@@ -233,6 +242,7 @@ struct Scenario {
   std::string source_path; ///< the file it was read from
   std::string title;
   AnalysisType analysis = AnalysisType::plane_strain;
+  Coupling coupling = Coupling::biot;
   double gamma_w = 0.0; ///< kN/m^3
   std::map<std::string, Material> materials;
   std::optional<Section> section;
