@@ -11,6 +11,7 @@
 #include "settlewell/run/checkpoint.h"
 #include "settlewell/run/simulation.h"
 #include "settlewell/run/stop_request.h"
+#include "settlewell/scenario/describe.h"
 #include "settlewell/scenario/keys.h"
 #include "settlewell/scenario/parse.h"
 #include "settlewell/scenario/sweep_file.h"
@@ -189,6 +190,9 @@ int run_run(const ScenarioOptions& o) {
     throw settlewell::InputError("run needs a scenario file (or --resume RUN_FOLDER)");
   auto scenario = settlewell::scenario::read_scenario(o.scenario);
   apply_overrides(o, scenario);
+  if (dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0)
+    for (const auto& advice : settlewell::scenario::advisories(scenario))
+      std::cerr << "settlewell: warning: " << advice << "\n";
   settlewell::Simulation simulation(scenario, MPI_COMM_WORLD);
   settlewell::catch_stop_signals();
   const auto options =

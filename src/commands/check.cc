@@ -145,6 +145,8 @@ void check_scenario(const scenario::Scenario& s, MPI_Comm comm, std::ostream& ou
   check_output_points(s, mesh);
   if (Utilities::MPI::this_mpi_process(comm) == 0) {
     describe_scenario(s, mesh, schedule, out);
+    for (const auto& advice : scenario::advisories(s))
+      out << "Warning: " << advice << ".\n";
     out << "The scenario is valid.\n";
   }
 }

@@ -2,6 +2,7 @@
 
 #include "settlewell/core/units.h"
 
+#include <algorithm>
 #include <sstream>
 
 namespace settlewell::scenario {
@@ -110,6 +111,51 @@ std::vector<std::string> geometry_lines(const Scenario& s) {
     lines.push_back("Displacements reported from the start of stage '" +
                     s.output.displacements_from + "'");
   return lines;
+}
+
+namespace {
+
+/// The least and largest horizontal conductivity of the layers a section's screen
+/// crosses, m/s.
+std::pair<double, double> screen_conductivities(const Scenario& s, const Well& w) {
+  const auto& layers = s.section->layers;
+  double least = 0.0, largest = 0.0;
+  for (std::size_t k = 0; k < layers.size(); ++k) {
+    const double top = layers[k].top;
+    const double bottom = k + 1 < layers.size() ? layers[k + 1].top : s.section->bottom;
+    if (!(w.screen_top > bottom && w.screen_bottom < top))
+      continue;
+    const double kx = s.materials.at(layers[k].material).poroelastic.conductivity_x;
+    least = least == 0.0 ? kx : std::min(least, kx);
+    largest = std::max(largest, kx);
+  }
+  return {least, largest};
+}
+
+} // namespace
+
+std::vector<std::string> advisories(const Scenario& s) {
+  std::vector<std::string> out;
+  if (!s.section)
+    return out;
+  for (const auto& w : s.section->wells) {
+    const bool by_discharge =
+        std::any_of(s.stages.begin(), s.stages.end(), [&](auto& st) {
+          const auto t = st.wells.find(w.name);
+          return t != st.wells.end() && t->second.kind == Target::Kind::discharge;
+        });
+    const auto [least, largest] = screen_conductivities(s, w);
+    if (by_discharge && least > 0.0 && largest > 10.0 * least) {
+      std::ostringstream os;
+      os << "well " << w.name << " is held at a discharge that is spread evenly over its "
+         << "screen, which crosses layers whose conductivity ranges from " << least
+         << " to " << largest
+         << " m/s: a real well takes most of its water from the most permeable "
+            "one; hold it at a head, or end the screen in that layer";
+      out.push_back(os.str());
+    }
+  }
+  return out;
 }
 
 } // namespace settlewell::scenario

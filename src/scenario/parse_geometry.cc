@@ -101,8 +101,8 @@ void check_well(const TableReader& r,
     r.fail("screen_top", "must lie above screen_bottom");
   if (!(well.screen_top <= section.ground_surface))
     r.fail("screen_top", "lies above the ground surface");
-  if (!(well.screen_bottom > section.bottom))
-    r.fail("screen_bottom", "lies at or below the model base");
+  if (!(well.screen_bottom >= section.bottom))
+    r.fail("screen_bottom", "lies below the model base");
 }
 
 std::vector<Well>

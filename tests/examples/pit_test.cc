@@ -216,3 +216,22 @@ TEST(PitExample, LateTimeHeadsMatchASteadySeepageSolve) {
     EXPECT_NEAR(points.column("head_m")[rows[i]], steady_head, 1e-3) << p.name;
   }
 }
+
+// A well screen may reach the model base: the section is meshed with the screen
+// line ending on the base, and the longer screen at the same head pumps more
+// (it reaches deeper into the aquifer).
+TEST(PitExample, AScreenMayReachTheModelBase) {
+  auto variant = [](double screen_bottom) {
+    return [screen_bottom](toml::table& s) {
+      coarse(s);
+      short_stages(s);
+      s["section"]["wells"][0].as_table()->insert_or_assign("screen_bottom",
+                                                            screen_bottom);
+    };
+  };
+  const auto shipped = run_example("basement-pit", "screen-shipped", variant(-15.0));
+  const auto to_base = run_example("basement-pit", "screen-to-base", variant(-30.0));
+  EXPECT_GT(shipped.summary.pumped_volume.at("W1"), 0.0);
+  EXPECT_GT(to_base.summary.pumped_volume.at("W1"),
+            shipped.summary.pumped_volume.at("W1"));
+}

@@ -18,5 +18,11 @@ std::string target_text(const Target& t);
 std::string stage_changes(const Stage& st);
 /// One line per part of the geometry and the initial groundwater.
 std::vector<std::string> geometry_lines(const Scenario& s);
+/// What a valid scenario should still make its author think twice about, one
+/// sentence each (`check` lists them, `run` prints them as warnings): a well held
+/// at a discharge whose screen crosses layers of very different conductivity (the
+/// discharge is spread evenly over the screen, where a real well takes most of its
+/// water from the most permeable layer).
+std::vector<std::string> advisories(const Scenario& s);
 
 } // namespace settlewell::scenario
