@@ -1,5 +1,6 @@
 #include "base_stability.h"
 
+#include "column_stack.h"
 #include "layer_stack.h"
 
 #include "settlewell/checks/stability.h"
@@ -10,6 +11,8 @@
 #include <cmath>
 #include <filesystem>
 #include <limits>
+#include <set>
+#include <tuple>
 
 namespace settlewell::monitors {
 
@@ -20,9 +23,8 @@ namespace {
 
 constexpr unsigned int n_line_samples = 40;
 const char* const not_dug = "the pit is not dug yet (no stage has reached a dig_level)";
-const char* const no_section =
-    "the pit is dug in a user's mesh (mesh_file), which gives no wall toe or layers to "
-    "check the base against; the base checks need a [section]";
+const char* const no_wall =
+    "the mesh (mesh_file) has no region named \"wall\", so the wall's toe is not known";
 
 /// Midpoints of n equal parts of [a, b] at elevation y.
 std::vector<Point<2>> along(double a, double b, double y) {
@@ -148,17 +150,80 @@ toml::array BaseStability::stage_table(const RunView& view) const {
   return stages;
 }
 
-BaseStability::BaseStability(const RunContext& run)
-    : scenario_(run.scenario)
-    , section_(run.scenario.section ? &*run.scenario.section : nullptr) {
-  if (section_ && section_->wall) {
-    if (section_->wall->right)
-      sides_.push_back("right");
-    if (section_->wall->left)
-      sides_.push_back("left");
+BaseStability::Pit BaseStability::section_pit(const scenario::Scenario& s) {
+  const auto& sec = *s.section;
+  Pit pit;
+  std::tie(pit.x0, pit.x1) = pit_span(sec, s.analysis);
+  pit.ground = sec.ground_surface;
+  pit.bottom = sec.bottom;
+  if (sec.wall)
+    pit.toe = sec.wall->toe;
+  pit.layers = sec.layers;
+  return pit;
+}
+
+BaseStability::Pit BaseStability::mesh_pit(const RunContext& run,
+                                           std::vector<std::string>& sides) {
+  // The extent of the excavation regions' cells and of the wall's, from every
+  // process.
+  const auto& names = run.problem.mesh().names;
+  std::set<unsigned int> dug;
+  for (const auto& region : run.scenario.mesh_file->excavation_regions)
+    dug.insert(names.region_id(region));
+  const bool has_wall = names.has_region("wall");
+  const unsigned int wall = has_wall ? names.region_id("wall") : 0;
+  constexpr double inf = std::numeric_limits<double>::infinity();
+  double x_min = inf, x_max = -inf, top = -inf, toe = inf, wall_x = 0.0, wall_cells = 0.0;
+  for (const auto& cell : run.problem.dof_handler().active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    for (const unsigned int v : cell->vertex_indices()) {
+      const Point<2>& p = cell->vertex(v);
+      if (dug.count(cell->material_id()))
+        x_min = std::min(x_min, p[0]), x_max = std::max(x_max, p[0]),
+        top = std::max(top, p[1]);
+      if (has_wall && cell->material_id() == wall)
+        toe = std::min(toe, p[1]);
+    }
+    if (has_wall && cell->material_id() == wall)
+      wall_x += cell->center()[0], wall_cells += 1.0;
   }
-  static const std::vector<scenario::Layer> no_layers;
-  const auto& layers = section_ ? section_->layers : no_layers;
+  const MPI_Comm comm = run.problem.communicator();
+  Pit pit;
+  pit.x0 = dealii::Utilities::MPI::min(x_min, comm);
+  pit.x1 = dealii::Utilities::MPI::max(x_max, comm);
+  pit.ground = dealii::Utilities::MPI::max(top, comm);
+  const ColumnStack stack = column_stack(run.problem, 0.5 * (pit.x0 + pit.x1));
+  for (const auto& l : stack.layers)
+    pit.layers.push_back({l.region,
+                          run.scenario.mesh_file->region_materials.count(l.region)
+                              ? run.scenario.mesh_file->region_materials.at(l.region)
+                              : l.region,
+                          l.top});
+  pit.bottom = stack.layers.empty() ? pit.ground : stack.layers.back().bottom;
+  wall_cells = dealii::Utilities::MPI::sum(wall_cells, comm);
+  if (wall_cells > 0.0) {
+    pit.toe = dealii::Utilities::MPI::min(toe, comm);
+    const double centre = dealii::Utilities::MPI::sum(wall_x, comm) / wall_cells;
+    sides.push_back(centre > 0.5 * (pit.x0 + pit.x1) ? "right" : "left");
+  }
+  return pit;
+}
+
+BaseStability::BaseStability(const RunContext& run)
+    : scenario_(run.scenario) {
+  if (scenario_.section) {
+    pit_ = section_pit(scenario_);
+    if (scenario_.section->wall) {
+      if (scenario_.section->wall->right)
+        sides_.push_back("right");
+      if (scenario_.section->wall->left)
+        sides_.push_back("left");
+    }
+  } else {
+    pit_ = mesh_pit(run, sides_);
+  }
+  const auto& layers = pit_.layers;
   const double low_k = scenario_.limits.low_permeability;
   for (std::size_t k = 0; k + 1 < layers.size(); ++k) {
     const auto& m = scenario_.materials.at(layers[k].material).poroelastic;
@@ -175,7 +240,7 @@ BaseStability::BaseStability(const RunContext& run)
 
 double BaseStability::pit_water_level_at(double t) const {
   // As the model sets it: the stage's pit_water_level, else the dig level so far.
-  double dug_to = section_->ground_surface, level = dug_to;
+  double dug_to = pit_.ground, level = dug_to;
   for (std::size_t k = 0; k < stage_start_.size() && stage_start_[k] < t * (1 - 1e-12);
        ++k) {
     dug_to = scenario_.stages[k].dig_level.value_or(dug_to);
@@ -199,26 +264,24 @@ const BaseStability::Samples& BaseStability::samples_at(double dig,
   if (found != samples_.end())
     return found->second;
   Samples& s = samples_[dig];
-  const auto& sec = *section_;
-  const auto [x0, x1] = pit_span(sec, scenario_.analysis);
-  const double delta = 1e-6 * (sec.ground_surface - sec.bottom);
+  const double x0 = pit_.x0, x1 = pit_.x1;
+  const double delta = 1e-6 * (pit_.ground - pit_.bottom);
   s.exit.emplace(problem, along_with_ends(x0, x1, dig - delta, delta),
                  "exit-gradient samples");
-  const double half = sec.excavation_width / 2;
   for (const auto& side : sides_) {
     // Terzaghi's prism: d/2 wide beside the toe, or as wide as the pit (a shaft's
     // whole floor) when that is narrower.
-    const double d = std::max(dig - sec.wall->toe, 0.0);
-    const double a = side == "right" ? std::max(x0, half - d / 2) : -half;
-    const double b = side == "right" ? half : std::min(x1, -half + d / 2);
+    const double d = std::max(dig - *pit_.toe, 0.0);
+    const double a = side == "right" ? std::max(x0, x1 - d / 2) : x0;
+    const double b = side == "right" ? x1 : std::min(x1, x0 + d / 2);
     s.prism_widths.push_back(b - a);
     s.prisms.emplace_back(
-        SamplePoints(problem, along(a, b, sec.wall->toe), "heave prism base"),
+        SamplePoints(problem, along(a, b, *pit_.toe), "heave prism base"),
         // Just below the floor: on it, a sample may fall in a dug cell above.
         SamplePoints(problem, along(a, b, dig - delta), "heave prism top"));
   }
   for (const std::size_t k : uplift_layers_) {
-    const double underside = sec.layers[k + 1].top;
+    const double underside = pit_.layers[k + 1].top;
     if (underside < dig)
       s.uplift_lines.emplace_back(std::in_place, problem, along(x0, x1, underside),
                                   "uplift line");
@@ -232,17 +295,11 @@ BaseState BaseStability::evaluate(const RunView& view) {
   BaseState b;
   b.time = view.time();
   b.dig_level = dig_level_at(b.time);
-  if (section_ == nullptr) {
-    if (b.dig_level)
-      b.piping_reason = no_section;
-    return b;
-  }
-  const auto& sec = *section_;
   for (const auto& side : sides_)
     b.heave.push_back({side, 0.0, 0.0, 0.0, std::nullopt});
   for (const std::size_t k : uplift_layers_)
     b.uplift.push_back(
-        {sec.layers[k].name, sec.layers[k + 1].top, 0.0, 0.0, std::nullopt});
+        {pit_.layers[k].name, pit_.layers[k + 1].top, 0.0, 0.0, std::nullopt});
   if (!b.dig_level)
     return b;
   const double dig = *b.dig_level;
@@ -261,7 +318,7 @@ BaseState BaseStability::evaluate(const RunView& view) {
       b.exit_gradient = -exits[i].gradient_y; // upward flow: head falls upward
       b.exit_x = s.exit->points()[i][0];
     }
-  const auto& floor_layer = layer_at(sec.layers, dig - 1e-6);
+  const auto& floor_layer = layer_at(pit_.layers, dig - 1e-6);
   b.critical_gradient = checks::critical_gradient(
       scenario_.materials.at(floor_layer.material).unit_weight, gw);
   // Piping is a failure of permeable soil under exiting seepage; a floor of a
@@ -280,21 +337,22 @@ BaseState BaseStability::evaluate(const RunView& view) {
   auto submerged = [&](const scenario::Layer& l) { return saturated(l) - gw; };
   for (std::size_t i = 0; i < b.heave.size(); ++i) {
     auto& h = b.heave[i];
-    h.depth = dig - sec.wall->toe;
+    h.depth = dig - *pit_.toe;
     h.width = s.prism_widths[i];
     if (!(h.depth > 0.0))
       continue; // the toe is at or above the floor: no prism
     h.mean_excess_head = mean_head(s.prisms[i].first, view, axisymmetric) -
                          mean_head(s.prisms[i].second, view, axisymmetric);
     const double gamma_sub =
-        integrate_layers(sec.layers, sec.bottom, sec.wall->toe, dig, submerged) / h.depth;
+        integrate_layers(pit_.layers, pit_.bottom, *pit_.toe, dig, submerged) / h.depth;
     h.factor = checks::heave_factor(gamma_sub, h.depth, h.mean_excess_head, gw);
   }
   for (std::size_t i = 0; i < b.uplift.size(); ++i) {
     if (!s.uplift_lines[i])
       continue; // the layer's underside is at or above the floor
     auto& u = b.uplift[i];
-    u.overburden = integrate_layers(sec.layers, sec.bottom, u.underside, dig, saturated);
+    u.overburden =
+        integrate_layers(pit_.layers, pit_.bottom, u.underside, dig, saturated);
     u.pore_pressure = -std::numeric_limits<double>::infinity();
     for (const auto& v :
          s.uplift_lines[i]->evaluate(view.run.problem, view.run.derivation))
@@ -311,7 +369,7 @@ void BaseStability::start(const RunView& view) {
     header.insert(header.end(),
                   {"heave_excess_head_" + side + "_m", "heave_factor_" + side});
   for (const std::size_t k : uplift_layers_) {
-    const auto& name = section_->layers[k].name;
+    const auto& name = pit_.layers[k].name;
     header.insert(header.end(),
                   {"uplift_pore_pressure_" + name + "_kPa", "uplift_factor_" + name});
   }
@@ -356,11 +414,9 @@ void BaseStability::finish(const RunView& view, toml::table& results) {
                                limits.piping_factor, piping_reason)}};
   if (last.dig_level) {
     t.insert("dig_level_at_end_m", *last.dig_level);
-    if (section_ != nullptr) {
-      t.insert("exit_gradient_at_end", last.exit_gradient);
-      t.insert("exit_x_at_end_m", last.exit_x);
-      t.insert("critical_gradient", last.critical_gradient);
-    }
+    t.insert("exit_gradient_at_end", last.exit_gradient);
+    t.insert("exit_x_at_end_m", last.exit_x);
+    t.insert("critical_gradient", last.critical_gradient);
   } else {
     t.insert("dig_level_at_end_m", "not dug");
   }
@@ -388,6 +444,8 @@ void BaseStability::finish(const RunView& view, toml::table& results) {
     uplift.push_back(u);
   }
   t.insert("heave", heave);
+  if (sides_.empty() && !scenario_.section)
+    t.insert("heave_not_checked", no_wall);
   t.insert("uplift", uplift);
   t.insert("stages", stage_table(view));
   results.insert("base_stability", t);

@@ -45,8 +45,10 @@ struct BaseState {
 
 class BaseStability : public Monitor {
 public:
-  /// A section, or a mesh file whose pit is dug: its base is not checked (the
-  /// factors say why), but its dig levels are reported.
+  /// A section, or a mesh file whose pit is dug (mesh_file.excavation_regions):
+  /// the pit is then the extent of those regions, the layers under it those a
+  /// column through its centre crosses, and the wall the region named "wall"
+  /// (without one, heave is not checked and the results say why). Collective.
   explicit BaseStability(const RunContext& run);
   void visit_state(StateArchive& a) override;
   void start(const RunView& view) override;
@@ -69,8 +71,19 @@ private:
   /// Per stage: the dig level at its end and the least factors of its output times.
   toml::array stage_table(const RunView& view) const;
 
+  /// What the checks need of the pit, from a section or from a user's mesh.
+  struct Pit {
+    double x0 = 0.0, x1 = 0.0;           ///< the inside of the pit, m
+    double ground = 0.0;                 ///< the pit's top, m
+    double bottom = 0.0;                 ///< the model base under it, m
+    std::optional<double> toe;           ///< the wall toe, m (none: no wall found)
+    std::vector<scenario::Layer> layers; ///< under the pit's centre, top down
+  };
+  static Pit section_pit(const scenario::Scenario& s);
+  static Pit mesh_pit(const RunContext& run, std::vector<std::string>& sides);
+
   const scenario::Scenario& scenario_;
-  const scenario::Section* section_;            ///< none: a mesh file
+  Pit pit_;
   std::vector<std::string> sides_;              ///< sides with a wall
   std::vector<std::size_t> uplift_layers_;      ///< layer index of each candidate
   std::vector<std::pair<double, double>> digs_; ///< (removal time, dig level)

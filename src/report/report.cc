@@ -398,6 +398,13 @@ void base_section(Document& d,
           "γ' d / (γw h_a) on the prism d × d/2, or the whole floor when narrower "
           "(Terzaghi 1943)",
           *h.as_table());
+  if (const auto why = (*b)["heave_not_checked"].value<std::string>())
+    t.rows.push_back({{"heave beside the wall toe"},
+                      {"Terzaghi (1943)"},
+                      {"not evaluated: " + *why, Flag::ok},
+                      {"-"},
+                      {"-"},
+                      {"-"}});
   if (const auto* uplift = (*b)["uplift"].as_array())
     for (const auto& u : *uplift)
       row("uplift of " + text((*u.as_table())["layer"]) + " (underside " +
