@@ -113,7 +113,7 @@ void run_section(Document& d, const toml::table& r) {
               num(get(r["water_balance"]["steps_over_tolerance"]), 8) + " steps over it)",
           balance_ok ? Flag::ok : Flag::attention}},
         {{"largest movement of a step (small-strain limit: 5 % of the model's height)"},
-         {fixed(1000 * get(movement["largest_movement_m"]), 1) + " mm (limit " +
+         {significant(1000 * get(movement["largest_movement_m"])) + " mm (limit " +
               fixed(1000 * get(movement["movement_limit_m"]), 0) + " mm; " +
               num(steps_over, 8) + " steps over it)",
           steps_over > 0 ? Flag::attention : Flag::ok}}}});
@@ -307,11 +307,11 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
   for (const auto& node : *q) {
     const auto& line = *node.as_table();
     std::vector<Cell> row{{text(line["line"])},
-                          {fixed(get(line["final_m3_per_day"]), 2)}};
+                          {significant(get(line["final_m3_per_day"]))}};
     if (const auto* vs = line["stage_volumes_m3"].as_array())
       for (const auto& v : *vs)
-        row.push_back({fixed(v.value<double>().value_or(0.0), 1)});
-    row.push_back({fixed(get(line["volume_m3"]), 1)});
+        row.push_back({significant(v.value<double>().value_or(0.0))});
+    row.push_back({significant(get(line["volume_m3"]))});
     t.rows.push_back(row);
   }
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
@@ -473,10 +473,10 @@ void stages_section(Document& d, const toml::table& r) {
       }
     row.push_back({props.empty() ? "-" : props});
     const auto* w = stage_entry(wall, name);
-    row.push_back({w ? fixed(get((*w)["largest_deflection_mm"]["value"]), 1) : "-"});
+    row.push_back({w ? significant(get((*w)["largest_deflection_mm"]["value"])) : "-"});
     row.push_back({w ? num(get((*w)["largest_moment_kNm_per_m"]["value"]), 4) : "-"});
     const auto* e = stage_entry(r["summary"]["stages"], name);
-    row.push_back({e ? fixed(1000 * get((*e)["settlement_outside_m"]), 1) : "-"});
+    row.push_back({e ? significant(1000 * get((*e)["settlement_outside_m"])) : "-"});
     t.rows.push_back(row);
   }
   s.table(t);
@@ -505,21 +505,21 @@ void neighbours_section(Document& d, const toml::table& r) {
     const double settlement = get(n["largest_settlement_m"]);
     const double beta = get(n["largest_angular_distortion"]);
     const int category = int(get(n["category"]));
-    t.rows.push_back(
-        {{text(n["name"])},
-         {"x " + num(get(n["x_from_m"])) + " to " + num(get(n["x_to_m"])) + " m at " +
-          num(get(n["foundation_level_m"])) + " m"},
-         {fixed(1000 * settlement, 1), settlement > s_limit ? Flag::attention : Flag::ok},
-         {"1/" + num(beta > 0 ? 1.0 / beta : 0.0, 4),
-          beta > b_limit ? Flag::attention : Flag::ok},
-         {num(get(n["deflection_ratio"]), 2) +
-          (n["hogging"].value_or(false) ? " hogging" : " sagging")},
-         {num(get(n["horizontal_strain"]), 2)},
-         {fixed(100 * get(n["principal_strain"]), 3) + " %"},
-         {std::to_string(category) + (category == 4 ? "-5 " : " ") + text(n["degree"]) +
-              " (" + text(n["crack_width"]) + ")",
-          category >= 3 ? Flag::attention : Flag::ok},
-         {num(get(n["time_days"]), 6)}});
+    t.rows.push_back({{text(n["name"])},
+                      {"x " + num(get(n["x_from_m"])) + " to " + num(get(n["x_to_m"])) +
+                       " m at " + num(get(n["foundation_level_m"])) + " m"},
+                      {significant(1000 * settlement),
+                       settlement > s_limit ? Flag::attention : Flag::ok},
+                      {"1/" + num(beta > 0 ? 1.0 / beta : 0.0, 4),
+                       beta > b_limit ? Flag::attention : Flag::ok},
+                      {num(get(n["deflection_ratio"]), 2) +
+                       (n["hogging"].value_or(false) ? " hogging" : " sagging")},
+                      {num(get(n["horizontal_strain"]), 2)},
+                      {significant(100 * get(n["principal_strain"])) + " %"},
+                      {std::to_string(category) + (category == 4 ? "-5 " : " ") +
+                           text(n["degree"]) + " (" + text(n["crack_width"]) + ")",
+                       category >= 3 ? Flag::attention : Flag::ok},
+                      {num(get(n["time_days"]), 6)}});
   }
   s.table(t);
   s.paragraph(
@@ -562,18 +562,18 @@ void columns_section(Document& d, const toml::table& r) {
     const std::string name = text(c["name"]);
     Table t{{"column " + name + " at x = " + num(get(c["x_m"])) + " m", "value"}, {}};
     t.rows.push_back({{"2D settlement at day " + num(get(c["end_days"]), 6)},
-                      {fixed(1000 * get(c["settlement_2d_end_m"]), 1) + " mm"}});
+                      {significant(1000 * get(c["settlement_2d_end_m"])) + " mm"}});
     t.rows.push_back(
         {{"1D with the 2D heads, same day (ramped)"},
-         {fixed(1000 * get(c["settlement_1d_computed_end_m"]), 1) +
+         {significant(1000 * get(c["settlement_1d_computed_end_m"])) +
           " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_computed_end"]), 2)}});
     if (c.contains("design"))
       t.rows.push_back(
           {{"1D with the design drawdown, same day (ramped)"},
-           {fixed(1000 * get(c["settlement_1d_design_end_m"]), 1) +
+           {significant(1000 * get(c["settlement_1d_design_end_m"])) +
             " mm; S2D/S1D = " + fixed(get(c["ratio_2d_to_1d_design_end"]), 2)}});
     t.rows.push_back({{"ultimate 1D settlement (2D heads)"},
-                      {fixed(1000 * get(c["computed"]["ultimate_m"]), 1) + " mm"}});
+                      {significant(1000 * get(c["computed"]["ultimate_m"])) + " mm"}});
     t.rows.push_back(
         {{"time to half the settlement at the end: 2D / 1D (2D heads, ramped)"},
          {num(get(c["t50_2d_days"]), 4) + " / " + num(get(c["t50_1d_days"]), 4) +
@@ -596,7 +596,7 @@ void columns_section(Document& d, const toml::table& r) {
              {consolidating ? num(get(l["cv_m2_per_year"])) : "-"},
              {consolidating ? num(get(l["t50_days"]), 4) : "-"},
              {consolidating ? num(get(l["t90_days"]), 4) : "-"},
-             {fixed(1000 * get(l["settlement_m"]), 1)}});
+             {significant(1000 * get(l["settlement_m"]))}});
       }
     s.table(layers);
     std::vector<std::string> notes;
