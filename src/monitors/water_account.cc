@@ -68,16 +68,24 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
   const BiotProblem& problem = view.run.problem;
   const double dt = view.step.dt;
   std::vector<double> values;
+  // Every line's outflow from one residual: the pumped lines', then the sources'.
+  std::vector<std::string> lines;
+  for (const auto& p : pumped_)
+    if (!p.drained_surface)
+      lines.push_back(p.line);
+  lines.insert(lines.end(), sources_.begin(), sources_.end());
+  const std::vector<double> outflow = problem.outflows(lines);
+  std::size_t next = 0;
   for (const auto& p : pumped_) {
     const double q =
-        p.drained_surface ? problem.drained_surface_outflow() : problem.outflow(p.line);
+        p.drained_surface ? problem.drained_surface_outflow() : outflow[next++];
     volume_[p.label] += q * dt;
     stage_volume_[p.label][view.stage()] += q * dt;
     final_discharge_[p.label] = q;
     values.push_back(q * units::seconds_per_day);
   }
   for (const auto& line : sources_) {
-    const double q_in = -problem.outflow(line);
+    const double q_in = -outflow[next++];
     inflow_volume_[line] += q_in * dt;
     final_inflow_[line] = q_in;
     values.push_back(q_in * units::seconds_per_day);

@@ -136,20 +136,51 @@ void require_line(const Mesh& mesh, const std::string& line) {
 } // namespace
 
 double BiotProblem::outflow(const std::string& line) const {
+  return outflows({line}).front();
+}
+
+std::vector<double> BiotProblem::outflows(const std::vector<std::string>& lines) const {
   const Impl& m = *impl_;
-  require_line(m.mesh, line);
+  for (const auto& line : lines)
+    require_line(m.mesh, line);
+  std::vector<double> out(lines.size(), 0.0);
   if (!(m.time > 0.0))
-    return 0.0;
+    return out;
+  // The lines that hold a pressure now take their consistent flux from one
+  // residual over all of their dofs; the others their prescribed flux, if any.
   const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs,
                                          m.dof_handler, m.layout, m.time);
-  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k)
-    if (m.conditions.pressures[k].line.name == line &&
-        m.conditions.pressures[k].window.contains(m.time))
-      return m.reaction_outflow(sets[k]);
-  for (const auto& flux : m.conditions.fluxes)
-    if (flux.line.name == line && flux.window.contains(m.time))
-      return m.prescribed_outflow(flux);
-  return 0.0;
+  std::vector<const std::set<types::global_dof_index>*> held(lines.size(), nullptr);
+  std::set<types::global_dof_index> all;
+  for (std::size_t i = 0; i < lines.size(); ++i)
+    for (std::size_t k = 0; k < m.conditions.pressures.size() && !held[i]; ++k)
+      if (m.conditions.pressures[k].line.name == lines[i] &&
+          m.conditions.pressures[k].window.contains(m.time)) {
+        held[i] = &sets[k];
+        all.insert(sets[k].begin(), sets[k].end());
+      }
+  LA::MPI::Vector residual;
+  if (!all.empty())
+    m.storage_residual(m.time, m.effective_dt, all, residual);
+  std::vector<double> sums(lines.size(), 0.0);
+  for (std::size_t i = 0; i < lines.size(); ++i)
+    if (held[i])
+      for (const auto d : *held[i])
+        if (m.owned.is_element(d))
+          sums[i] += residual(d);
+  Utilities::MPI::sum(sums, m.comm, sums);
+  for (std::size_t i = 0; i < lines.size(); ++i) {
+    if (held[i]) {
+      out[i] = 0.0 - sums[i] / m.effective_dt; // no "-0"
+      continue;
+    }
+    for (const auto& flux : m.conditions.fluxes)
+      if (flux.line.name == lines[i] && flux.window.contains(m.time)) {
+        out[i] = m.prescribed_outflow(flux);
+        break;
+      }
+  }
+  return out;
 }
 
 BiotProblem::WaterExchange BiotProblem::water_exchange() const {

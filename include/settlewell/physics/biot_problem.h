@@ -66,6 +66,9 @@ public:
   /// residual of the storage equation at the prescribed dofs), not a derivative of
   /// heads. Collective.
   double outflow(const std::string& line) const;
+  /// outflow() of each line, from one evaluation of the storage residual (the
+  /// cost of one line for all of them). Collective.
+  std::vector<double> outflows(const std::vector<std::string>& lines) const;
 
   /// The water that crossed the model's boundaries and lines in the last step,
   /// m^3/s: the net outflow (out minus in) and the gross exchange (out plus in, each
