@@ -159,9 +159,9 @@ std::vector<double> BiotProblem::outflows(const std::vector<std::string>& lines)
         held[i] = &sets[k];
         all.insert(sets[k].begin(), sets[k].end());
       }
+  // Collective: every process takes part, also one with none of the dofs.
   LA::MPI::Vector residual;
-  if (!all.empty())
-    m.storage_residual(m.time, m.effective_dt, all, residual);
+  m.storage_residual(m.time, m.effective_dt, all, residual);
   std::vector<double> sums(lines.size(), 0.0);
   for (std::size_t i = 0; i < lines.size(); ++i)
     if (held[i])
