@@ -1,9 +1,8 @@
 #include "settlewell/materials/poroelastic.h"
 
-#include "settlewell/core/errors.h"
+#include "range_check.h"
 
 #include <cmath>
-#include <sstream>
 
 namespace settlewell {
 
@@ -40,15 +39,7 @@ double PoroelasticMaterial::consolidation_coefficient(double conductivity,
   return conductivity / (gamma_w * s1d);
 }
 
-namespace {
-void require(bool ok, const std::string& where, const std::string& what, double value) {
-  if (ok)
-    return;
-  std::ostringstream os;
-  os << where << ": " << what << " (got " << value << ")";
-  throw InputError(os.str());
-}
-} // namespace
+using materials_detail::require;
 
 void PoroelasticMaterial::validate(const std::string& where) const {
   require(std::isfinite(youngs_modulus) && youngs_modulus > 0.0, where,

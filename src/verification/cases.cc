@@ -54,6 +54,11 @@ const std::vector<VerificationCase>& all_cases() {
        "a long strip dug 0.05 m into level ground: undrained pore pressure and drained "
        "stress changes below it against the strip-load solution, as an unloading",
        run_strip_excavation},
+      {"cam-clay-paths",
+       "Modified Cam Clay at one point: undrained and drained triaxial compression "
+       "and one-dimensional loading and unloading of a soft clay, against the "
+       "model's closed forms and the e-log line",
+       run_cam_clay_paths},
   };
   return cases;
 }
