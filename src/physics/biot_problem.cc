@@ -35,6 +35,7 @@ std::vector<CellCoefficients> coefficients_by_region(const BiotSetup& setup,
     if (by_id.size() <= id)
       by_id.resize(id + 1);
     by_id[id] = CellCoefficients::from(found->second, setup.gamma_w);
+    by_id[id].skeleton_from_history = setup.clays.count(region) > 0;
   }
   return by_id;
 }
@@ -72,6 +73,7 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
   setup_dofs();
   build_storage_rows();
   choose_solver();
+  prepare_clays();
 }
 
 void BiotProblem::Impl::map_unit_weights() {
@@ -98,8 +100,11 @@ void BiotProblem::Impl::choose_solver() {
   const bool iterative = setup.solver == SolverChoice::iterative ||
                          (setup.solver == SolverChoice::automatic &&
                           dof_handler.n_dofs() > setup.direct_limit);
+  if (iterative && !setup.clays.empty())
+    throw InputError("a Cam Clay material needs the direct solver (numerics.solver = "
+                     "\"direct\"): its tangent is not symmetric");
   if (!iterative) {
-    solver = make_direct_solver(comm);
+    solver = make_direct_solver(comm, setup.clays.empty());
     set_row_signs();
     return;
   }
@@ -217,6 +222,8 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
     const CellCoefficients& c = coefficients[cell->material_id()];
     cell_matrix = 0.0;
     kernel.add_matrix(c, dt, cell_matrix);
+    if (c.skeleton_from_history)
+      add_clay_tangent(kernel, cell, cell_matrix);
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
     if (with_schur) {
       cell_matrix = 0.0;
@@ -320,6 +327,8 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     const Tensor<1, 2> b = conditions.body_force(cell->material_id(), t_new);
     if (b.norm() > 0.0)
       kernel.add_body_force(b, cell_rhs);
+    if (has_clay_points(cell))
+      add_clay_force(kernel, cell, cell_rhs);
     if (has_inhomogeneity(dofs)) {
       // Prescribed values enter the right-hand side through the cell matrix;
       // only cells that touch them need it.
@@ -367,8 +376,14 @@ StepReport BiotProblem::advance_to(double t_new) {
   // A drained surface may need several solves until the set of draining dofs
   // settles; without one, the loop runs once.
   constexpr unsigned int max_drain_rounds = 30;
+  const bool newton = !m.setup.clays.empty(); // the same on every process
+  if (newton)
+    m.step_start = m.solution;
   while (true) {
-    m.solve_step(t_new, dt_eff, new_geometry, report);
+    if (newton)
+      m.solve_newton_step(t_new, dt_eff, report);
+    else
+      m.solve_step(t_new, dt_eff, new_geometry, report);
     new_geometry = false;
     if (!m.update_draining(t_new, dt_eff))
       break;
@@ -377,6 +392,8 @@ StepReport BiotProblem::advance_to(double t_new) {
       break;
     }
   }
+  if (newton)
+    m.commit_clay_points();
   m.time = t_new;
   m.update_reported();
   return report;

@@ -189,6 +189,44 @@ struct BiotProblem::Impl {
   };
   std::vector<ReleasedCell> released;
 
+  // Clays with a stress history (clay_history.cc) and their Newton steps
+  // (newton_step.cc).
+  struct ClayPoint {
+    PlaneTensor start_stress{}; ///< the start state's effective stress
+    CamClayState committed, trial;
+    PlaneTangent tangent{};
+  };
+  /// The points of every owned clay cell and their start states (constructor).
+  void prepare_clays();
+  /// Trial states and tangents of every clay point for the strain from step_start
+  /// to solution. Returns how many yield, over all processes. Collective.
+  unsigned int update_clay_points();
+  /// The trial states become the committed ones (a step accepted).
+  void commit_clay_points();
+  bool has_clay_points(const DoFHandler<2>::active_cell_iterator& cell) const;
+  /// The clay cell's tangent block, added to its cell matrix.
+  void add_clay_tangent(CellKernel& kernel,
+                        const DoFHandler<2>::active_cell_iterator& cell,
+                        FullMatrix<double>& cell_matrix) const;
+  /// The clay cell's stress less its tangent's share, in the right-hand side.
+  void add_clay_force(CellKernel& kernel,
+                      const DoFHandler<2>::active_cell_iterator& cell,
+                      Vector<double>& cell_rhs) const;
+  struct FieldNorms {
+    double u = 0.0, p = 0.0;
+  };
+  /// The norms of b - K x in the displacement and the storage rows (after
+  /// assembly, before the solver's row signs). Collective.
+  FieldNorms newton_residual();
+  /// One step by Newton's method (replaces solve_step when there are clays).
+  void solve_newton_step(double t_new, double dt, StepReport& report);
+  std::vector<std::size_t> clay_offset; ///< by active cell index, into clay_points
+  std::vector<ClayPoint> clay_points;
+  std::vector<const ClaySkeleton*> clay_by_region; ///< by region id; null: elastic
+  LA::MPI::Vector step_start; ///< the solution at the step's start, with ghosts
+  LA::MPI::Vector displacement_mask, pressure_mask; ///< 1 on the field's owned dofs
+  FieldNorms largest_drive; ///< the largest residual at a step's start so far
+
   // Point springs, props (springs.cc).
   /// Finds the dof of every spring (collective; throws if its node is missing).
   void locate_springs();

@@ -93,11 +93,12 @@ void CellKernel::add_matrix(const CellCoefficients& c,
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);
     const double w = weight(fe_values_, q);
+    const bool elastic = !c.skeleton_from_history;
     for (unsigned int a = 0; a < u_dofs_.size(); ++a) {
       const unsigned int i = u_dofs_[a];
       const double lambda_div = c.lambda * divergence_[i] * w;
       const double two_mu = 2.0 * c.mu * w;
-      for (unsigned int b = 0; b <= a; ++b) {
+      for (unsigned int b = 0; elastic && b <= a; ++b) {
         const unsigned int j = u_dofs_[b];
         local_(i, j) += lambda_div * divergence_[j] +
                         two_mu * (strain_[i] * strain_[j] + hoop_[i] * hoop_[j]);
@@ -117,6 +118,61 @@ void CellKernel::add_matrix(const CellCoefficients& c,
     }
   }
   mirror_into(out);
+}
+
+namespace {
+/// (xx, yy, zz, xy) of a shape function's strain.
+PlaneTensor plane(const SymmetricTensor<2, 2>& e, double hoop) {
+  return {{e[0][0], e[1][1], hoop, e[0][1]}};
+}
+/// a : b with the shear counted twice.
+double contract(const PlaneTensor& a, const PlaneTensor& b) {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
+}
+} // namespace
+
+void CellKernel::strains(const Vector<double>& local, std::vector<PlaneTensor>& out) {
+  update_cell_values();
+  out.assign(fe_values_.n_quadrature_points, PlaneTensor{});
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    for (const unsigned int i : u_dofs_) {
+      const PlaneTensor e = plane(strain_[i], hoop_[i]);
+      for (unsigned int k = 0; k < 4; ++k)
+        out[q][k] += local(i) * e[k];
+    }
+  }
+}
+
+void CellKernel::add_tangent_block(const std::vector<PlaneTangent>& tangents,
+                                   FullMatrix<double>& out) {
+  update_cell_values();
+  std::vector<PlaneTensor> shape(u_dofs_.size()), stress(u_dofs_.size());
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    const double w = weight(fe_values_, q);
+    const PlaneTangent& d = tangents[q];
+    for (unsigned int b = 0; b < u_dofs_.size(); ++b) {
+      shape[b] = plane(strain_[u_dofs_[b]], hoop_[u_dofs_[b]]);
+      for (unsigned int r = 0; r < 4; ++r)
+        stress[b][r] = w * (d[r][0] * shape[b][0] + d[r][1] * shape[b][1] +
+                            d[r][2] * shape[b][2] + d[r][3] * shape[b][3]);
+    }
+    for (unsigned int a = 0; a < u_dofs_.size(); ++a)
+      for (unsigned int b = 0; b < u_dofs_.size(); ++b)
+        out(u_dofs_[a], u_dofs_[b]) += contract(shape[a], stress[b]);
+  }
+}
+
+void CellKernel::add_stress_force(const std::vector<PlaneTensor>& stresses,
+                                  Vector<double>& out) {
+  update_cell_values();
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    const double w = weight(fe_values_, q);
+    for (const unsigned int i : u_dofs_)
+      out(i) -= w * contract(plane(strain_[i], hoop_[i]), stresses[q]);
+  }
 }
 
 void CellKernel::mirror_into(FullMatrix<double>& out) const {

@@ -79,6 +79,10 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
 
 void BiotProblem::load_checkpoint(StateArchive& a) {
   Impl& m = *impl_;
+  if (!m.setup.clays.empty())
+    throw InputError("a run with a Cam Clay material cannot be resumed yet: its "
+                     "checkpoints do not keep the clay's stress history; run it again "
+                     "from the start");
   a.mark("biot problem");
   a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference& m.previous_dt& m
       .euler_steps_left;

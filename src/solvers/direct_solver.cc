@@ -10,15 +10,16 @@ namespace {
 
 class MumpsSolver final : public LinearSolver {
 public:
-  explicit MumpsSolver(MPI_Comm comm) {
+  MumpsSolver(MPI_Comm comm, bool symmetric) : symmetric_(symmetric) {
     petsc_check(KSPCreate(comm, &ksp_), "KSPCreate");
     petsc_check(KSPSetType(ksp_, KSPPREONLY), "KSPSetType");
     PC pc;
     petsc_check(KSPGetPC(ksp_, &pc), "KSPGetPC");
     // With its pressure rows negated the Biot system is symmetric: PETSc's
     // Cholesky with MUMPS is MUMPS's LDL^T with pivoting for indefinite
-    // matrices, with about half the factor entries and work of an LU.
-    petsc_check(PCSetType(pc, PCCHOLESKY), "PCSetType");
+    // matrices, with about half the factor entries and work of an LU. A clay's
+    // tangent is not symmetric: LU then.
+    petsc_check(PCSetType(pc, symmetric ? PCCHOLESKY : PCLU), "PCSetType");
     petsc_check(PCFactorSetMatSolverType(pc, MATSOLVERMUMPS), "PCFactorSetMatSolverType");
     petsc_check(KSPSetOptionsPrefix(ksp_, "settlewell_direct_"), "KSPSetOptionsPrefix");
     set_from_user_options(ksp_, comm);
@@ -38,7 +39,7 @@ public:
                 "or storage is positive)");
   }
 
-  bool wants_symmetric_form() const override { return true; }
+  bool wants_symmetric_form() const override { return symmetric_; }
 
   unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) override {
     petsc_check(KSPSolve(ksp_, rhs, solution), "the MUMPS solve");
@@ -51,13 +52,14 @@ public:
   }
 
 private:
+  bool symmetric_;
   KSP ksp_ = nullptr;
 };
 
 } // namespace
 
-std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm) {
-  return std::make_unique<MumpsSolver>(comm);
+std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm, bool symmetric) {
+  return std::make_unique<MumpsSolver>(comm, symmetric);
 }
 
 void scale_rows(LA::MPI::SparseMatrix& matrix, const LA::MPI::Vector& factors) {

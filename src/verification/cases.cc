@@ -59,6 +59,11 @@ const std::vector<VerificationCase>& all_cases() {
        "and one-dimensional loading and unloading of a soft clay, against the "
        "model's closed forms and the e-log line",
        run_cam_clay_paths},
+      {"cam-clay-column",
+       "a Cam Clay column whose heads fall 3 m at both faces: final settlement "
+       "against the e-log form, recompression and normally consolidated; Newton's "
+       "convergence",
+       run_cam_clay_column},
   };
   return cases;
 }

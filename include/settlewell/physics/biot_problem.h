@@ -25,6 +25,12 @@ struct StepReport {
   double assembly_seconds = 0.0;      ///< matrix (if new) and right-hand side
   double factorisation_seconds = 0.0; ///< solver set-up for a new matrix
   double solve_seconds = 0.0;
+  /// With a clay (Newton's method): the solves of the step, the points that were
+  /// yielding at its end, and the residual before each solve and at the end,
+  /// relative to the largest a step started with.
+  unsigned int newton_iterations = 0;
+  unsigned int yielding_points = 0;
+  std::vector<double> newton_residuals;
 };
 
 /// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, BDF2 in time

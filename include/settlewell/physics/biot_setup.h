@@ -3,6 +3,7 @@
 #include "settlewell/boundary/conditions.h"
 #include "settlewell/core/types.h"
 #include "settlewell/core/units.h"
+#include "settlewell/materials/cam_clay.h"
 #include "settlewell/materials/poroelastic.h"
 
 #include <deal.II/base/point.h>
@@ -53,6 +54,27 @@ struct GeostaticState {
   std::map<std::string, double> unit_weights;
 };
 
+/// A region whose skeleton follows Modified Cam Clay instead of linear elasticity.
+/// Its PoroelasticMaterial still gives the conductivity, storage and Biot
+/// coefficient; its E and nu' serve only as the stiffness the iterative solver's
+/// preconditioner assumes.
+struct ClaySkeleton {
+  CamClayParameters parameters;
+  /// The size p'c of the yield ellipse at a point of the start state, kPa, given the
+  /// start's effective stress there (tension positive).
+  std::function<double(const dealii::Point<2>&, const dealii::SymmetricTensor<2, 3>&)>
+      yield_size;
+};
+
+/// Newton's method for a step when some skeleton is nonlinear.
+struct NewtonSettings {
+  unsigned int max_iterations = 25;
+  /// Converged when each field's residual (the displacement rows and the storage
+  /// rows) has fallen below this fraction of the largest that a step's start
+  /// presented so far in the run.
+  double tolerance = 1e-8;
+};
+
 /// Everything the Biot core needs besides the mesh. Plain data, no parsing.
 struct BiotSetup {
   AnalysisType analysis = AnalysisType::plane_strain;
@@ -80,6 +102,10 @@ struct BiotSetup {
   /// pit's, gamma_w max(0, h_pit - y), water leaving where it would be higher and
   /// none entering where it is lower (decided by an active set each step).
   TimeFunction pit_water_head;
+  /// Regions (by name) with a Cam Clay skeleton; they need `geostatic` (the start
+  /// stress). Their steps are solved by Newton's method.
+  std::map<std::string, ClaySkeleton> clays;
+  NewtonSettings newton;
   /// Props and other point supports, fitted at their `from` times.
   std::vector<PointSpring> springs;
 

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "settlewell/core/linear_algebra.h"
+#include "settlewell/materials/cam_clay.h"
 #include "settlewell/physics/biot_setup.h"
 #include "settlewell/physics/field_layout.h"
 
@@ -22,6 +23,10 @@ struct CellCoefficients {
   double alpha = 1.0;            ///< Biot coefficient
   double storage = 0.0;          ///< 1/kPa
   dealii::Tensor<2, 2> mobility; ///< k / gamma_w, m^4/(kN s)
+  /// The skeleton's stiffness comes from a stress history (a clay), not from
+  /// lambda and mu: add_matrix leaves the displacement block out, and
+  /// add_tangent_block adds it from a tangent per quadrature point.
+  bool skeleton_from_history = false;
 
   static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
 };
@@ -45,6 +50,23 @@ public:
   unsigned int dofs_per_cell() const { return fe_values_.dofs_per_cell; }
 
   void add_matrix(const CellCoefficients& c, double dt, dealii::FullMatrix<double>& out);
+  unsigned int n_quadrature_points() const { return fe_values_.n_quadrature_points; }
+  const std::vector<dealii::Point<2>>& quadrature_points() {
+    update_cell_values();
+    return fe_values_.get_quadrature_points();
+  }
+  /// The strain (xx, yy, zz, xy; zz the hoop strain u_r/r in axisymmetric, 0 in
+  /// plane strain) of the displacement in `local` (the cell's dof values) at each
+  /// quadrature point.
+  void strains(const dealii::Vector<double>& local, std::vector<PlaneTensor>& out);
+  /// The displacement block of a skeleton with a tangent D per quadrature point:
+  /// the integral of eps(v_i) : D eps(v_j) (in general not symmetric).
+  void add_tangent_block(const std::vector<PlaneTangent>& tangents,
+                         dealii::FullMatrix<double>& out);
+  /// Minus the internal force of a stress tau per quadrature point, -integral of
+  /// eps(v_i) : tau, in the displacement rows.
+  void add_stress_force(const std::vector<PlaneTensor>& stresses,
+                        dealii::Vector<double>& out);
   /// The fixed-stress approximation of the Schur complement in the p-p entries:
   /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
   /// drained plane bulk modulus lambda + mu.

@@ -31,10 +31,11 @@ public:
   virtual bool wants_symmetric_form() const { return false; }
 };
 
-/// Sparse direct symmetric-indefinite (LDL^T) factorisation by MUMPS through
-/// PETSc, in serial and in parallel; it takes the symmetric form of the system.
-/// Extra PETSc options may be given with the prefix `settlewell_direct_`.
-std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm);
+/// Sparse direct factorisation by MUMPS through PETSc, in serial and in parallel:
+/// symmetric-indefinite (LDL^T) of the symmetric form of the system, or LU when
+/// the system is not symmetric (a clay's tangent). Extra PETSc options may be
+/// given with the prefix `settlewell_direct_`.
+std::unique_ptr<LinearSolver> make_direct_solver(MPI_Comm comm, bool symmetric = true);
 
 /// FGMRES with a block upper-triangular (Schur) preconditioner, PETSc's field
 /// split: CG preconditioned by hypre BoomerAMG to a loose tolerance (0.1) on the

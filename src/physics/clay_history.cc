@@ -1,0 +1,144 @@
+// Clays with a stress history (Modified Cam Clay): the state of every quadrature
+// point of their cells, its update from the current iterate, and the terms that
+// Newton's method adds to the cell integrals. The unknowns stay the changes from
+// the start; the material sees the absolute stress, the start state included.
+#include "biot_problem_impl.h"
+
+#include "settlewell/core/errors.h"
+
+#include <limits>
+
+namespace settlewell {
+
+namespace {
+constexpr std::size_t no_points = std::numeric_limits<std::size_t>::max();
+
+PlaneTensor plane(const SymmetricTensor<2, 3>& s) {
+  return {{s[0][0], s[1][1], s[2][2], s[0][1]}};
+}
+
+/// The yield size of the ellipse through a stress, kPa: a start state outside
+/// the ellipse the preconsolidation gives is taken as on its own surface.
+double ellipse_through(const PlaneTensor& stress, double m) {
+  const double p = mean_effective_stress(stress);
+  const double q = deviator_stress(stress);
+  return p + q * q / (m * m * p);
+}
+} // namespace
+
+void BiotProblem::Impl::prepare_clays() {
+  if (setup.clays.empty())
+    return;
+  if (!setup.geostatic.effective_stress)
+    throw InternalError("a Cam Clay skeleton needs the start state's effective stress");
+  if (setup.gravity_loading || !setup.excavation.empty() || setup.rigid_skeleton)
+    throw InternalError("a Cam Clay skeleton does not yet combine with gravity "
+                        "loading, excavation or a rigid skeleton");
+  clay_by_region.assign(coefficients.size(), nullptr);
+  for (const auto& [region, clay] : setup.clays) {
+    clay.parameters.validate("the Cam Clay parameters of region '" + region + "'");
+    clay_by_region.at(mesh.names.region_id(region)) = &clay;
+  }
+  clay_offset.assign(mesh.triangulation->n_active_cells(), no_points);
+  CellKernel kernel(layout, setup.analysis, mapping);
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    const ClaySkeleton* clay = clay_by_region[cell->material_id()];
+    if (!cell->is_locally_owned() || clay == nullptr)
+      continue;
+    kernel.reinit(cell);
+    clay_offset[cell->active_cell_index()] = clay_points.size();
+    for (const Point<2>& x : kernel.quadrature_points()) {
+      const auto start = setup.geostatic.effective_stress(x, cell->material_id());
+      ClayPoint point;
+      point.start_stress = plane(start);
+      if (!(mean_effective_stress(point.start_stress) > 0.0))
+        throw InputError("the Cam Clay region '" +
+                         mesh.names.region_name(cell->material_id()) +
+                         "' has no compressive effective stress at (" +
+                         std::to_string(x[0]) + ", " + std::to_string(x[1]) +
+                         ") m at the start");
+      const double m = clay->parameters.critical_state_slope;
+      point.committed = {point.start_stress,
+                         std::max(clay->yield_size(x, start),
+                                  ellipse_through(point.start_stress, m))};
+      const auto start_update =
+          cam_clay_update(clay->parameters, point.committed, PlaneTensor{});
+      point.trial = point.committed;
+      point.tangent = start_update.tangent;
+      clay_points.push_back(point);
+    }
+  }
+  step_start.reinit(owned, relevant, comm);
+}
+
+unsigned int BiotProblem::Impl::update_clay_points() {
+  CellKernel kernel(layout, setup.analysis, mapping);
+  Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
+  std::vector<PlaneTensor> strain_now, strain_before;
+  unsigned int yielding = 0;
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned() || clay_offset[cell->active_cell_index()] == no_points)
+      continue;
+    const ClaySkeleton& clay = *clay_by_region[cell->material_id()];
+    kernel.reinit(cell);
+    cell->get_dof_values(solution, now);
+    cell->get_dof_values(step_start, before);
+    kernel.strains(now, strain_now);
+    kernel.strains(before, strain_before);
+    ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
+    for (unsigned int q = 0; q < strain_now.size(); ++q, ++point) {
+      PlaneTensor increment;
+      for (unsigned int k = 0; k < 4; ++k)
+        increment[k] = strain_now[q][k] - strain_before[q][k];
+      const auto u = cam_clay_update(clay.parameters, point->committed, increment);
+      point->trial = u.state;
+      point->tangent = u.tangent;
+      yielding += u.yielded;
+    }
+  }
+  return Utilities::MPI::sum(yielding, comm);
+}
+
+void BiotProblem::Impl::commit_clay_points() {
+  for (auto& point : clay_points)
+    point.committed = point.trial;
+}
+
+void BiotProblem::Impl::add_clay_tangent(CellKernel& kernel,
+                                         const DoFHandler<2>::active_cell_iterator& cell,
+                                         FullMatrix<double>& cell_matrix) const {
+  const std::size_t first = clay_offset[cell->active_cell_index()];
+  std::vector<PlaneTangent> tangents(kernel.n_quadrature_points());
+  for (unsigned int q = 0; q < tangents.size(); ++q)
+    tangents[q] = clay_points[first + q].tangent;
+  kernel.add_tangent_block(tangents, cell_matrix);
+}
+
+void BiotProblem::Impl::add_clay_force(CellKernel& kernel,
+                                       const DoFHandler<2>::active_cell_iterator& cell,
+                                       Vector<double>& cell_rhs) const {
+  // Newton's step K_k x_{k+1} = F - (f_int(u_k) - A_k u_k): the tangent block
+  // A_k is in the matrix, so the right-hand side takes minus the internal force of
+  // tau = (sigma'_k - sigma'_0) - D_k eps(u_k) at each point.
+  Vector<double> now(kernel.dofs_per_cell());
+  cell->get_dof_values(solution, now);
+  std::vector<PlaneTensor> strain;
+  kernel.strains(now, strain);
+  const ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
+  std::vector<PlaneTensor> tau(strain.size());
+  for (unsigned int q = 0; q < strain.size(); ++q, ++point)
+    for (unsigned int r = 0; r < 4; ++r) {
+      double tangent_stress = 0.0;
+      for (unsigned int k = 0; k < 4; ++k)
+        tangent_stress += point->tangent[r][k] * strain[q][k];
+      tau[q][r] = point->trial.stress[r] - point->start_stress[r] - tangent_stress;
+    }
+  kernel.add_stress_force(tau, cell_rhs);
+}
+
+bool BiotProblem::Impl::has_clay_points(
+    const DoFHandler<2>::active_cell_iterator& cell) const {
+  return !clay_offset.empty() && clay_offset[cell->active_cell_index()] != no_points;
+}
+
+} // namespace settlewell
