@@ -4,6 +4,8 @@
 #include "settlewell/analytical/roots.h"
 
 #include <cmath>
+#include <tuple>
+#include <utility>
 
 namespace settlewell::checks {
 
@@ -23,6 +25,41 @@ double face_fall(const std::vector<ColumnLayer>& layers, std::size_t k, bool top
   return k + 1 < layers.size() ? layers[k + 1].head_fall : 0.0;
 }
 
+/// A layer's ultimate settlement for a final head fall varying linearly from
+/// `fall_top` at its top to `fall_bottom` at its bottom (m), and its cv (m^2/s):
+/// mv and the given cv, or the e-log form (Simpson's rule on 20 slices) and the
+/// cv of its secant mv.
+std::pair<double, double> layer_settlement(const ColumnLayer& l,
+                                           double fall_top,
+                                           double fall_bottom,
+                                           double gamma_w) {
+  const double h = l.top - l.bottom;
+  const double mean_fall = 0.5 * (fall_top + fall_bottom);
+  if (!l.oedometer)
+    return {l.mv * gamma_w * mean_fall * h, l.cv};
+  const auto& o = *l.oedometer;
+  constexpr int slices = 20;
+  double sum = 0.0;
+  for (int i = 0; i <= slices; ++i) {
+    const double f = double(i) / slices; // 0 at the top
+    const double strain =
+        elog_strain(o, o.start_top + f * (o.start_bottom - o.start_top),
+                    o.past_top + f * (o.past_bottom - o.past_top),
+                    gamma_w * (fall_top + f * (fall_bottom - fall_top)));
+    sum += strain * (i == 0 || i == slices ? 1.0 : (i % 2 == 1 ? 4.0 : 2.0));
+  }
+  const double settlement = sum * h / (3.0 * slices);
+  // The secant mv of the increment; without one, the recompression mv at the
+  // layer's middle.
+  const double mid = 0.5 * (o.start_top + o.start_bottom);
+  const double mv =
+      std::abs(mean_fall) > 1e-9 && settlement != 0.0
+          ? settlement / (gamma_w * mean_fall * h)
+          : o.recompression_index / (std::log(10.0) * (1.0 + o.void_ratio) * mid);
+  const double k = l.conductivity > 0.0 ? l.conductivity : l.cv * gamma_w * l.mv;
+  return {settlement, k / (gamma_w * mv)};
+}
+
 /// The estimates of the consolidating layers first..last (one sequence).
 void consolidating_sequence(const std::vector<ColumnLayer>& layers,
                             std::size_t first,
@@ -35,33 +72,56 @@ void consolidating_sequence(const std::vector<ColumnLayer>& layers,
   const int faces = int(top_drained) + int(bottom_drained);
   const double fall_top = face_fall(layers, first, true);
   const double fall_bottom = face_fall(layers, last, false);
-  double total_resistance = 0.0, time_scale = 0.0; // sum H/k, sum H/sqrt(cv)
-  for (std::size_t k = first; k <= last; ++k) {
+  double total_resistance = 0.0; // sum H/k
+  for (std::size_t k = first; k <= last; ++k)
     total_resistance += resistance(layers[k]);
-    time_scale += (layers[k].top - layers[k].bottom) / std::sqrt(layers[k].cv);
-  }
-  double above = 0.0; // resistance above the current layer
+  const std::size_t begin = out.size();
+  double above = 0.0, time_scale = 0.0; // resistance above the layer; sum H/sqrt(cv)
   for (std::size_t k = first; k <= last; ++k) {
     const ColumnLayer& l = layers[k];
     LayerEstimate e{l.name, true, 0.0, 0.0, faces, 0.0, 0.0, l.cv};
-    const double share = (above + 0.5 * resistance(l)) / total_resistance;
+    const double at_top = above / total_resistance;
     above += resistance(l);
-    if (faces == 0) {
-      out.push_back(e);
-      continue;
+    const double at_bottom = above / total_resistance;
+    if (faces == 2) {
+      std::tie(e.settlement, e.cv) =
+          layer_settlement(l, fall_top + (fall_bottom - fall_top) * at_top,
+                           fall_top + (fall_bottom - fall_top) * at_bottom, gamma_w);
+    } else if (faces == 1) {
+      const double fall = top_drained ? fall_top : fall_bottom;
+      std::tie(e.settlement, e.cv) = layer_settlement(l, fall, fall, gamma_w);
     }
-    const double mean_fall = faces == 2 ? fall_top + (fall_bottom - fall_top) * share
-                                        : (top_drained ? fall_top : fall_bottom);
-    e.settlement = l.mv * gamma_w * mean_fall * (l.top - l.bottom);
-    const double sequence = time_scale * std::sqrt(l.cv); // in this layer's cv, m
-    e.drainage_path = faces == 2 ? sequence / 2 : sequence;
-    e.t50 = 0.197 * e.drainage_path * e.drainage_path / l.cv;
-    e.t90 = 0.848 * e.drainage_path * e.drainage_path / l.cv;
+    time_scale += (l.top - l.bottom) / std::sqrt(e.cv);
     out.push_back(e);
+  }
+  for (std::size_t i = begin; faces > 0 && i < out.size(); ++i) {
+    LayerEstimate& e = out[i];
+    const double sequence = time_scale * std::sqrt(e.cv); // in this layer's cv, m
+    e.drainage_path = faces == 2 ? sequence / 2 : sequence;
+    e.t50 = 0.197 * e.drainage_path * e.drainage_path / e.cv;
+    e.t90 = 0.848 * e.drainage_path * e.drainage_path / e.cv;
   }
 }
 
 } // namespace
+
+double elog_strain(const ColumnLayer::Oedometer& clay,
+                   double start,
+                   double past,
+                   double change) {
+  const double final_stress = start + change;
+  if (!(start > 0.0 && final_stress > 0.0))
+    return 0.0; // no effective stress to compress: outside the e-log form
+  const double cr = clay.recompression_index, cc = clay.compression_index;
+  double e; // change of void ratio, positive in compression
+  if (change <= 0.0 || final_stress <= past)
+    e = cr * std::log10(final_stress / start);
+  else if (start >= past)
+    e = cc * std::log10(final_stress / start);
+  else
+    e = cr * std::log10(past / start) + cc * std::log10(final_stress / past);
+  return e / (1.0 + clay.void_ratio);
+}
 
 OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
                             double gamma_w,
@@ -78,9 +138,8 @@ OneDEstimate estimate_one_d(const std::vector<ColumnLayer>& layers,
       continue;
     }
     // A draining layer compresses as its head falls.
-    out.layers.push_back({l.name, false,
-                          l.mv * gamma_w * l.head_fall * (l.top - l.bottom), 0.0, 0, 0.0,
-                          0.0, l.cv});
+    const auto [settlement, cv] = layer_settlement(l, l.head_fall, l.head_fall, gamma_w);
+    out.layers.push_back({l.name, false, settlement, 0.0, 0, 0.0, 0.0, cv});
   }
   for (const auto& e : out.layers)
     out.ultimate += e.settlement;

@@ -542,6 +542,16 @@ std::map<std::string, BoundarySpec> boundary_roles(const Scenario& s, const Mesh
   return roles;
 }
 
+namespace {
+/// The clay's yield ellipse from its preconsolidation: sigma'p reached
+/// one-dimensionally with K0nc = 1 - sin phi'cs (Jaky 1944).
+ClaySkeleton clay_skeleton(const scenario::Material::CamClay& clay) {
+  return {clay.parameters,
+          [clay](double vertical_start) { return clay.preconsolidation(vertical_start); },
+          1.0 - std::sin(clay.friction_angle * units::pi / 180.0)};
+}
+} // namespace
+
 Model build_model(const Scenario& s,
                   const Mesh& mesh,
                   const InitialState& initial,
@@ -554,6 +564,8 @@ Model build_model(const Scenario& s,
   for (const auto& [region, material] : region_materials(s, mesh)) {
     setup.materials[region] = s.materials.at(material).poroelastic;
     setup.geostatic.unit_weights[region] = s.materials.at(material).unit_weight;
+    if (const auto& clay = s.materials.at(material).cam_clay)
+      setup.clays[region] = clay_skeleton(*clay);
   }
   setup.geostatic.effective_stress = [&initial](const Point<2>& x, types::material_id r) {
     return initial.start_effective_stress(x, r);
@@ -561,6 +573,8 @@ Model build_model(const Scenario& s,
   setup.gravity_loading = s.gravity_loading;
   setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
   setup.solver = s.numerics.solver;
+  if (!setup.clays.empty() && setup.solver == SolverChoice::automatic)
+    setup.solver = SolverChoice::direct; // a clay's tangent is not symmetric
   setup.solver_tolerance = s.numerics.tolerance;
   const auto roles = boundary_roles(s, mesh);
   const auto items = hydraulic_items(s, mesh, initial, roles, model.pumped);

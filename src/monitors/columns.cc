@@ -159,6 +159,30 @@ void write_history(const std::string& folder, const ColumnComparison& c, MPI_Com
 
 } // namespace
 
+namespace {
+/// The e-log description of a Cam Clay layer at the column: its indices, and the
+/// start's vertical effective stress and the preconsolidation at its faces.
+std::optional<checks::ColumnLayer::Oedometer>
+oedometer(const RunContext& run, double x, const StackLayer& layer) {
+  const auto found = run.problem.setup().clays.find(layer.region);
+  if (found == run.problem.setup().clays.end())
+    return std::nullopt;
+  const auto& clay = found->second;
+  const double ln10 = std::log(10.0);
+  checks::ColumnLayer::Oedometer o;
+  o.compression_index = clay.parameters.lambda * ln10;
+  o.recompression_index = clay.parameters.kappa * ln10;
+  o.void_ratio = clay.parameters.specific_volume - 1.0;
+  const auto id = run.problem.mesh().names.region_id(layer.region);
+  const auto& start = run.derivation.initial().effective_stress;
+  o.start_top = -start(Point<2>(x, layer.top), id)[1][1];
+  o.start_bottom = -start(Point<2>(x, layer.bottom), id)[1][1];
+  o.past_top = clay.preconsolidation(o.start_top);
+  o.past_bottom = clay.preconsolidation(o.start_bottom);
+  return o;
+}
+} // namespace
+
 Columns::Columns(const RunContext& run)
     : scenario_(run.scenario)
     , materials_(run.problem.setup().materials) {
@@ -177,6 +201,8 @@ Columns::Columns(const RunContext& run)
         role != roles.end() &&
         role->second.hydraulic == scenario::BoundarySpec::Hydraulic::fixed_head;
     cc.layers = stack.layers;
+    for (const auto& l : stack.layers)
+      cc.oedometers.push_back(oedometer(run, c.x, l));
     columns_.push_back(cc);
     tops_.emplace_back(run.problem,
                        std::vector<Point<2>>{Point<2>(c.x, stack.layers.front().top)},
@@ -255,15 +281,15 @@ std::vector<checks::ColumnLayer> Columns::column_layers(const ColumnComparison& 
   std::vector<checks::ColumnLayer> out;
   for (const auto& l : c.layers) {
     const auto& m = materials_.at(l.region);
-    checks::ColumnLayer layer{
-        l.region,
-        l.top,
-        l.bottom,
-        1.0 / m.constrained_modulus(),
-        m.consolidation_coefficient(m.conductivity_y, scenario_.gamma_w),
-        m.conductivity_y <= scenario_.limits.low_permeability,
-        0.0};
+    checks::ColumnLayer layer;
+    layer.name = l.region;
+    layer.top = l.top;
+    layer.bottom = l.bottom;
+    layer.mv = 1.0 / m.constrained_modulus();
+    layer.cv = m.consolidation_coefficient(m.conductivity_y, scenario_.gamma_w);
+    layer.consolidating = m.conductivity_y <= scenario_.limits.low_permeability;
     layer.conductivity = m.conductivity_y;
+    layer.oedometer = c.oedometers[out.size()];
     out.push_back(layer);
   }
   return out;

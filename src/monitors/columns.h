@@ -19,7 +19,9 @@ struct ColumnComparison {
   bool design_known = false;
   bool surface_drained = false;   ///< the boundary at the column's top holds a head
   std::vector<StackLayer> layers; ///< the regions the column crosses, top down
-  double ramp = 0.0;              ///< s, of the stage that lowers the heads
+  /// Per layer: a Cam Clay layer's oedometer description (its e-log estimate).
+  std::vector<std::optional<checks::ColumnLayer::Oedometer>> oedometers;
+  double ramp = 0.0;                        ///< s, of the stage that lowers the heads
   std::vector<double> times, settlement_2d; ///< every step
   std::vector<std::string> notes;
 };

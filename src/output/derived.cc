@@ -29,7 +29,8 @@ InitialFields InitialFields::from_setup(const BiotSetup& setup) {
 }
 
 Derivation::Derivation(const BiotProblem& problem, InitialFields initial)
-    : initial_(std::move(initial))
+    : problem_(problem)
+    , initial_(std::move(initial))
     , gamma_w_(problem.setup().gamma_w)
     , axisymmetric_(problem.setup().analysis == AnalysisType::axisymmetric) {
   const auto& names = problem.mesh().names;
@@ -39,6 +40,36 @@ Derivation::Derivation(const BiotProblem& problem, InitialFields initial)
       materials_.resize(id + 1);
     materials_[id] = problem.setup().materials.at(region);
   }
+}
+
+namespace {
+void set_stress(DerivedState& d, const SymmetricTensor<2, 3>& stress) {
+  d.effective_stress = stress;
+  d.mean_effective_stress = -trace(stress) / 3.0;
+  const SymmetricTensor<2, 3> s = deviator(stress);
+  d.deviator_stress = std::sqrt(1.5 * (s * s));
+  d.vertical_effective_stress = -stress[1][1];
+}
+} // namespace
+
+DerivedState Derivation::at(const Point<2>& x,
+                            const DoFHandler<2>::active_cell_iterator& cell,
+                            const Vector<double>& v,
+                            const std::vector<Tensor<1, 2>>& grad) const {
+  DerivedState d = at(x, cell->material_id(), v, grad);
+  if (!problem_.has_clays() || !cell->is_locally_owned())
+    return d;
+  if (const auto clay = problem_.clay_cell_state(cell->active_cell_index())) {
+    SymmetricTensor<2, 3> stress;
+    stress[0][0] = clay->stress[0];
+    stress[1][1] = clay->stress[1];
+    stress[2][2] = clay->stress[2];
+    stress[0][1] = clay->stress[3];
+    set_stress(d, stress);
+    d.yield_size = clay->yield_size;
+    d.yield_ratio = clay->yield_ratio;
+  }
+  return d;
 }
 
 DerivedState Derivation::at(const Point<2>& x,
@@ -64,11 +95,7 @@ DerivedState Derivation::at(const Point<2>& x,
   const SymmetricTensor<2, 3> change =
       m.lame_lambda() * d.volumetric_strain * unit_symmetric_tensor<3>() +
       2.0 * m.shear_modulus() * strain;
-  d.effective_stress = initial_.effective_stress(x, region) + change;
-  d.mean_effective_stress = -trace(d.effective_stress) / 3.0;
-  const SymmetricTensor<2, 3> s = deviator(d.effective_stress);
-  d.deviator_stress = std::sqrt(1.5 * (s * s));
-  d.vertical_effective_stress = -d.effective_stress[1][1];
+  set_stress(d, initial_.effective_stress(x, region) + change);
 
   const Tensor<1, 2> head_gradient =
       initial_.head_gradient(x) + grad[FieldLayout::pressure] / gamma_w_;

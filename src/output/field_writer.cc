@@ -33,7 +33,7 @@ std::string number(unsigned int n, unsigned int digits) {
 class DerivedFields : public DataPostprocessor<2> {
 public:
   enum class Part { all, movement, state };
-  DerivedFields(const Derivation& derivation, Part part)
+  DerivedFields(const Derivation& derivation, Part part, bool clays)
       : derivation_(derivation) {
     using namespace DataComponentInterpretation;
     const std::vector<Field> fields{
@@ -73,18 +73,27 @@ public:
         {"effective_stress", "kPa, absolute, tension positive", false,
          component_is_part_of_tensor,
          [](const DerivedState& d) { return d.effective_stress[1][1]; }}};
-    for (const auto& f : fields)
-      if (part == Part::all || (part == Part::movement) == f.movement)
-        fields_.push_back(f);
+    const std::vector<Field> clay_fields{
+        {"yield_size", "kPa, p'c of the Cam Clay yield ellipse, mean over the cell",
+         false, component_is_scalar, [](const DerivedState& d) { return d.yield_size; }},
+        {"yield_ratio",
+         "-, p'c over the ellipse through the stress: 1 yielding, above 1 inside, "
+         "mean over the cell",
+         false, component_is_scalar,
+         [](const DerivedState& d) { return d.yield_ratio; }}};
+    for (const auto* list : {&fields, &clay_fields})
+      for (const auto& f : *list)
+        if ((list == &fields || clays) &&
+            (part == Part::all || (part == Part::movement) == f.movement))
+          fields_.push_back(f);
   }
 
   void evaluate_vector_field(const DataPostprocessorInputs::Vector<2>& in,
                              std::vector<Vector<double>>& out) const override {
     const auto cell = in.template get_cell<2>();
     for (unsigned int q = 0; q < in.solution_values.size(); ++q) {
-      const DerivedState d =
-          derivation_.at(in.evaluation_points[q], cell->material_id(),
-                         in.solution_values[q], in.solution_gradients[q]);
+      const DerivedState d = derivation_.at(
+          in.evaluation_points[q], cell, in.solution_values[q], in.solution_gradients[q]);
       for (unsigned int c = 0; c < fields_.size(); ++c)
         out[q][c] = fields_[c].value(d);
     }
@@ -224,8 +233,10 @@ std::string FieldWriter::write(const BiotProblem& problem) {
       problem, initial_ ? *initial_ : InitialFields::from_setup(problem.setup()));
   using Part = DerivedFields::Part;
   const bool one_vector = &moved == &problem.solution();
-  const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement),
-      state(derivation, Part::state);
+  const bool clays = problem.has_clays();
+  const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement,
+                               clays),
+      state(derivation, Part::state, clays);
   data_out.add_data_vector(moved, movement);
   if (!one_vector)
     data_out.add_data_vector(problem.solution(), state);

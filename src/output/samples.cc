@@ -83,7 +83,7 @@ S sample_at(const BiotProblem& problem,
   fv.get_function_values(problem.solution(), values);
   fv.get_function_gradients(problem.solution(), gradients);
   const DerivedState d =
-      derivation.at(fv.quadrature_point(0), cell->material_id(), values[0], gradients[0]);
+      derivation.at(fv.quadrature_point(0), cell, values[0], gradients[0]);
   if (&problem.reported_solution() != &problem.solution())
     fv.get_function_values(problem.reported_solution(), values);
   return {values[0][FieldLayout::ux],

@@ -192,7 +192,8 @@ struct BiotProblem::Impl {
   // Clays with a stress history (clay_history.cc) and their Newton steps
   // (newton_step.cc).
   struct ClayPoint {
-    PlaneTensor start_stress{}; ///< the start state's effective stress
+    const CamClayParameters* parameters = nullptr; ///< in setup.clays
+    PlaneTensor start_stress{};                    ///< the start state's effective stress
     CamClayState committed, trial;
     PlaneTangent tangent{};
   };
@@ -222,6 +223,7 @@ struct BiotProblem::Impl {
   void solve_newton_step(double t_new, double dt, StepReport& report);
   std::vector<std::size_t> clay_offset; ///< by active cell index, into clay_points
   std::vector<ClayPoint> clay_points;
+  unsigned int clay_points_per_cell = 0;
   std::vector<const ClaySkeleton*> clay_by_region; ///< by region id; null: elastic
   LA::MPI::Vector step_start; ///< the solution at the step's start, with ghosts
   LA::MPI::Vector displacement_mask, pressure_mask; ///< 1 on the field's owned dofs

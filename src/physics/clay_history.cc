@@ -47,20 +47,21 @@ void BiotProblem::Impl::prepare_clays() {
       continue;
     kernel.reinit(cell);
     clay_offset[cell->active_cell_index()] = clay_points.size();
+    clay_points_per_cell = kernel.n_quadrature_points();
     for (const Point<2>& x : kernel.quadrature_points()) {
       const auto start = setup.geostatic.effective_stress(x, cell->material_id());
       ClayPoint point;
+      point.parameters = &clay->parameters;
       point.start_stress = plane(start);
       if (!(mean_effective_stress(point.start_stress) > 0.0))
-        throw InputError("the Cam Clay region '" +
-                         mesh.names.region_name(cell->material_id()) +
-                         "' has no compressive effective stress at (" +
-                         std::to_string(x[0]) + ", " + std::to_string(x[1]) +
-                         ") m at the start");
+        throw InputError(
+            "the Cam Clay region '" + mesh.names.region_name(cell->material_id()) +
+            "' has no compressive effective stress at (" + std::to_string(x[0]) + ", " +
+            std::to_string(x[1]) + ") m at the start");
       const double m = clay->parameters.critical_state_slope;
-      point.committed = {point.start_stress,
-                         std::max(clay->yield_size(x, start),
-                                  ellipse_through(point.start_stress, m))};
+      point.committed = {
+          point.start_stress,
+          std::max(clay->yield_size(start), ellipse_through(point.start_stress, m))};
       const auto start_update =
           cam_clay_update(clay->parameters, point.committed, PlaneTensor{});
       point.trial = point.committed;
@@ -79,7 +80,6 @@ unsigned int BiotProblem::Impl::update_clay_points() {
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || clay_offset[cell->active_cell_index()] == no_points)
       continue;
-    const ClaySkeleton& clay = *clay_by_region[cell->material_id()];
     kernel.reinit(cell);
     cell->get_dof_values(solution, now);
     cell->get_dof_values(step_start, before);
@@ -90,7 +90,7 @@ unsigned int BiotProblem::Impl::update_clay_points() {
       PlaneTensor increment;
       for (unsigned int k = 0; k < 4; ++k)
         increment[k] = strain_now[q][k] - strain_before[q][k];
-      const auto u = cam_clay_update(clay.parameters, point->committed, increment);
+      const auto u = cam_clay_update(*point->parameters, point->committed, increment);
       point->trial = u.state;
       point->tangent = u.tangent;
       yielding += u.yielded;
@@ -134,6 +134,34 @@ void BiotProblem::Impl::add_clay_force(CellKernel& kernel,
       tau[q][r] = point->trial.stress[r] - point->start_stress[r] - tangent_stress;
     }
   kernel.add_stress_force(tau, cell_rhs);
+}
+
+std::optional<BiotProblem::ClayCellState>
+BiotProblem::clay_cell_state(unsigned int active_cell_index) const {
+  const Impl& m = *impl_;
+  if (m.clay_offset.empty() || m.clay_offset[active_cell_index] == no_points)
+    return std::nullopt;
+  const std::size_t first = m.clay_offset[active_cell_index];
+  const std::size_t end = first + m.clay_points_per_cell;
+  ClayCellState mean;
+  for (std::size_t i = first; i < end; ++i) {
+    const CamClayState& c = m.clay_points[i].committed;
+    const double slope = m.clay_points[i].parameters->critical_state_slope;
+    for (unsigned int k = 0; k < 4; ++k)
+      mean.stress[k] += c.stress[k];
+    mean.yield_size += c.yield_size;
+    mean.yield_ratio += c.yield_size / ellipse_through(c.stress, slope);
+  }
+  const double n = static_cast<double>(end - first);
+  for (auto& v : mean.stress)
+    v /= n;
+  mean.yield_size /= n;
+  mean.yield_ratio /= n;
+  return mean;
+}
+
+bool BiotProblem::has_clays() const {
+  return !impl_->setup.clays.empty();
 }
 
 bool BiotProblem::Impl::has_clay_points(

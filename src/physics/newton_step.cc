@@ -13,7 +13,8 @@ namespace settlewell {
 
 namespace {
 /// `v` with the entries outside `mask` (0/1 per owned dof) set to zero, its norm.
-double masked_norm(const LA::MPI::Vector& v, const LA::MPI::Vector& mask,
+double masked_norm(const LA::MPI::Vector& v,
+                   const LA::MPI::Vector& mask,
                    LA::MPI::Vector& scratch) {
   scratch = v;
   scratch.scale(mask);

@@ -48,6 +48,18 @@ std::vector<std::string> Scenario::boundary_parts_parents_first() const {
   return ordered;
 }
 
+double Material::CamClay::preconsolidation(double vertical_start) const {
+  switch (past) {
+  case Past::pressure:
+    return past_value;
+  case Past::ocr:
+    return past_value * vertical_start;
+  case Past::pop:
+    break;
+  }
+  return vertical_start + past_value;
+}
+
 std::string Scenario::location_of(const std::string& key_path) const {
   const auto found = locations.find(key_path);
   return found != locations.end() ? found->second : source_path;
@@ -68,6 +80,67 @@ double conductivity(const TableReader& r, const std::string& key) {
   return r.within(key, tightest, most_permeable, "m/s", material_bounds);
 }
 
+const char* const clay_keys[] = {"compression_index",
+                                 "recompression_index",
+                                 "void_ratio",
+                                 "friction_angle_cs",
+                                 "preconsolidation_pressure",
+                                 "ocr",
+                                 "pop"};
+
+Material::CamClay read_cam_clay(const TableReader& r, double poisson_ratio) {
+  // Bounds: any natural clay or silt (Cc up to about 10 in peat-like organic
+  // clays, e0 up to about 15); common practice, no single source.
+  const char* const clay_bounds = "the range of natural clays and silts";
+  Material::CamClay c;
+  c.compression_index = r.within("compression_index", 0.01, 10.0, "", clay_bounds);
+  c.recompression_index = r.within("recompression_index", 1e-3, 5.0, "", clay_bounds);
+  if (!(c.recompression_index < c.compression_index))
+    r.fail("recompression_index", "must be smaller than compression_index");
+  c.void_ratio = r.within("void_ratio", 0.1, 15.0, "", clay_bounds);
+  c.friction_angle = r.within("friction_angle_cs", 5.0, 50.0, "degrees", clay_bounds);
+  const int n_past = r.has("preconsolidation_pressure") + r.has("ocr") + r.has("pop");
+  if (n_past != 1)
+    r.fail_here("a cam_clay material needs exactly one of preconsolidation_pressure, "
+                "ocr and pop");
+  if (r.has("preconsolidation_pressure")) {
+    c.past = Material::CamClay::Past::pressure;
+    c.past_value =
+        r.within("preconsolidation_pressure", 0.1, 1e5, "kPa", material_bounds);
+  } else if (r.has("ocr")) {
+    c.past = Material::CamClay::Past::ocr;
+    c.past_value = r.within("ocr", 1.0, 100.0, "", clay_bounds);
+  } else {
+    c.past = Material::CamClay::Past::pop;
+    c.past_value = r.within("pop", 0.0, 1e4, "kPa", clay_bounds);
+  }
+  c.parameters =
+      CamClayParameters::from_indices(c.compression_index, c.recompression_index,
+                                      c.void_ratio, c.friction_angle, poisson_ratio);
+  return c;
+}
+
+/// The stiffness a cam_clay material gives the iterative solver's preconditioner:
+/// its unloading bulk modulus v0 p'/kappa at p' = 100 kPa (a representative
+/// stress; the analysis itself uses the clay's stress at every point).
+double reference_youngs_modulus(const CamClayParameters& m) {
+  const double bulk = m.specific_volume * 100.0 / m.kappa;
+  return 3.0 * bulk * (1.0 - 2.0 * m.poisson_ratio);
+}
+
+/// E' from whichever of youngs_modulus, constrained_modulus and mv was given.
+double elastic_youngs_modulus(const TableReader& r, double poisson_ratio) {
+  if (r.has("youngs_modulus"))
+    return r.within("youngs_modulus", softest, stiffest, "kPa", material_bounds);
+  if (r.has("constrained_modulus"))
+    return PoroelasticMaterial::youngs_from_mv(
+        1.0 / r.within("constrained_modulus", softest, stiffest, "kPa", material_bounds),
+        poisson_ratio);
+  return PoroelasticMaterial::youngs_from_mv(
+      r.within("mv", 1.0 / stiffest, 1.0 / softest, "1/kPa", material_bounds),
+      poisson_ratio);
+}
+
 Material read_material(const std::string& name, const TableReader& r) {
   Material m;
   m.name = name;
@@ -76,21 +149,25 @@ Material read_material(const std::string& name, const TableReader& r) {
   p.poisson_ratio = r.number("poisson_ratio");
   if (!(p.poisson_ratio > -1.0 && p.poisson_ratio < 0.5))
     r.fail("poisson_ratio", "must lie in (-1, 0.5)");
+  const std::string model = r.text("model");
+  if (model != "linear_elastic" && model != "cam_clay")
+    r.fail("model", "must be linear_elastic or cam_clay (got '" + model + "')");
   const int n_stiffness =
       r.has("youngs_modulus") + r.has("constrained_modulus") + r.has("mv");
-  if (n_stiffness != 1)
-    r.fail_here("give exactly one of youngs_modulus, constrained_modulus and mv");
-  if (r.has("youngs_modulus"))
-    p.youngs_modulus =
-        r.within("youngs_modulus", softest, stiffest, "kPa", material_bounds);
-  else if (r.has("constrained_modulus"))
-    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(
-        1.0 / r.within("constrained_modulus", softest, stiffest, "kPa", material_bounds),
-        p.poisson_ratio);
-  else
-    p.youngs_modulus = PoroelasticMaterial::youngs_from_mv(
-        r.within("mv", 1.0 / stiffest, 1.0 / softest, "1/kPa", material_bounds),
-        p.poisson_ratio);
+  if (model == "cam_clay") {
+    if (n_stiffness != 0)
+      r.fail_here("a cam_clay material takes its stiffness from recompression_index "
+                  "and its stress: remove youngs_modulus, constrained_modulus or mv");
+    m.cam_clay = read_cam_clay(r, p.poisson_ratio);
+    p.youngs_modulus = reference_youngs_modulus(m.cam_clay->parameters);
+  } else {
+    for (const char* key : clay_keys)
+      if (r.has(key))
+        r.fail(key, "belongs to a cam_clay material; add model = \"cam_clay\"");
+    if (n_stiffness != 1)
+      r.fail_here("give exactly one of youngs_modulus, constrained_modulus and mv");
+    p.youngs_modulus = elastic_youngs_modulus(r, p.poisson_ratio);
+  }
 
   if (r.has("conductivity") == (r.has("conductivity_x") || r.has("conductivity_y")))
     r.fail_here("give conductivity, or both conductivity_x and conductivity_y");
@@ -269,6 +346,30 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
   s.boundary_parts_parents_first(); // refuses parts that form a loop
 }
 
+namespace {
+/// What a cam_clay material cannot yet be combined with, refused at the material.
+void check_clay_support(const Scenario& s) {
+  for (const auto& [name, m] : s.materials) {
+    if (!m.cam_clay)
+      continue;
+    const std::string where = s.location_of("materials." + name) + ": materials." + name;
+    const auto refuse = [&](const std::string& what) {
+      throw InputError(where + ": a cam_clay material cannot yet be used " + what);
+    };
+    if (s.coupling == Coupling::flow_only)
+      refuse("with coupling = \"flow_only\" (it has no skeleton to compute)");
+    if (s.gravity_loading)
+      refuse("with initial_state.method = \"gravity\"; use \"k0\"");
+    if (s.numerics.solver == SolverChoice::iterative)
+      refuse("with numerics.solver = \"iterative\" (its tangent is not symmetric); "
+             "use \"direct\" or \"auto\"");
+    for (const auto& stage : s.stages)
+      if (stage.dig_level)
+        refuse("in a model that is dug (stage '" + stage.name + "' has a dig_level)");
+  }
+}
+} // namespace
+
 Scenario parse_scenario(const std::string& text, const std::string& name) {
   const toml::table root = parse_toml(text, name);
   Scenario s;
@@ -296,6 +397,7 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_stages(top, s);
   parse_output(top, s);
   parse_checks(top, s);
+  check_clay_support(s);
   if (s.coupling == Coupling::flow_only &&
       (!s.neighbours.empty() || !s.output.columns.empty()))
     top.fail("coupling", "flow_only computes no movement, so it has no settlement for "

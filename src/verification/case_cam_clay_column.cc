@@ -9,7 +9,8 @@
 // Modified Cam Clay (Roscoe & Burland 1968). Cam Clay's normal compression line
 // is straight in v-ln p', and on one-dimensional strain its stress ratio keeps the
 // value eta_K0 its flow rule gives,
-//   (2/3) lambda = eta kappa 2(1 + nu)/(9(1 - 2 nu)) + (lambda - kappa) 2 eta/(M^2 - eta^2)
+//   (2/3) lambda = eta kappa 2(1 + nu)/(9(1 - 2 nu)) + (lambda - kappa) 2 eta/(M^2 -
+//   eta^2)
 // (Wood 1990 ch. 6 gives the approach; this form was derived here from the
 // model's laws). Started on that line, the column's compression follows Cc exactly;
 // started with K0 = nu/(1 - nu) inside the yield surface, its elastic
@@ -31,8 +32,8 @@
 #include "settlewell/output/probes.h"
 #include "settlewell/verification/case_support.h"
 
-#include <cmath>
 #include <algorithm>
+#include <cmath>
 
 namespace settlewell::verification {
 
@@ -42,11 +43,11 @@ const char* const name = "cam-clay-column";
 const char* const elog = "e-log line, Terzaghi & Peck (1948)";
 
 // An invented soft clay under 20 kPa of fill, water table at its top.
-constexpr double height = 6.0;          // m
-constexpr double fill = 20.0;           // kPa
-constexpr double unit_weight = 17.0;    // kN/m3
-constexpr double head_drop = 3.0;       // m
-constexpr double conductivity = 2e-9;   // m/s
+constexpr double height = 6.0;        // m
+constexpr double fill = 20.0;         // kPa
+constexpr double unit_weight = 17.0;  // kN/m3
+constexpr double head_drop = 3.0;     // m
+constexpr double conductivity = 2e-9; // m/s
 constexpr double ramp_days = 1.0;
 constexpr double steps_per_decade = 40.0;
 constexpr double cc = 0.42, cr = 0.06, e0 = 1.15, phi = 26.0, nu = 0.3;
@@ -91,11 +92,7 @@ ColumnRun run_column(double k0, double pop, double k0_past, MPI_Comm comm) {
   flow.conductivity_x = flow.conductivity_y = conductivity;
   setup.materials["soil"] = flow;
   const auto m = CamClayParameters::from_indices(cc, cr, e0, phi, nu);
-  setup.clays["soil"] = {m, [m, pop, k0_past](const dealii::Point<2>& x,
-                                              const dealii::SymmetricTensor<2, 3>&) {
-                           return yield_size_from_vertical_preconsolidation(
-                               vertical_start(x[1]) + pop, k0_past, m.critical_state_slope);
-                         }};
+  setup.clays["soil"] = {m, [pop](double vertical) { return vertical + pop; }, k0_past};
   setup.geostatic.unit_weights["soil"] = unit_weight;
   setup.geostatic.effective_stress = [k0](const dealii::Point<2>& x, auto) {
     dealii::SymmetricTensor<2, 3> s;
@@ -142,7 +139,8 @@ double elog_settlement(double c) {
   for (int i = 0; i <= n; ++i) {
     const double y = -height * i / n;
     const double s0 = vertical_start(y);
-    const double f = c / (1.0 + e0) * std::log10((s0 + units::default_gamma_w * head_drop) / s0);
+    const double f =
+        c / (1.0 + e0) * std::log10((s0 + units::default_gamma_w * head_drop) / s0);
     sum += f * (i == 0 || i == n ? 1.0 : (i % 2 == 1 ? 4.0 : 2.0));
   }
   return sum * height / n / 3.0;

@@ -186,3 +186,50 @@ TEST(OneD, FallsAtTheClaysFacesTakePrecedence) {
   EXPECT_NEAR(c::estimate_one_d(layers, 9.81, true).layers[0].settlement,
               1e-3 * 9.81 * 0.5 * 5.3 * 4.0, 1e-12);
 }
+
+// The e-log form of a clay with Cc 0.4, Cr 0.05, e0 1.0 (invented), by hand:
+//   recompression 40 -> 69.43 kPa below sigma'p 70: 0.05 log10(69.43/40) / 2 = 0.0059872
+//   across sigma'p 50: (0.05 log10(50/40) + 0.4 log10(69.43/50)) / 2 = 0.0309382
+//   normally consolidated (sigma'p 30 < 40): 0.4 log10(69.43/40) / 2 = 0.0478974
+//   unloading 40 -> 10.57 kPa: 0.05 log10(10.57/40) / 2 = -0.0144496
+TEST(OneD, ElogStrainFollowsEachBranch) {
+  c::ColumnLayer::Oedometer clay;
+  clay.compression_index = 0.4;
+  clay.recompression_index = 0.05;
+  clay.void_ratio = 1.0;
+  const double change = 9.81 * 3.0;
+  EXPECT_NEAR(c::elog_strain(clay, 40.0, 70.0, change), 0.0059872, 1e-7);
+  EXPECT_NEAR(c::elog_strain(clay, 40.0, 50.0, change), 0.0309382, 1e-7);
+  EXPECT_NEAR(c::elog_strain(clay, 40.0, 30.0, change), 0.0478974, 1e-7);
+  EXPECT_NEAR(c::elog_strain(clay, 40.0, 70.0, -change), -0.0144496, 1e-7);
+}
+
+// A 4 m draining clay layer whose head falls 3 m throughout, sigma'v0 from 40 to
+// 60 kPa and sigma'p 30 kPa above it: the e-log strain integrated through it. By
+// hand, Simpson's rule on its top, middle and bottom (0.0059872, 0.0050254,
+// 0.0043333): 4/6 (0.0059872 + 4 x 0.0050254 + 0.0043333) = 0.020281 m; the exact
+// integral (a fine trapezoidal sum) is 0.020279 m.
+TEST(OneD, ElogLayerIntegratesThroughItsThickness) {
+  c::ColumnLayer layer;
+  layer.name = "clay";
+  layer.top = 0.0;
+  layer.bottom = -4.0;
+  layer.mv = 1e-4; // not used by the e-log form
+  layer.cv = 1e-7;
+  layer.conductivity = 1e-9;
+  layer.head_fall = 3.0;
+  c::ColumnLayer::Oedometer clay;
+  clay.compression_index = 0.4;
+  clay.recompression_index = 0.05;
+  clay.void_ratio = 1.0;
+  clay.start_top = 40.0;
+  clay.start_bottom = 60.0;
+  clay.past_top = 70.0;
+  clay.past_bottom = 90.0;
+  layer.oedometer = clay;
+  const c::OneDEstimate e = c::estimate_one_d({layer}, 9.81, true);
+  EXPECT_NEAR(e.layers[0].settlement, 0.020279, 2e-6);
+  // Its cv is that of the secant mv of the increment: k / (gamma_w S / (gamma_w dh H)).
+  const double mv = e.layers[0].settlement / (9.81 * 3.0 * 4.0);
+  EXPECT_NEAR(e.layers[0].cv, 1e-9 / (9.81 * mv), 1e-12);
+}

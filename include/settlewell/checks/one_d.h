@@ -1,6 +1,7 @@
 #pragma once
 
 #include <limits>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -20,7 +21,23 @@ struct ColumnLayer {
   /// NaN: the draining neighbour's head_fall (none at the ground surface).
   double fall_top = std::numeric_limits<double>::quiet_NaN();
   double fall_bottom = std::numeric_limits<double>::quiet_NaN();
+  /// A clay described by its oedometer indices (a Cam Clay layer): its settlement
+  /// follows the e-log form, H/(1 + e0) [Cr log10(sigma'p/sigma'0) + Cc
+  /// log10(sigma'f/sigma'p)] through its thickness, instead of mv; its cv is
+  /// k / (gamma_w mv) with the secant mv of that settlement.
+  struct Oedometer {
+    double compression_index = 0.0, recompression_index = 0.0, void_ratio = 0.0;
+    double start_top = 0.0, start_bottom = 0.0; ///< sigma'v0 at the faces, kPa
+    double past_top = 0.0, past_bottom = 0.0;   ///< sigma'p at the faces, kPa
+  };
+  std::optional<Oedometer> oedometer = std::nullopt;
 };
+
+/// The e-log strain of a clay from sigma'v0 = `start` to `start + change` with the
+/// preconsolidation `past` (kPa): recompression (Cr) up to sigma'p, virgin
+/// compression (Cc) beyond it, swelling (Cr) when the stress falls.
+double
+elog_strain(const ColumnLayer::Oedometer& clay, double start, double past, double change);
 
 /// One layer's share of the estimate.
 struct LayerEstimate {

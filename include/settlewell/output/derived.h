@@ -6,6 +6,7 @@
 #include <deal.II/lac/vector.h>
 
 #include <functional>
+#include <limits>
 #include <vector>
 
 namespace settlewell {
@@ -37,6 +38,10 @@ struct DerivedState {
   double volumetric_strain = 0.0;         ///< tension positive
   dealii::Tensor<1, 2> darcy_flux;        ///< m/s
   dealii::Tensor<1, 2> head_gradient;     ///< grad h, m/m
+  /// In a Cam Clay cell (the cell's mean, see BiotProblem::clay_cell_state): the
+  /// yield size p'c, kPa, and the yield ratio (1: yielding). NaN elsewhere.
+  double yield_size = std::numeric_limits<double>::quiet_NaN();
+  double yield_ratio = std::numeric_limits<double>::quiet_NaN();
 };
 
 /// Turns the primary unknowns at a point into the reported quantities.
@@ -45,14 +50,21 @@ public:
   Derivation(const BiotProblem& problem, InitialFields initial);
 
   /// `values` and `gradients` hold the three components (ux, uy, excess pressure).
+  /// In a Cam Clay cell the stresses are the clay's, from its history: give the
+  /// cell (locally owned) so that they can be found.
   DerivedState at(const dealii::Point<2>& x,
                   dealii::types::material_id region,
+                  const dealii::Vector<double>& values,
+                  const std::vector<dealii::Tensor<1, 2>>& gradients) const;
+  DerivedState at(const dealii::Point<2>& x,
+                  const dealii::DoFHandler<2>::active_cell_iterator& cell,
                   const dealii::Vector<double>& values,
                   const std::vector<dealii::Tensor<1, 2>>& gradients) const;
 
   const InitialFields& initial() const { return initial_; }
 
 private:
+  const BiotProblem& problem_;
   InitialFields initial_;
   double gamma_w_;
   bool axisymmetric_;

@@ -10,6 +10,7 @@
 #include <deal.II/fe/mapping.h>
 
 #include <memory>
+#include <optional>
 
 namespace settlewell {
 
@@ -132,6 +133,20 @@ public:
   /// triangulation must have been loaded from the same `mesh_file` (load_mesh) before
   /// this problem was built. Collective.
   void load_checkpoint(StateArchive& a);
+
+  /// A locally owned cell of a Cam Clay region, as committed at time(): the mean
+  /// over its quadrature points of the absolute effective stress (xx, yy, zz, xy,
+  /// kPa, tension positive), of the yield size p'c (kPa) and of the yield ratio
+  /// p'c / (p' + q^2/(M^2 p')), 1 where the clay is yielding and above 1 inside
+  /// the yield surface. Empty for any other cell.
+  struct ClayCellState {
+    PlaneTensor stress{};
+    double yield_size = 0.0;
+    double yield_ratio = 0.0;
+  };
+  std::optional<ClayCellState> clay_cell_state(unsigned int active_cell_index) const;
+  /// Whether some region has a Cam Clay skeleton.
+  bool has_clays() const;
 
   /// Whether the cell of this active index has been taken out by excavation.
   bool is_removed(unsigned int active_cell_index) const;

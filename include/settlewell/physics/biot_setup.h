@@ -60,10 +60,19 @@ struct GeostaticState {
 /// preconditioner assumes.
 struct ClaySkeleton {
   CamClayParameters parameters;
-  /// The size p'c of the yield ellipse at a point of the start state, kPa, given the
-  /// start's effective stress there (tension positive).
-  std::function<double(const dealii::Point<2>&, const dealii::SymmetricTensor<2, 3>&)>
-      yield_size;
+  /// The vertical preconsolidation pressure sigma'p where the start's vertical
+  /// effective stress is sigma'v0, kPa.
+  std::function<double(double vertical_start)> preconsolidation;
+  /// K0 of the past one-dimensional loading to sigma'p (the yield ellipse passes
+  /// through the stress it reached).
+  double k0_past = 0.5;
+
+  /// p'c of the yield ellipse where the start's effective stress (tension
+  /// positive) is `start`, kPa.
+  double yield_size(const dealii::SymmetricTensor<2, 3>& start) const {
+    return yield_size_from_vertical_preconsolidation(
+        preconsolidation(-start[1][1]), k0_past, parameters.critical_state_slope);
+  }
 };
 
 /// Newton's method for a step when some skeleton is nonlinear.

@@ -2,6 +2,7 @@
 
 #include "settlewell/core/types.h"
 #include "settlewell/core/units.h"
+#include "settlewell/materials/cam_clay.h"
 #include "settlewell/materials/poroelastic.h"
 
 #include <map>
@@ -27,6 +28,20 @@ struct Material {
     double grain_bulk_modulus = 0.0; ///< kPa (0: incompressible grains)
   };
   std::optional<StorageInputs> storage_from;
+  /// A skeleton that follows Modified Cam Clay (model = "cam_clay"), with the
+  /// values the user gave. `poroelastic` then holds its conductivity and storage,
+  /// and a stiffness for the iterative solver's preconditioner only.
+  struct CamClay {
+    CamClayParameters parameters;
+    double compression_index = 0.0, recompression_index = 0.0, void_ratio = 0.0;
+    double friction_angle = 0.0; ///< phi'cs, degrees
+    /// How the preconsolidation is given: sigma'p (kPa), OCR, or POP (kPa).
+    enum class Past { pressure, ocr, pop } past = Past::ocr;
+    double past_value = 1.0;
+    /// sigma'p at a point whose start vertical effective stress is sigma'v0, kPa.
+    double preconsolidation(double vertical_start) const;
+  };
+  std::optional<CamClay> cam_clay;
 };
 
 struct Layer {
