@@ -222,8 +222,6 @@ void BiotProblem::Impl::assemble_matrix(double dt) {
     const CellCoefficients& c = coefficients[cell->material_id()];
     cell_matrix = 0.0;
     kernel.add_matrix(c, dt, cell_matrix);
-    if (c.skeleton_from_history)
-      add_clay_tangent(kernel, cell, cell_matrix);
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
     if (with_schur) {
       cell_matrix = 0.0;
@@ -327,8 +325,6 @@ void BiotProblem::Impl::assemble_rhs(double t_new, double dt) {
     const Tensor<1, 2> b = conditions.body_force(cell->material_id(), t_new);
     if (b.norm() > 0.0)
       kernel.add_body_force(b, cell_rhs);
-    if (has_clay_points(cell))
-      add_clay_force(kernel, cell, cell_rhs);
     if (has_inhomogeneity(dofs)) {
       // Prescribed values enter the right-hand side through the cell matrix;
       // only cells that touch them need it.

@@ -15,6 +15,7 @@
 #include <deal.II/fe/mapping_q1.h>
 #include <deal.II/lac/affine_constraints.h>
 
+#include <functional>
 #include <limits>
 #include <memory>
 #include <optional>
@@ -85,6 +86,8 @@ struct BiotProblem::Impl {
   unsigned int solve_system();
   /// One assembly and solve of the step to t_new (matrix rebuilt when needed).
   void solve_step(double t_new, double dt, bool new_geometry, StepReport& report);
+  /// (Clay cells get no displacement block and no stress force here: a Newton step
+  /// adds them in each iteration, add_clay_terms.)
   void assemble_matrix(double dt);
   void assemble_rhs(double t_new, double dt);
   void add_face_terms(CellKernel& kernel,
@@ -196,22 +199,28 @@ struct BiotProblem::Impl {
     PlaneTensor start_stress{};                    ///< the start state's effective stress
     CamClayState committed, trial;
     PlaneTangent tangent{};
+    PlaneTensor start_strain{}; ///< at the step's start (since t = 0)
+    PlaneTensor strain{};       ///< of the current iterate
   };
   /// The points of every owned clay cell and their start states (constructor).
   void prepare_clays();
+  /// Calls `visit` with every owned clay point and its strain in `state`.
+  void for_each_clay_cell_strain(
+      const LA::MPI::Vector& state,
+      const std::function<void(ClayPoint&, const PlaneTensor&)>& visit);
+  /// Each clay point's strain at step_start (its start_strain and strain).
+  void record_step_start_strains();
   /// Trial states and tangents of every clay point for the strain from step_start
   /// to solution. Returns how many yield, over all processes. Collective.
   unsigned int update_clay_points();
   /// The trial states become the committed ones (a step accepted).
   void commit_clay_points();
   bool has_clay_points(const DoFHandler<2>::active_cell_iterator& cell) const;
-  /// The clay cell's tangent block, added to its cell matrix.
-  void add_clay_tangent(CellKernel& kernel,
-                        const DoFHandler<2>::active_cell_iterator& cell,
-                        FullMatrix<double>& cell_matrix) const;
-  /// The clay cell's stress less its tangent's share, in the right-hand side.
-  void add_clay_force(CellKernel& kernel,
+  /// The clay cell's tangent block, added to its cell matrix, and its stress less
+  /// its tangent's share, to its right-hand side (from the points' current state).
+  void add_clay_terms(CellKernel& kernel,
                       const DoFHandler<2>::active_cell_iterator& cell,
+                      FullMatrix<double>& cell_matrix,
                       Vector<double>& cell_rhs) const;
   struct FieldNorms {
     double u = 0.0, p = 0.0;
@@ -219,6 +228,20 @@ struct BiotProblem::Impl {
   /// The norms of b - K x in the displacement and the storage rows (after
   /// assembly, before the solver's row signs). Collective.
   FieldNorms newton_residual();
+  /// Adds the solution of K delta = newton_r to the iterate (a kept factor as
+  /// GMRES's preconditioner, or a new factorisation).
+  void add_newton_correction(StepReport& report);
+  LA::MPI::Vector newton_r; ///< the residual of the iterate (newton_residual)
+  /// A Newton step's system: the parts no clay changes (`fixed_matrix` per dt' and
+  /// set of held pressures, `fixed_rhs` per step), to which each iteration adds
+  /// the clays' terms.
+  void assemble_newton_system(double t_new, double dt, bool first_iteration);
+  void add_clay_terms();
+  LA::MPI::SparseMatrix fixed_matrix;
+  LA::MPI::Vector fixed_rhs;
+  double fixed_dt = std::numeric_limits<double>::quiet_NaN();
+  std::vector<bool> fixed_pressures;
+  bool newton_factor_ready = false; ///< the solver holds a factor of some tangent
   /// One step by Newton's method (replaces solve_step when there are clays).
   void solve_newton_step(double t_new, double dt, StepReport& report);
   std::vector<std::size_t> clay_offset; ///< by active cell index, into clay_points

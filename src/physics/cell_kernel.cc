@@ -144,8 +144,10 @@ void CellKernel::strains(const Vector<double>& local, std::vector<PlaneTensor>& 
   }
 }
 
-void CellKernel::add_tangent_block(const std::vector<PlaneTangent>& tangents,
-                                   FullMatrix<double>& out) {
+void CellKernel::add_tangent_and_force(const std::vector<PlaneTangent>& tangents,
+                                       const std::vector<PlaneTensor>& stresses,
+                                       FullMatrix<double>& matrix,
+                                       Vector<double>& vector) {
   update_cell_values();
   std::vector<PlaneTensor> shape(u_dofs_.size()), stress(u_dofs_.size());
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
@@ -158,20 +160,11 @@ void CellKernel::add_tangent_block(const std::vector<PlaneTangent>& tangents,
         stress[b][r] = w * (d[r][0] * shape[b][0] + d[r][1] * shape[b][1] +
                             d[r][2] * shape[b][2] + d[r][3] * shape[b][3]);
     }
-    for (unsigned int a = 0; a < u_dofs_.size(); ++a)
+    for (unsigned int a = 0; a < u_dofs_.size(); ++a) {
+      vector(u_dofs_[a]) -= w * contract(shape[a], stresses[q]);
       for (unsigned int b = 0; b < u_dofs_.size(); ++b)
-        out(u_dofs_[a], u_dofs_[b]) += contract(shape[a], stress[b]);
-  }
-}
-
-void CellKernel::add_stress_force(const std::vector<PlaneTensor>& stresses,
-                                  Vector<double>& out) {
-  update_cell_values();
-  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
-    evaluate_shapes(q);
-    const double w = weight(fe_values_, q);
-    for (const unsigned int i : u_dofs_)
-      out(i) -= w * contract(plane(strain_[i], hoop_[i]), stresses[q]);
+        matrix(u_dofs_[a], u_dofs_[b]) += contract(shape[a], stress[b]);
+    }
   }
 }
 

@@ -72,30 +72,44 @@ void BiotProblem::Impl::prepare_clays() {
   step_start.reinit(owned, relevant, comm);
 }
 
-unsigned int BiotProblem::Impl::update_clay_points() {
+void BiotProblem::Impl::for_each_clay_cell_strain(
+    const LA::MPI::Vector& state,
+    const std::function<void(ClayPoint&, const PlaneTensor&)>& visit) {
   CellKernel kernel(layout, setup.analysis, mapping);
-  Vector<double> now(kernel.dofs_per_cell()), before(kernel.dofs_per_cell());
-  std::vector<PlaneTensor> strain_now, strain_before;
-  unsigned int yielding = 0;
+  Vector<double> local(kernel.dofs_per_cell());
+  std::vector<PlaneTensor> strain;
   for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned() || clay_offset[cell->active_cell_index()] == no_points)
+    if (!cell->is_locally_owned() || !has_clay_points(cell))
       continue;
     kernel.reinit(cell);
-    cell->get_dof_values(solution, now);
-    cell->get_dof_values(step_start, before);
-    kernel.strains(now, strain_now);
-    kernel.strains(before, strain_before);
+    cell->get_dof_values(state, local);
+    kernel.strains(local, strain);
     ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
-    for (unsigned int q = 0; q < strain_now.size(); ++q, ++point) {
-      PlaneTensor increment;
-      for (unsigned int k = 0; k < 4; ++k)
-        increment[k] = strain_now[q][k] - strain_before[q][k];
-      const auto u = cam_clay_update(*point->parameters, point->committed, increment);
-      point->trial = u.state;
-      point->tangent = u.tangent;
-      yielding += u.yielded;
-    }
+    for (unsigned int q = 0; q < strain.size(); ++q, ++point)
+      visit(*point, strain[q]);
   }
+}
+
+void BiotProblem::Impl::record_step_start_strains() {
+  for_each_clay_cell_strain(step_start, [](ClayPoint& point, const PlaneTensor& e) {
+    point.start_strain = e;
+    point.strain = e;
+  });
+}
+
+unsigned int BiotProblem::Impl::update_clay_points() {
+  unsigned int yielding = 0;
+  for_each_clay_cell_strain(
+      solution, [&yielding](ClayPoint& point, const PlaneTensor& e) {
+        PlaneTensor increment;
+        for (unsigned int k = 0; k < 4; ++k)
+          increment[k] = e[k] - point.start_strain[k];
+        const auto u = cam_clay_update(*point.parameters, point.committed, increment);
+        point.strain = e;
+        point.trial = u.state;
+        point.tangent = u.tangent;
+        yielding += u.yielded;
+      });
   return Utilities::MPI::sum(yielding, comm);
 }
 
@@ -104,36 +118,27 @@ void BiotProblem::Impl::commit_clay_points() {
     point.committed = point.trial;
 }
 
-void BiotProblem::Impl::add_clay_tangent(CellKernel& kernel,
-                                         const DoFHandler<2>::active_cell_iterator& cell,
-                                         FullMatrix<double>& cell_matrix) const {
-  const std::size_t first = clay_offset[cell->active_cell_index()];
-  std::vector<PlaneTangent> tangents(kernel.n_quadrature_points());
-  for (unsigned int q = 0; q < tangents.size(); ++q)
-    tangents[q] = clay_points[first + q].tangent;
-  kernel.add_tangent_block(tangents, cell_matrix);
-}
-
-void BiotProblem::Impl::add_clay_force(CellKernel& kernel,
+void BiotProblem::Impl::add_clay_terms(CellKernel& kernel,
                                        const DoFHandler<2>::active_cell_iterator& cell,
+                                       FullMatrix<double>& cell_matrix,
                                        Vector<double>& cell_rhs) const {
-  // Newton's step K_k x_{k+1} = F - (f_int(u_k) - A_k u_k): the tangent block
-  // A_k is in the matrix, so the right-hand side takes minus the internal force of
-  // tau = (sigma'_k - sigma'_0) - D_k eps(u_k) at each point.
-  Vector<double> now(kernel.dofs_per_cell());
-  cell->get_dof_values(solution, now);
-  std::vector<PlaneTensor> strain;
-  kernel.strains(now, strain);
+  // Newton's step K_k x_{k+1} = F - (f_int(u_k) - A_k u_k): the tangent block A_k
+  // goes into the matrix and the right-hand side takes minus the internal force
+  // of tau = (sigma'_k - sigma'_0) - D_k eps(u_k) at each point.
+  const unsigned int n = kernel.n_quadrature_points();
+  std::vector<PlaneTangent> tangents(n);
+  std::vector<PlaneTensor> tau(n);
   const ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
-  std::vector<PlaneTensor> tau(strain.size());
-  for (unsigned int q = 0; q < strain.size(); ++q, ++point)
+  for (unsigned int q = 0; q < n; ++q, ++point) {
+    tangents[q] = point->tangent;
     for (unsigned int r = 0; r < 4; ++r) {
       double tangent_stress = 0.0;
       for (unsigned int k = 0; k < 4; ++k)
-        tangent_stress += point->tangent[r][k] * strain[q][k];
+        tangent_stress += point->tangent[r][k] * point->strain[k];
       tau[q][r] = point->trial.stress[r] - point->start_stress[r] - tangent_stress;
     }
-  kernel.add_stress_force(tau, cell_rhs);
+  }
+  kernel.add_tangent_and_force(tangents, tau, cell_matrix, cell_rhs);
 }
 
 std::optional<BiotProblem::ClayCellState>

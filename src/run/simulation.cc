@@ -44,12 +44,17 @@ bool is_root(MPI_Comm comm) {
 }
 
 std::vector<std::string>
-step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors, bool digs) {
+step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
+            bool digs,
+            bool clays) {
   std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
                              "new_matrix", "assembly_s", "factorisation_s", "solve_s",
                              "iterations", "monitors_s", "output_s"};
   if (digs) // solves of the step until the drained surface's active set settled
     h.push_back("drain_rounds");
+  if (clays) // Newton's method: its solves, new factors, yielding points, residual
+    h.insert(h.end(), {"newton_iterations", "factorisations", "yielding_points",
+                       "newton_residual_relative"});
   for (const auto& m : monitors)
     for (const auto& column : m->step_columns())
       h.push_back(column);
@@ -62,6 +67,7 @@ std::vector<double> step_row(const StepReport& r,
                              std::size_t number,
                              std::size_t stage,
                              bool digs,
+                             bool clays,
                              double monitors_seconds,
                              double output_seconds) {
   std::vector<double> row{double(number),
@@ -77,6 +83,10 @@ std::vector<double> step_row(const StepReport& r,
                           output_seconds};
   if (digs)
     row.push_back(double(r.drain_rounds));
+  if (clays)
+    row.insert(row.end(), {double(r.newton_iterations), double(r.factorisations),
+                           double(r.yielding_points),
+                           r.newton_residuals.empty() ? 0.0 : r.newton_residuals.back()});
   return row;
 }
 
@@ -246,7 +256,7 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
       m->at_output_time(view);
   std::vector<double> row =
       step_row(view.step, view.step_number, view.stage(), !model.setup.excavation.empty(),
-               monitors_seconds, clock.wall_time());
+               !model.setup.clays.empty(), monitors_seconds, clock.wall_time());
   row.insert(row.end(), columns.begin(), columns.end());
   steps.row(row);
 }
@@ -366,8 +376,10 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*context, options.run_directory, report, 0};
   start(view);
-  CsvFile steps(options.run_directory + "/steps.csv",
-                step_header(monitors, !model.setup.excavation.empty()), comm);
+  CsvFile steps(
+      options.run_directory + "/steps.csv",
+      step_header(monitors, !model.setup.excavation.empty(), !model.setup.clays.empty()),
+      comm);
   CheckpointHeader header = new_header();
   return run_steps(options, view, report, steps, header);
 }

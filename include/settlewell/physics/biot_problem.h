@@ -30,6 +30,7 @@ struct StepReport {
   /// yielding at its end, and the residual before each solve and at the end,
   /// relative to the largest a step started with.
   unsigned int newton_iterations = 0;
+  unsigned int factorisations = 0; ///< in this step (Newton's method)
   unsigned int yielding_points = 0;
   std::vector<double> newton_residuals;
 };

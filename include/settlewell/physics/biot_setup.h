@@ -81,7 +81,11 @@ struct NewtonSettings {
   /// Converged when each field's residual (the displacement rows and the storage
   /// rows) has fallen below this fraction of the largest that a step's start
   /// presented so far in the run.
-  double tolerance = 1e-8;
+  double tolerance = 1e-6;
+  /// Each correction's linear solve stops at this fraction of the residual when
+  /// it runs GMRES with a kept factor (an inexact Newton step; a new factor
+  /// solves exactly).
+  double linear_tolerance = 1e-4;
 };
 
 /// Everything the Biot core needs besides the mesh. Plain data, no parsing.

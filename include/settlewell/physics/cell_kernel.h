@@ -59,14 +59,14 @@ public:
   /// plane strain) of the displacement in `local` (the cell's dof values) at each
   /// quadrature point.
   void strains(const dealii::Vector<double>& local, std::vector<PlaneTensor>& out);
-  /// The displacement block of a skeleton with a tangent D per quadrature point:
-  /// the integral of eps(v_i) : D eps(v_j) (in general not symmetric).
-  void add_tangent_block(const std::vector<PlaneTangent>& tangents,
-                         dealii::FullMatrix<double>& out);
-  /// Minus the internal force of a stress tau per quadrature point, -integral of
-  /// eps(v_i) : tau, in the displacement rows.
-  void add_stress_force(const std::vector<PlaneTensor>& stresses,
-                        dealii::Vector<double>& out);
+  /// For a skeleton with a tangent D and a stress tau per quadrature point: the
+  /// displacement block, the integral of eps(v_i) : D eps(v_j) (in general not
+  /// symmetric), into `matrix`, and minus the internal force of tau, -integral of
+  /// eps(v_i) : tau, into the displacement rows of `vector`.
+  void add_tangent_and_force(const std::vector<PlaneTangent>& tangents,
+                             const std::vector<PlaneTensor>& stresses,
+                             dealii::FullMatrix<double>& matrix,
+                             dealii::Vector<double>& vector);
   /// The fixed-stress approximation of the Schur complement in the p-p entries:
   /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
   /// drained plane bulk modulus lambda + mu.

@@ -23,6 +23,21 @@ public:
   /// Returns the number of iterations (1 for a direct solve). A solver that
   /// takes_initial_guess() starts from `solution`'s values; the others ignore them.
   virtual unsigned int solve(const LA::MPI::Vector& rhs, LA::MPI::Vector& solution) = 0;
+  /// Solves `current` x = rhs by a Krylov method (GMRES) preconditioned with the
+  /// factorisation of the matrix last given to set_matrix, which may since have
+  /// changed its values (`current` may be that matrix, assembled again), from x = 0
+  /// to `relative_tolerance` of the right-hand side. Returns the Krylov iterations,
+  /// or 0 when it did not converge in `max_iterations` (give the matrix again to
+  /// refactorise) or the solver keeps no factorisation.
+  virtual unsigned int solve_with_kept_factor(const LA::MPI::SparseMatrix& current,
+                                              const LA::MPI::Vector& rhs,
+                                              LA::MPI::Vector& solution,
+                                              double relative_tolerance,
+                                              unsigned int max_iterations) {
+    (void)current, (void)rhs, (void)solution, (void)relative_tolerance,
+        (void)max_iterations;
+    return 0;
+  }
   virtual bool needs_schur_approximation() const { return false; }
   virtual bool takes_initial_guess() const { return false; }
   /// Whether the solver is given the system with its pressure rows (matrix and
