@@ -13,6 +13,7 @@
 #include <deal.II/base/mpi_remote_point_evaluation.h>
 #include <deal.II/fe/mapping_q1.h>
 
+#include <cmath>
 #include <iomanip>
 #include <ostream>
 #include <sstream>
@@ -70,6 +71,32 @@ std::string storage_text(const scenario::Material& m, double gamma_w) {
   return os.str();
 }
 
+/// What a cam_clay material's skeleton uses, converted from the user's terms.
+std::string clay_text(const scenario::Material::CamClay& c) {
+  using Past = scenario::Material::CamClay::Past;
+  std::ostringstream os;
+  const auto& m = c.parameters;
+  os << "Modified Cam Clay from Cc " << c.compression_index << ", Cr "
+     << c.recompression_index << ", e0 " << c.void_ratio << ", phi'cs "
+     << c.friction_angle << " degrees: lambda " << m.lambda << ", kappa " << m.kappa
+     << " (C / ln 10), v0 " << m.specific_volume << ", M " << m.critical_state_slope
+     << ", K0nc " << 1.0 - std::sin(c.friction_angle * units::pi / 180.0)
+     << " (Jaky 1944) on the past loading; preconsolidation ";
+  switch (c.past) {
+  case Past::pressure:
+    os << "sigma'p " << c.past_value << " kPa";
+    break;
+  case Past::ocr:
+    os << "OCR " << c.past_value;
+    break;
+  case Past::pop:
+    os << "POP " << c.past_value << " kPa";
+    break;
+  }
+  os << "; the E' above is only the iterative solver's preconditioner's";
+  return os.str();
+}
+
 void describe_scenario(const scenario::Scenario& s,
                        const Mesh& mesh,
                        const model::Schedule& schedule,
@@ -92,6 +119,8 @@ void describe_scenario(const scenario::Scenario& s,
         << m.poroelastic.conductivity_x << " m/s, ky " << m.poroelastic.conductivity_y
         << " m/s, unit weight " << m.unit_weight << " kN/m3, K0 " << m.k0 << '\n'
         << "    storage: " << storage_text(m, s.gamma_w) << '\n';
+    if (m.cam_clay)
+      out << "    skeleton: " << clay_text(*m.cam_clay) << '\n';
   }
   out << "Boundaries:\n";
   for (const auto& [name, role] : model::boundary_roles(s, mesh)) {

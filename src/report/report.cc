@@ -68,25 +68,26 @@ std::string make_plots(const std::string& run, std::ostream& log) {
 void cautions(Document& d) {
   d.add("Read this first")
       .note(
-          "These results come from a two-dimensional, linear poroelastic (Biot) model of "
+          "These results come from a two-dimensional poroelastic (Biot) model of "
           "the ground. They are an aid to design, not a design. They must be reviewed by "
           "a qualified geotechnical engineer before they are used, and checked against "
           "field observations as the works proceed. Local codes of practice, the "
           "applicable design standards and licensed professional practice govern; no "
           "partial factors are applied here.")
-      .list(
-          {"Small strains, linear-elastic isotropic soil skeleton, Darcy flow with "
-           "constant conductivity, full saturation (capillary saturation retained above "
-           "the water table).",
-           "The pit is dug as the stages say (stages[].dig_level): the soil above "
-           "each dig level leaves the model at the stage's start and the forces it "
-           "carried are released over the ramp; the dug surface drains to the pit's "
-           "water level. Soil that no stage digs stays in place, and the base checks "
-           "apply from the first dig on.",
-           "A plane-strain section treats wells as rows (line sinks) and the pit as "
-           "infinitely long; corners and 3D flow are not modelled.",
-           "Damage categories are a preliminary screening and do not replace a "
-           "structural assessment of the buildings."});
+      .list({"Small strains, a linear-elastic isotropic soil skeleton (or Modified Cam "
+             "Clay, Roscoe & Burland 1968, for materials with model = \"cam_clay\": "
+             "yield from the preconsolidation, hardening on the e-log lines, solved by "
+             "Newton's method), Darcy flow with constant conductivity, full saturation "
+             "(capillary saturation retained above the water table).",
+             "The pit is dug as the stages say (stages[].dig_level): the soil above "
+             "each dig level leaves the model at the stage's start and the forces it "
+             "carried are released over the ramp; the dug surface drains to the pit's "
+             "water level. Soil that no stage digs stays in place, and the base checks "
+             "apply from the first dig on.",
+             "A plane-strain section treats wells as rows (line sinks) and the pit as "
+             "infinitely long; corners and 3D flow are not modelled.",
+             "Damage categories are a preliminary screening and do not replace a "
+             "structural assessment of the buildings."});
 }
 
 void run_section(Document& d, const toml::table& r) {

@@ -213,9 +213,10 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
   out << "  results: " << r.run_directory
       << " (fields/fields.pvd, points.csv, profiles/, "
       << "steps.csv, manifest.json)\n";
-  out << "These results come from a linear poroelastic model; they must be reviewed by a "
-         "qualified geotechnical engineer, and local codes and licensed practice "
-         "govern.\n";
+  out << "These results come from a poroelastic model (linear-elastic skeletons; "
+         "Modified Cam Clay for materials with model = \"cam_clay\"); they must be "
+         "reviewed by a qualified geotechnical engineer, and local codes and licensed "
+         "practice govern.\n";
 }
 
 void write_manifest(const std::string& path,

@@ -81,7 +81,7 @@ struct NewtonSettings {
   /// Converged when each field's residual (the displacement rows and the storage
   /// rows) has fallen below this fraction of the largest that a step's start
   /// presented so far in the run.
-  double tolerance = 1e-6;
+  double tolerance = 1e-8;
   /// Each correction's linear solve stops at this fraction of the residual when
   /// it runs GMRES with a kept factor (an inexact Newton step; a new factor
   /// solves exactly).
