@@ -40,6 +40,7 @@ void BiotProblem::Impl::prepare_clays() {
     clay_by_region.at(mesh.names.region_id(region)) = &clay;
   }
   clay_offset.assign(mesh.triangulation->n_active_cells(), no_points);
+  std::string problem; // the first point of this process without compression
   CellKernel kernel(layout, setup.analysis, mapping);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     const ClaySkeleton* clay = clay_by_region[cell->material_id()];
@@ -53,11 +54,16 @@ void BiotProblem::Impl::prepare_clays() {
       ClayPoint point;
       point.parameters = &clay->parameters;
       point.start_stress = plane(start);
-      if (!(mean_effective_stress(point.start_stress) > 0.0))
-        throw InputError(
-            "the Cam Clay region '" + mesh.names.region_name(cell->material_id()) +
-            "' has no compressive effective stress at (" + std::to_string(x[0]) + ", " +
-            std::to_string(x[1]) + ") m at the start");
+      if (!(mean_effective_stress(point.start_stress) > 0.0)) {
+        if (problem.empty())
+          problem = "the Cam Clay region '" +
+                    mesh.names.region_name(cell->material_id()) +
+                    "' has no compressive effective stress at (" + std::to_string(x[0]) +
+                    ", " + std::to_string(x[1]) +
+                    ") m at the start (Cam Clay needs p' > 0: a clay at a free, "
+                    "submerged surface needs a layer or a load above it)";
+        continue;
+      }
       const double m = clay->parameters.critical_state_slope;
       point.committed = {
           point.start_stress,
@@ -69,6 +75,12 @@ void BiotProblem::Impl::prepare_clays() {
       clay_points.push_back(point);
     }
   }
+  // Every process throws the same error, so none waits in a collective call.
+  const unsigned int mine = problem.empty() ? numbers::invalid_unsigned_int
+                                            : Utilities::MPI::this_mpi_process(comm);
+  const unsigned int first = Utilities::MPI::min(mine, comm);
+  if (first != numbers::invalid_unsigned_int)
+    throw InputError(Utilities::MPI::broadcast(comm, problem, first));
   step_start.reinit(owned, relevant, comm);
 }
 
