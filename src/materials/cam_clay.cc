@@ -54,6 +54,16 @@ double yield_size_from_vertical_preconsolidation(double vertical_preconsolidatio
   return p + q * q / (m * m * p);
 }
 
+double double_contraction(const PlaneTensor& a, const PlaneTensor& b) {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
+}
+
+double yield_size_through(const PlaneTensor& stress, double m) {
+  const double p = mean_effective_stress(stress);
+  const double q = deviator_stress(stress);
+  return p + q * q / (m * m * p);
+}
+
 double mean_effective_stress(const PlaneTensor& stress) {
   return -(stress[0] + stress[1] + stress[2]) / 3.0;
 }
@@ -63,11 +73,6 @@ namespace {
 constexpr std::array<double, 4> unit{{1.0, 1.0, 1.0, 0.0}};
 using Vector3 = std::array<double, 3>;
 using Matrix3 = std::array<Vector3, 3>;
-
-/// s:s of a deviator held as PlaneTensor (the shear counts twice).
-double contract(const PlaneTensor& a, const PlaneTensor& b) {
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
-}
 
 /// The deviator of a tensor, with the sign flipped (compression positive).
 PlaneTensor compressive_deviator(const PlaneTensor& t) {
@@ -229,7 +234,7 @@ PlaneTangent assemble_tangent(double dp_dv,
 
 double deviator_stress(const PlaneTensor& stress) {
   const auto s = compressive_deviator(stress);
-  return std::sqrt(1.5 * contract(s, s));
+  return std::sqrt(1.5 * double_contraction(s, s));
 }
 
 CamClayUpdate cam_clay_update(const CamClayParameters& m,
@@ -252,7 +257,7 @@ CamClayUpdate cam_clay_update(const CamClayParameters& m,
   for (int i = 0; i < 4; ++i)
     s_trial[i] = s_n[i] + 2.0 * g * de[i];
   const double p_trial = p_n * std::exp(v0_over_kappa * dev);
-  const double q_trial = std::sqrt(1.5 * contract(s_trial, s_trial));
+  const double q_trial = std::sqrt(1.5 * double_contraction(s_trial, s_trial));
   PlaneTensor n{};
   if (q_trial > 0.0)
     for (int i = 0; i < 4; ++i)

@@ -202,6 +202,10 @@ struct BiotProblem::Impl {
     PlaneTensor start_strain{}; ///< at the step's start (since t = 0)
     PlaneTensor strain{};       ///< of the current iterate
   };
+  /// Throws `Error` with the lowest rank's `problem` on every process if any
+  /// process has one (empty: none). Collective.
+  template <typename Error>
+  void throw_first_problem(const std::string& problem) const;
   /// The points of every owned clay cell and their start states (constructor).
   void prepare_clays();
   /// Calls `visit` with every owned clay point and its strain in `state`.

@@ -125,10 +125,6 @@ namespace {
 PlaneTensor plane(const SymmetricTensor<2, 2>& e, double hoop) {
   return {{e[0][0], e[1][1], hoop, e[0][1]}};
 }
-/// a : b with the shear counted twice.
-double contract(const PlaneTensor& a, const PlaneTensor& b) {
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
-}
 } // namespace
 
 void CellKernel::strains(const Vector<double>& local, std::vector<PlaneTensor>& out) {
@@ -161,9 +157,9 @@ void CellKernel::add_tangent_and_force(const std::vector<PlaneTangent>& tangents
                             d[r][2] * shape[b][2] + d[r][3] * shape[b][3]);
     }
     for (unsigned int a = 0; a < u_dofs_.size(); ++a) {
-      vector(u_dofs_[a]) -= w * contract(shape[a], stresses[q]);
+      vector(u_dofs_[a]) -= w * double_contraction(shape[a], stresses[q]);
       for (unsigned int b = 0; b < u_dofs_.size(); ++b)
-        matrix(u_dofs_[a], u_dofs_[b]) += contract(shape[a], stress[b]);
+        matrix(u_dofs_[a], u_dofs_[b]) += double_contraction(shape[a], stress[b]);
     }
   }
 }

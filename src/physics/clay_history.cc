@@ -16,15 +16,18 @@ constexpr std::size_t no_points = std::numeric_limits<std::size_t>::max();
 PlaneTensor plane(const SymmetricTensor<2, 3>& s) {
   return {{s[0][0], s[1][1], s[2][2], s[0][1]}};
 }
-
-/// The yield size of the ellipse through a stress, kPa: a start state outside
-/// the ellipse the preconsolidation gives is taken as on its own surface.
-double ellipse_through(const PlaneTensor& stress, double m) {
-  const double p = mean_effective_stress(stress);
-  const double q = deviator_stress(stress);
-  return p + q * q / (m * m * p);
-}
 } // namespace
+
+template <typename Error>
+void BiotProblem::Impl::throw_first_problem(const std::string& problem) const {
+  // Every process throws the same error (the lowest rank's), so none waits in a
+  // collective call.
+  const unsigned int mine = problem.empty() ? numbers::invalid_unsigned_int
+                                            : Utilities::MPI::this_mpi_process(comm);
+  const unsigned int first = Utilities::MPI::min(mine, comm);
+  if (first != numbers::invalid_unsigned_int)
+    throw Error(Utilities::MPI::broadcast(comm, problem, first));
+}
 
 void BiotProblem::Impl::prepare_clays() {
   if (setup.clays.empty())
@@ -64,10 +67,12 @@ void BiotProblem::Impl::prepare_clays() {
                     "submerged surface needs a layer or a load above it)";
         continue;
       }
+      // A start outside the ellipse the preconsolidation gives is taken as on
+      // the ellipse through it.
       const double m = clay->parameters.critical_state_slope;
       point.committed = {
           point.start_stress,
-          std::max(clay->yield_size(start), ellipse_through(point.start_stress, m))};
+          std::max(clay->yield_size(start), yield_size_through(point.start_stress, m))};
       const auto start_update =
           cam_clay_update(clay->parameters, point.committed, PlaneTensor{});
       point.trial = point.committed;
@@ -75,12 +80,7 @@ void BiotProblem::Impl::prepare_clays() {
       clay_points.push_back(point);
     }
   }
-  // Every process throws the same error, so none waits in a collective call.
-  const unsigned int mine = problem.empty() ? numbers::invalid_unsigned_int
-                                            : Utilities::MPI::this_mpi_process(comm);
-  const unsigned int first = Utilities::MPI::min(mine, comm);
-  if (first != numbers::invalid_unsigned_int)
-    throw InputError(Utilities::MPI::broadcast(comm, problem, first));
+  throw_first_problem<InputError>(problem);
   step_start.reinit(owned, relevant, comm);
 }
 
@@ -111,17 +111,23 @@ void BiotProblem::Impl::record_step_start_strains() {
 
 unsigned int BiotProblem::Impl::update_clay_points() {
   unsigned int yielding = 0;
-  for_each_clay_cell_strain(
-      solution, [&yielding](ClayPoint& point, const PlaneTensor& e) {
-        PlaneTensor increment;
-        for (unsigned int k = 0; k < 4; ++k)
-          increment[k] = e[k] - point.start_strain[k];
-        const auto u = cam_clay_update(*point.parameters, point.committed, increment);
-        point.strain = e;
-        point.trial = u.state;
-        point.tangent = u.tangent;
-        yielding += u.yielded;
-      });
+  std::string failure; // the first point of this process whose update failed
+  for_each_clay_cell_strain(solution, [&](ClayPoint& point, const PlaneTensor& e) {
+    PlaneTensor increment;
+    for (unsigned int k = 0; k < 4; ++k)
+      increment[k] = e[k] - point.start_strain[k];
+    try {
+      const auto u = cam_clay_update(*point.parameters, point.committed, increment);
+      point.strain = e;
+      point.trial = u.state;
+      point.tangent = u.tangent;
+      yielding += u.yielded;
+    } catch (const SolverError& error) {
+      if (failure.empty())
+        failure = error.what();
+    }
+  });
+  throw_first_problem<SolverError>(failure);
   return Utilities::MPI::sum(yielding, comm);
 }
 
@@ -167,7 +173,7 @@ BiotProblem::clay_cell_state(unsigned int active_cell_index) const {
     for (unsigned int k = 0; k < 4; ++k)
       mean.stress[k] += c.stress[k];
     mean.yield_size += c.yield_size;
-    mean.yield_ratio += c.yield_size / ellipse_through(c.stress, slope);
+    mean.yield_ratio += c.yield_size / yield_size_through(c.stress, slope);
   }
   const double n = static_cast<double>(end - first);
   for (auto& v : mean.stress)

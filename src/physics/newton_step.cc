@@ -1,5 +1,6 @@
 // A step with a nonlinear skeleton (a Cam Clay region): Newton's method on the
-// coupled system, a new tangent and factorisation per iteration.
+// coupled system, a new tangent per iteration, solved with a kept LU factor as
+// GMRES's preconditioner while it serves.
 #include "biot_problem_impl.h"
 
 #include "settlewell/core/errors.h"
@@ -166,7 +167,6 @@ void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& r
     add_newton_correction(report);
     ++report.newton_iterations;
   }
-  matrix_dt = std::numeric_limits<double>::quiet_NaN();
   ++report.drain_rounds;
 }
 
