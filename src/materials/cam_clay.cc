@@ -54,10 +54,6 @@ double yield_size_from_vertical_preconsolidation(double vertical_preconsolidatio
   return p + q * q / (m * m * p);
 }
 
-double double_contraction(const PlaneTensor& a, const PlaneTensor& b) {
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
-}
-
 double yield_size_through(const PlaneTensor& stress, double m) {
   const double p = mean_effective_stress(stress);
   const double q = deviator_stress(stress);

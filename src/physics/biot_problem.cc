@@ -346,13 +346,19 @@ BiotProblem::~BiotProblem() = default;
 
 StepReport BiotProblem::advance_to(double t_new) {
   Impl& m = *impl_;
-  const double dt = t_new - m.time;
-  if (!(dt > 0.0))
+  if (!(t_new > m.time))
     throw InternalError(
         "time steps must move forward (from t = " + std::to_string(m.time) + " s to " +
         std::to_string(t_new) + " s)");
   if (!m.settled)
     throw InternalError("a gravity-loading start must be settled before the first step");
+  // The same on every process.
+  return m.setup.clays.empty() ? m.take_step(t_new) : m.take_clay_step(t_new, 0);
+}
+
+StepReport BiotProblem::Impl::take_step(double t_new) {
+  Impl& m = *this;
+  const double dt = t_new - m.time;
   StepReport report;
   report.time = t_new;
   report.dt = dt;
@@ -373,8 +379,11 @@ StepReport BiotProblem::advance_to(double t_new) {
   // settles; without one, the loop runs once.
   constexpr unsigned int max_drain_rounds = 30;
   const bool newton = !m.setup.clays.empty(); // the same on every process
-  if (newton)
+  if (newton) {
     m.step_start = m.solution;
+    if (new_geometry)
+      m.newton_previous_dt = 0.0; // no trend to carry on
+  }
   while (true) {
     if (newton)
       m.solve_newton_step(t_new, dt_eff, report);
@@ -388,8 +397,11 @@ StepReport BiotProblem::advance_to(double t_new) {
       break;
     }
   }
-  if (newton)
+  if (newton) {
     m.commit_clay_points();
+    m.newton_previous = m.step_start;
+    m.newton_previous_dt = dt;
+  }
   m.time = t_new;
   m.update_reported();
   return report;

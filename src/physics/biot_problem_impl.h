@@ -248,6 +248,29 @@ struct BiotProblem::Impl {
   bool newton_factor_ready = false; ///< the solver holds a factor of some tangent
   /// One step by Newton's method (replaces solve_step when there are clays).
   void solve_newton_step(double t_new, double dt, StepReport& report);
+  /// One step from `time` to t_new (advance_to after its checks).
+  StepReport take_step(double t_new);
+  /// take_step for a run with clays: a step whose Newton iteration or material
+  /// update fails is taken again as two halves, down to setup.newton.max_halvings
+  /// halvings; past that the state stays at the last good one and the error is
+  /// raised. Collective.
+  StepReport take_clay_step(double t_new, unsigned int halvings);
+  /// What a step changes before it is accepted (the state and its history).
+  struct StepHistory {
+    LA::MPI::Vector solution, previous_solution;
+    double previous_dt = 0.0;
+    unsigned int euler_steps_left = 0;
+    std::set<types::global_dof_index> draining;
+  };
+  StepHistory kept_history() const;
+  void restore(const StepHistory& kept);
+  /// Every clay point's trial state back to its committed one, with the elastic
+  /// tangent there.
+  void reset_clay_trials();
+  /// The last accepted step's start and length (0: none to carry on): the first
+  /// iterate of a Newton step carries the last step's trend on.
+  LA::MPI::Vector newton_previous;
+  double newton_previous_dt = 0.0;
   std::vector<std::size_t> clay_offset; ///< by active cell index, into clay_points
   std::vector<ClayPoint> clay_points;
   unsigned int clay_points_per_cell = 0;

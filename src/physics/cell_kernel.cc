@@ -145,23 +145,35 @@ void CellKernel::add_tangent_and_force(const std::vector<PlaneTangent>& tangents
                                        FullMatrix<double>& matrix,
                                        Vector<double>& vector) {
   update_cell_values();
-  std::vector<PlaneTensor> shape(u_dofs_.size()), stress(u_dofs_.size());
+  // The u block in a dense scratch (rows of u dofs), added to `matrix` once.
+  const unsigned int n = u_dofs_.size();
+  std::vector<PlaneTensor> shape(n), stress(n);
+  block_.assign(n * n, 0.0);
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
     evaluate_shapes(q);
     const double w = weight(fe_values_, q);
     const PlaneTangent& d = tangents[q];
-    for (unsigned int b = 0; b < u_dofs_.size(); ++b) {
+    for (unsigned int b = 0; b < n; ++b) {
       shape[b] = plane(strain_[u_dofs_[b]], hoop_[u_dofs_[b]]);
       for (unsigned int r = 0; r < 4; ++r)
         stress[b][r] = w * (d[r][0] * shape[b][0] + d[r][1] * shape[b][1] +
                             d[r][2] * shape[b][2] + d[r][3] * shape[b][3]);
+      // The shear entry enters a : b twice.
+      stress[b][3] *= 2.0;
     }
-    for (unsigned int a = 0; a < u_dofs_.size(); ++a) {
+    for (unsigned int a = 0; a < n; ++a) {
       vector(u_dofs_[a]) -= w * double_contraction(shape[a], stresses[q]);
-      for (unsigned int b = 0; b < u_dofs_.size(); ++b)
-        matrix(u_dofs_[a], u_dofs_[b]) += double_contraction(shape[a], stress[b]);
+      const PlaneTensor& sa = shape[a];
+      double* row = &block_[a * n];
+      for (unsigned int b = 0; b < n; ++b) {
+        const PlaneTensor& sb = stress[b];
+        row[b] += sa[0] * sb[0] + sa[1] * sb[1] + sa[2] * sb[2] + sa[3] * sb[3];
+      }
     }
   }
+  for (unsigned int a = 0; a < n; ++a)
+    for (unsigned int b = 0; b < n; ++b)
+      matrix(u_dofs_[a], u_dofs_[b]) += block_[a * n + b];
 }
 
 void CellKernel::mirror_into(FullMatrix<double>& out) const {

@@ -136,6 +136,14 @@ void BiotProblem::Impl::commit_clay_points() {
     point.committed = point.trial;
 }
 
+void BiotProblem::Impl::reset_clay_trials() {
+  for (auto& point : clay_points) {
+    point.trial = point.committed;
+    point.tangent =
+        cam_clay_update(*point.parameters, point.committed, PlaneTensor{}).tangent;
+  }
+}
+
 void BiotProblem::Impl::add_clay_terms(CellKernel& kernel,
                                        const DoFHandler<2>::active_cell_iterator& cell,
                                        FullMatrix<double>& cell_matrix,

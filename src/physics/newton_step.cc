@@ -132,18 +132,26 @@ void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& r
   Timer timer;
   set_drain_values(t_new);
   make_constraints(constraint_inputs(), t_new, constraints);
-  // Start from the step's start with the step's prescribed values.
+  // The first iterate carries the last step's trend on, x_n + r (x_n - x_{n-1})
+  // with r = dt/dt_n (measured on the demo: a quarter fewer iterations), with the
+  // step's prescribed values.
   owned_solution = step_start;
+  const bool predicted = setup.newton.carry_trend && newton_previous_dt > 0.0;
+  if (predicted) {
+    const double r = (t_new - time) / newton_previous_dt;
+    owned_solution.sadd(1.0 + r, -r, newton_previous);
+  }
   constraints.distribute(owned_solution);
   solution = owned_solution;
   record_step_start_strains();
   const auto& newton = setup.newton;
   for (unsigned int k = 0;; ++k) {
     timer.restart();
-    // The first iteration keeps the committed states and the tangents of the last
-    // step's end (elastoplastic where the clay was yielding): the strain has not
-    // moved yet, and an elastic tangent there would overshoot.
-    if (k > 0)
+    // Without a trend, the first iteration keeps the committed states and the
+    // tangents of the last step's end (elastoplastic where the clay was
+    // yielding): the strain has not moved yet, and an elastic tangent there would
+    // overshoot.
+    if (k > 0 || predicted)
       report.yielding_points = update_clay_points();
     assemble_newton_system(t_new, dt, k == 0);
     const FieldNorms r = newton_residual();
@@ -157,10 +165,15 @@ void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& r
     report.newton_residuals.push_back(relative);
     if (k > 0 && relative <= newton.tolerance)
       break;
-    if (k == newton.max_iterations) {
+    // Far above the step's start and above the largest drive (or not a number):
+    // diverging, no use going on.
+    const bool diverging =
+        !(relative <= std::max(1.0, 1e4 * report.newton_residuals.front()));
+    if (k == newton.max_iterations || diverging) {
       std::ostringstream os;
-      os << "Newton's method did not converge in the step to t = " << t_new / 86400.0
-         << " days: after " << k << " iterations the residual is " << relative
+      os << "Newton's method " << (diverging ? "diverged" : "did not converge")
+         << " in the step to t = " << t_new / 86400.0 << " days: after " << k
+         << " iterations the residual is " << relative
          << " of the largest step's (tolerance " << newton.tolerance << ")";
       throw SolverError(os.str());
     }

@@ -52,9 +52,9 @@ step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
                              "iterations", "monitors_s", "output_s"};
   if (digs) // solves of the step until the drained surface's active set settled
     h.push_back("drain_rounds");
-  if (clays) // Newton's method: its solves, new factors, yielding points, residual
-    h.insert(h.end(), {"newton_iterations", "factorisations", "yielding_points",
-                       "newton_residual_relative"});
+  if (clays) // Newton's method: solves, new factors, sub-steps, yielding points, residual
+    h.insert(h.end(), {"newton_iterations", "factorisations", "sub_steps",
+                       "yielding_points", "newton_residual_relative"});
   for (const auto& m : monitors)
     for (const auto& column : m->step_columns())
       h.push_back(column);
@@ -85,7 +85,7 @@ std::vector<double> step_row(const StepReport& r,
     row.push_back(double(r.drain_rounds));
   if (clays)
     row.insert(row.end(), {double(r.newton_iterations), double(r.factorisations),
-                           double(r.yielding_points),
+                           double(r.sub_steps), double(r.yielding_points),
                            r.newton_residuals.empty() ? 0.0 : r.newton_residuals.back()});
   return row;
 }
@@ -171,6 +171,9 @@ struct Simulation::Impl {
                         CsvFile& steps);
   void start(const monitors::RunView& view);
   void step(const monitors::RunView& view, CsvFile& steps);
+  /// After a step failed: the outputs of the last accepted state (`stepped`: a
+  /// step of this run was accepted), unless that was an output time.
+  void keep_last_state(const monitors::RunView& view, bool stepped);
   void settle_under_gravity(bool show_progress);
   void check_initial_balance();
   void add_initial_state(toml::table& results) const;
@@ -259,6 +262,14 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
                !model.setup.clays.empty(), monitors_seconds, clock.wall_time());
   row.insert(row.end(), columns.begin(), columns.end());
   steps.row(row);
+}
+
+void Simulation::Impl::keep_last_state(const monitors::RunView& view, bool stepped) {
+  if (!stepped || schedule.is_output_time(view.step.time))
+    return;
+  TimerOutput::Scope part(timer, "monitors and output");
+  for (auto& m : monitors)
+    m->at_output_time(view);
 }
 
 // A gravity-loading start: its solve balances the start state; its movement is the
@@ -454,10 +465,13 @@ RunSummary Simulation::Impl::run_steps(const RunOptions& options,
   Progress progress(std::cerr, options.progress_in_place, times.size(),
                     options.show_progress && is_root(m.comm), header.step);
   for (std::size_t n = header.step; n < times.size(); ++n) {
-    {
+    try {
       TimerOutput::Scope part(m.timer, "time steps (assembly and solve)");
       m.reference_displacements();
       report = m.problem->advance_to(times[n]);
+    } catch (const SolverError&) {
+      m.keep_last_state(view, n > header.step);
+      throw;
     }
     check_finite(*m.problem, n + 1);
     view.step_number = n + 1;

@@ -23,6 +23,7 @@
 // carry the tolerance that the strain reached allows, stated beside each.
 #include "settlewell/core/units.h"
 #include "settlewell/materials/cam_clay.h"
+#include "settlewell/verification/case_support.h"
 #include "settlewell/verification/cases.h"
 
 #include <cmath>
@@ -177,7 +178,7 @@ void drained_rows(const CamClayParameters& m, std::vector<CheckRow>& rows) {
   // Newton's method with the consistent tangent converges quadratically: the
   // observed order of the stress-controlled driver (the lowest over all steps).
   rows.push_back(relative_row(name, "driver's Newton order with the tangent (lowest)",
-                              slowest, 2.0, 0.25, "Newton's method, quadratic order"));
+                              slowest, 2.0, 0.25, newton_source));
 }
 
 void oedometer_rows(const CamClayParameters& m, std::vector<CheckRow>& rows) {
@@ -205,7 +206,7 @@ void oedometer_rows(const CamClayParameters& m, std::vector<CheckRow>& rows) {
                               "oedometer: strain per log10 cycle, sigma'v to " +
                                   std::to_string(int(last.axial_strain)) + " kPa",
                               slope, cc / m.specific_volume, 1e-6,
-                              "e-log line: Cc/(1 + e0)"));
+                              "e-log line Cc/(1 + e0), Terzaghi & Peck (1948)"));
   const double p_loaded = last.p;
   const double strain_loaded = volumetric;
   const auto unloading = oedometer(m, s, 5e-5, 100, volumetric);

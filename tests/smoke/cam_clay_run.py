@@ -34,8 +34,8 @@ def main():
         fail("the water balance did not close:\n" + run.stdout)
     with open(folder / "steps.csv", newline="") as f:
         rows = list(csv.DictReader(f))
-    for column in ("newton_iterations", "factorisations", "yielding_points",
-                   "newton_residual_relative"):
+    for column in ("newton_iterations", "factorisations", "sub_steps",
+                   "yielding_points", "newton_residual_relative"):
         if column not in rows[0]:
             fail(f"steps.csv has no column {column}")
     worst = max(float(r["newton_residual_relative"]) for r in rows)

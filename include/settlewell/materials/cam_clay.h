@@ -82,7 +82,9 @@ CamClayUpdate cam_clay_update(const CamClayParameters& parameters,
 double mean_effective_stress(const PlaneTensor& stress);
 double deviator_stress(const PlaneTensor& stress);
 /// a : b of two PlaneTensors (the shear counted twice, for xy and yx).
-double double_contraction(const PlaneTensor& a, const PlaneTensor& b);
+inline double double_contraction(const PlaneTensor& a, const PlaneTensor& b) {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + 2.0 * a[3] * b[3];
+}
 /// p'c of the yield ellipse through a stress (p' > 0), kPa: p' + q^2/(M^2 p').
 double yield_size_through(const PlaneTensor& stress, double critical_state_slope);
 

@@ -33,6 +33,9 @@ struct StepReport {
   unsigned int factorisations = 0; ///< in this step (Newton's method)
   unsigned int yielding_points = 0;
   std::vector<double> newton_residuals;
+  /// Steps the step was taken in: 1, or more after a failed Newton step was
+  /// taken again in halves.
+  unsigned int sub_steps = 1;
 };
 
 /// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, BDF2 in time

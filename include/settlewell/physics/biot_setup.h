@@ -86,6 +86,12 @@ struct NewtonSettings {
   /// it runs GMRES with a kept factor (an inexact Newton step; a new factor
   /// solves exactly).
   double linear_tolerance = 1e-4;
+  /// A step that fails is taken again as two halves, at most this many times
+  /// over (down to 1/2^max_halvings of the step).
+  unsigned int max_halvings = 5;
+  /// Each step's first iterate carries the last step's trend on (else it starts
+  /// from the last step's state).
+  bool carry_trend = true;
 };
 
 /// Everything the Biot core needs besides the mesh. Plain data, no parsing.

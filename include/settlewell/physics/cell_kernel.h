@@ -117,6 +117,7 @@ private:
   dealii::FEFaceValues<2> face_values_;
   std::vector<unsigned int> component_;
   std::vector<unsigned int> u_dofs_, p_dofs_; ///< local indices of each field
+  std::vector<double> block_;                 ///< scratch for add_tangent_and_force
   // Shape data at one quadrature point.
   std::vector<dealii::SymmetricTensor<2, 2>> strain_;
   std::vector<double> hoop_, divergence_, phi_p_;

@@ -32,4 +32,10 @@ double crossing_time(const std::vector<double>& t,
 /// Formats a number for a quantity label ("Tv=0.197").
 std::string label(const std::string& name, double value);
 
+/// The source of the Newton-order rows: quadratic convergence of Newton's method
+/// with the exact Jacobian, which the consistent tangent of an implicit return
+/// provides.
+inline const char* const newton_source =
+    "Dennis & Schnabel (1983) thm 5.2.1, from memory; tangent: Simo & Taylor (1985)";
+
 } // namespace settlewell::verification
