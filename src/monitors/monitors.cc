@@ -1,4 +1,5 @@
 #include "base_stability.h"
+#include "clay_yield.h"
 #include "columns.h"
 #include "extremes.h"
 #include "field_series.h"
@@ -38,6 +39,8 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   if (WellLevels::wanted(run.scenario))
     list.push_back(std::make_unique<WellLevels>(run));
   list.push_back(std::make_unique<Extremes>(run));
+  if (run.problem.has_clays())
+    list.push_back(std::make_unique<ClayYield>());
   list.push_back(std::make_unique<Plausibility>(run));
   if (run.scenario.section || !run.problem.setup().excavation.empty())
     list.push_back(std::make_unique<BaseStability>(run));

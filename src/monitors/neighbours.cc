@@ -49,11 +49,12 @@ const NeighbourState* worst_of(const std::string& name,
 toml::table worst_table(const scenario::Neighbour& spec,
                         const std::vector<NeighbourState>& history) {
   const NeighbourState& w = *worst_of(spec.name, history);
-  double largest_settlement = 0.0, largest_distortion = 0.0;
+  double largest_settlement = 0.0, largest_distortion = 0.0, at_end = 0.0;
   for (const auto& st : history)
     if (st.name == spec.name) {
       largest_settlement = std::max(largest_settlement, st.distortion.max_settlement);
       largest_distortion = std::max(largest_distortion, st.distortion.angular_distortion);
+      at_end = st.distortion.max_settlement; // the history is in time order
     }
   const auto& d = w.distortion;
   toml::table t{{"name", spec.name},
@@ -61,6 +62,7 @@ toml::table worst_table(const scenario::Neighbour& spec,
                 {"x_to_m", spec.x_to},
                 {"foundation_level_m", spec.foundation_level},
                 {"largest_settlement_m", largest_settlement},
+                {"settlement_at_end_m", at_end},
                 {"largest_angular_distortion", largest_distortion},
                 {"time_days", to_days(w.time)},
                 {"max_settlement_m", d.max_settlement},

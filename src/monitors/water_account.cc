@@ -99,11 +99,15 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
   const auto exchange = problem.water_exchange();
   const double net_outflow = exchange.net_outflow;
   const double out = net_outflow * dt;
+  // The storage change of the step's last sub-step, as a rate over the step (like
+  // the discharges).
   const auto storage = problem.storage_change();
-  const double stored = storage.net;
+  const double to_step = view.step.last_dt > 0.0 ? dt / view.step.last_dt : 1.0;
+  const double stored = to_step * storage.net;
   storage_release_ -= stored;
   final_storage_release_ = -stored / dt;
-  largest_moved_ = std::max({largest_moved_, exchange.gross * dt, storage.gross});
+  largest_moved_ =
+      std::max({largest_moved_, exchange.gross * dt, to_step * storage.gross});
   const double scale = std::max(largest_moved_, 1e-30);
   const double error = std::abs(out + stored) / scale;
   worst_balance_ = std::max(worst_balance_, error);

@@ -362,6 +362,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   StepReport report;
   report.time = t_new;
   report.dt = dt;
+  report.last_dt = dt;
   report.drain_rounds = 0;
   bool new_geometry = m.excavate(m.time);
   new_geometry = m.fit_springs(m.time) || new_geometry;

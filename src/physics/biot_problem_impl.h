@@ -197,6 +197,9 @@ struct BiotProblem::Impl {
   struct ClayPoint {
     const CamClayParameters* parameters = nullptr; ///< in setup.clays
     PlaneTensor start_stress{};                    ///< the start state's effective stress
+    double start_yield_size = 0.0;                 ///< p'c at the start, kPa
+    Point<2> x;                                    ///< where it is, m
+    types::material_id region = 0;
     CamClayState committed, trial;
     PlaneTangent tangent{};
     PlaneTensor start_strain{}; ///< at the step's start (since t = 0)

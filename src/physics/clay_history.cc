@@ -77,6 +77,9 @@ void BiotProblem::Impl::prepare_clays() {
           cam_clay_update(clay->parameters, point.committed, PlaneTensor{});
       point.trial = point.committed;
       point.tangent = start_update.tangent;
+      point.start_yield_size = point.committed.yield_size;
+      point.x = x;
+      point.region = cell->material_id();
       clay_points.push_back(point);
     }
   }
@@ -189,6 +192,45 @@ BiotProblem::clay_cell_state(unsigned int active_cell_index) const {
   mean.yield_size /= n;
   mean.yield_ratio /= n;
   return mean;
+}
+
+std::vector<BiotProblem::ClayYield> BiotProblem::clay_yield() const {
+  const Impl& m = *impl_;
+  const MPI_Comm comm = m.comm;
+  constexpr double inf = std::numeric_limits<double>::infinity();
+  std::vector<ClayYield> out;
+  for (const auto& [name, clay] : m.setup.clays) {
+    const types::material_id region = m.mesh.names.region_id(name);
+    ClayYield y{name, 0, 0, inf, -inf, inf, -inf, 0.0};
+    for (const auto& point : m.clay_points) {
+      if (point.region != region)
+        continue;
+      ++y.points;
+      const double change = point.committed.yield_size - point.start_yield_size;
+      if (!(std::abs(change) > 1e-9 * point.start_yield_size))
+        continue;
+      ++y.yielded;
+      y.x_from = std::min(y.x_from, point.x[0]);
+      y.x_to = std::max(y.x_to, point.x[0]);
+      y.y_from = std::min(y.y_from, point.x[1]);
+      y.y_to = std::max(y.y_to, point.x[1]);
+      if (std::abs(change) > std::abs(y.largest_change))
+        y.largest_change = change;
+    }
+    y.points = Utilities::MPI::sum(y.points, comm);
+    y.yielded = Utilities::MPI::sum(y.yielded, comm);
+    y.x_from = Utilities::MPI::min(y.x_from, comm);
+    y.y_from = Utilities::MPI::min(y.y_from, comm);
+    y.x_to = Utilities::MPI::max(y.x_to, comm);
+    y.y_to = Utilities::MPI::max(y.y_to, comm);
+    // The change of the largest size over all processes, with its sign.
+    const double largest = Utilities::MPI::max(std::abs(y.largest_change), comm);
+    const double signed_here =
+        std::abs(y.largest_change) == largest ? y.largest_change : -inf;
+    y.largest_change = Utilities::MPI::max(signed_here, comm);
+    out.push_back(y);
+  }
+  return out;
 }
 
 bool BiotProblem::has_clays() const {

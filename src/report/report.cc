@@ -487,6 +487,57 @@ void stages_section(Document& d, const toml::table& r) {
           "Wall deflection and bending moment at the end of each stage");
 }
 
+/// Which clays with a stress history yielded, and where.
+void clay_section(Document& d, const toml::table& r) {
+  const auto* clays = r["clay_yield"].as_array();
+  if (clays == nullptr || clays->empty())
+    return;
+  Section& s = d.add("Clays with a stress history");
+  std::vector<std::string> items;
+  for (const auto& node : *clays) {
+    const auto& c = *node.as_table();
+    const std::string name = text(c["region"]);
+    if (get(c["yielded_points"]) == 0.0) {
+      items.push_back(name + " stayed inside its yield surface everywhere: it "
+                             "recompressed (Cr) and did not yield.");
+      continue;
+    }
+    const double change = get(c["largest_change_of_yield_size_kpa"]);
+    items.push_back(name + " yielded in " + fixed(100 * get(c["yielded_share"]), 0) +
+                    " % of its points, within x " + num(get(c["x_from_m"])) + " to " +
+                    num(get(c["x_to_m"])) + " m and elevation " +
+                    num(get(c["elevation_from_m"])) + " to " +
+                    num(get(c["elevation_to_m"])) + " m; its preconsolidation (p'c) " +
+                    (change >= 0 ? "rose" : "fell") + " by up to " +
+                    significant(std::abs(change)) + " kPa. Settlement there follows Cc.");
+  }
+  s.list(items);
+  s.paragraph("Modified Cam Clay (Roscoe & Burland 1968): a point has yielded when its "
+              "yield size p'c has changed from the start's. The yield_size and "
+              "yield_ratio fields show where (yield_ratio 1: yielding at that time).");
+}
+
+/// Where the settlement under a building fell back by the end (the heads rose
+/// again): how much of its largest remains.
+void recovery_paragraph(Section& s, const toml::array& neighbours) {
+  std::vector<std::string> items;
+  for (const auto& node : neighbours) {
+    const auto& n = *node.as_table();
+    const double largest = get(n["largest_settlement_m"]);
+    const double end = get(n["settlement_at_end_m"], largest);
+    if (!(largest > 0.0) || end >= 0.98 * largest)
+      continue;
+    items.push_back(text(n["name"]) + ": " + significant(1000 * end) +
+                    " mm at the end of " + significant(1000 * largest) + " mm at most, " +
+                    fixed(100 * end / largest, 0) + " % of it");
+  }
+  if (items.empty())
+    return;
+  s.paragraph("The settlement fell back after its largest value (the heads rose "
+              "again); what remains at the end of the run:");
+  s.list(items);
+}
+
 void neighbours_section(Document& d, const toml::table& r) {
   const auto* ns = r["neighbours"].as_array();
   if (ns == nullptr || ns->empty())
@@ -523,6 +574,7 @@ void neighbours_section(Document& d, const toml::table& r) {
                       {num(get(n["time_days"]), 6)}});
   }
   s.table(t);
+  recovery_paragraph(s, *ns);
   s.paragraph(
       "Measures as defined by Burland & Wroth (1974): tilt from the ends, angular "
       "distortion as the largest slope minus the tilt, deflection ratio from the "
@@ -692,6 +744,7 @@ void write_report(const std::string& run, std::ostream& log) {
   discharge_section(d, r, unit);
   base_section(d, r, run, plot_problem.empty());
   stages_section(d, r);
+  clay_section(d, r);
   neighbours_section(d, r);
   columns_section(d, r);
   views_section(d, run);

@@ -36,6 +36,10 @@ struct StepReport {
   /// Steps the step was taken in: 1, or more after a failed Newton step was
   /// taken again in halves.
   unsigned int sub_steps = 1;
+  /// s: the length of the step's last sub-step (dt when it was taken whole). The
+  /// water balance and storage after a step are rates at its end; times dt they
+  /// give the step's volumes.
+  double last_dt = 0.0;
 };
 
 /// Quasi-static Biot consolidation on a mesh: Taylor-Hood Q2^2 x Q1, BDF2 in time
@@ -151,6 +155,16 @@ public:
   std::optional<ClayCellState> clay_cell_state(unsigned int active_cell_index) const;
   /// Whether some region has a Cam Clay skeleton.
   bool has_clays() const;
+  /// Where a Cam Clay region has yielded so far: its quadrature points whose yield
+  /// size p'c differs from the start's (they went past the yield surface at some
+  /// time), the box that holds them, and the largest change of p'c. Collective.
+  struct ClayYield {
+    std::string region;
+    unsigned int points = 0, yielded = 0;
+    double x_from = 0.0, x_to = 0.0, y_from = 0.0, y_to = 0.0; ///< m, of the yielded
+    double largest_change = 0.0; ///< of p'c, kPa (positive: it grew)
+  };
+  std::vector<ClayYield> clay_yield() const;
 
   /// Whether the cell of this active index has been taken out by excavation.
   bool is_removed(unsigned int active_cell_index) const;
