@@ -37,7 +37,10 @@ CsvFile::CsvFile(const std::string& path,
   check_stream(*out_, path);
   for (std::size_t i = 0; i < header.size(); ++i)
     *out_ << (i ? "," : "") << csv_field(header[i]);
-  *out_ << '\n';
+  // On disk at once: a checkpoint records the length written so far, also of a
+  // table that never gets a row (a run without output points).
+  *out_ << '\n' << std::flush;
+  check_stream(*out_, path);
 }
 
 void CsvFile::row(const std::vector<double>& values,

@@ -270,6 +270,11 @@ struct BiotProblem::Impl {
   /// Every clay point's trial state back to its committed one, with the elastic
   /// tangent there.
   void reset_clay_trials();
+  /// Per active cell, for a checkpoint: the committed stress (4) and yield size of
+  /// each point of an owned clay cell, empty for any other cell.
+  std::vector<std::vector<double>> clay_cell_values() const;
+  /// Sets the committed states from clay_cell_values (resume). Collective.
+  void load_clay_cell_values(const std::vector<std::vector<double>>& values);
   /// The last accepted step's start and length (0: none to carry on): the first
   /// iterate of a Newton step carries the last step's trend on.
   LA::MPI::Vector newton_previous;

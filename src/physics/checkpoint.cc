@@ -4,7 +4,9 @@
 // number of processes: the solution and the one before it (for BDF2), the drained
 // surface's active set (as a dof
 // vector of flags), the displacement reported movements start from and, per dug
-// cell, the forces it released. The few global
+// cell, the forces it released; per clay cell, its points' committed stress and
+// yield size, and the start of the last step (its trend starts the next Newton
+// step). The few global
 // values go into the run's state archive. Everything else (matrix, factorisation,
 // constraints) is rebuilt by the first step after loading.
 #include "biot_problem_impl.h"
@@ -36,14 +38,18 @@ const parallel::distributed::Triangulation<2>& triangulation_of(const Mesh& mesh
 
 void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file) const {
   const Impl& m = *impl_;
-  a.mark("biot problem");
+  a.mark("biot problem 2");
   double time = m.time;
   std::vector<bool> excavated = m.excavated;
   std::vector<double> fitted = m.spring_fitted_at;
   bool settled = m.settled, has_reference = m.has_reference;
   double previous_dt = m.previous_dt;
   unsigned int euler_steps_left = m.euler_steps_left;
-  a& time& excavated& fitted& settled& has_reference& previous_dt& euler_steps_left;
+  // Newton's scale: the largest residual a step started with so far.
+  double newton_previous_dt = m.newton_previous_dt, drive_u = m.largest_drive.u,
+         drive_p = m.largest_drive.p;
+  a& time& excavated& fitted& settled& has_reference& previous_dt& euler_steps_left&
+      newton_previous_dt& drive_u& drive_p;
 
   LA::MPI::Vector owned_flags(m.owned, m.comm);
   for (const auto d : m.draining)
@@ -59,9 +65,12 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   LA::MPI::Vector previous(m.owned, m.relevant, m.comm);
   if (m.previous_dt > 0.0)
     previous = m.previous_solution;
+  LA::MPI::Vector trend_start(m.owned, m.relevant, m.comm);
+  if (m.newton_previous_dt > 0.0)
+    trend_start = m.newton_previous;
   DofTransfer dofs(m.dof_handler);
-  dofs.prepare_for_serialization(
-      std::vector<const LA::MPI::Vector*>{&m.solution, &flags, &reference, &previous});
+  dofs.prepare_for_serialization(std::vector<const LA::MPI::Vector*>{
+      &m.solution, &flags, &reference, &previous, &trend_start});
 
   const auto& tria = triangulation_of(m.mesh);
   CellValues released(tria.n_active_cells());
@@ -74,27 +83,31 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   }
   CellTransfer cells(tria, /*transfer_variable_size_data=*/true);
   cells.prepare_for_serialization(released);
+  const CellValues clays = m.clay_cell_values();
+  CellTransfer clay_cells(tria, /*transfer_variable_size_data=*/true);
+  clay_cells.prepare_for_serialization(clays);
   tria.save(mesh_file);
 }
 
 void BiotProblem::load_checkpoint(StateArchive& a) {
   Impl& m = *impl_;
-  if (!m.setup.clays.empty())
-    throw InputError("a run with a Cam Clay material cannot be resumed yet: its "
-                     "checkpoints do not keep the clay's stress history; run it again "
-                     "from the start");
-  a.mark("biot problem");
+  a.mark("biot problem 2");
   a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference& m.previous_dt& m
-      .euler_steps_left;
+      .euler_steps_left& m.newton_previous_dt& m.largest_drive.u& m.largest_drive.p;
   if (m.excavated.size() != m.setup.excavation.size() ||
       m.spring_fitted_at.size() != m.setup.springs.size())
     throw InputError("the checkpoint's digging or props do not match the scenario's");
 
   LA::MPI::Vector solution(m.owned, m.comm), owned_flags(m.owned, m.comm),
-      reference(m.owned, m.comm), previous(m.owned, m.comm);
+      reference(m.owned, m.comm), previous(m.owned, m.comm), trend_start(m.owned, m.comm);
   DofTransfer dofs(m.dof_handler);
-  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags, &reference, &previous};
+  std::vector<LA::MPI::Vector*> vectors{&solution, &owned_flags, &reference, &previous,
+                                        &trend_start};
   dofs.deserialize(vectors);
+  if (m.newton_previous_dt > 0.0) {
+    m.newton_previous.reinit(m.owned, m.comm);
+    m.newton_previous = trend_start;
+  }
   m.previous_solution.reinit(m.owned, m.comm);
   m.previous_solution = previous;
   m.owned_solution = solution;
@@ -110,6 +123,10 @@ void BiotProblem::load_checkpoint(StateArchive& a) {
   CellValues released(tria.n_active_cells());
   CellTransfer cells(tria, /*transfer_variable_size_data=*/true);
   cells.deserialize(released);
+  CellValues clays(tria.n_active_cells());
+  CellTransfer clay_cells(tria, /*transfer_variable_size_data=*/true);
+  clay_cells.deserialize(clays);
+  m.load_clay_cell_values(clays);
   if (!m.excavated.empty())
     m.mark_removed_cells();
   std::vector<std::pair<double, Impl::ReleasedCell>> ordered;

@@ -6,6 +6,7 @@
 
 #include "settlewell/core/errors.h"
 
+#include <algorithm>
 #include <limits>
 
 namespace settlewell {
@@ -137,6 +138,45 @@ unsigned int BiotProblem::Impl::update_clay_points() {
 void BiotProblem::Impl::commit_clay_points() {
   for (auto& point : clay_points)
     point.committed = point.trial;
+}
+
+std::vector<std::vector<double>> BiotProblem::Impl::clay_cell_values() const {
+  std::vector<std::vector<double>> values(mesh.triangulation->n_active_cells());
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned() || !has_clay_points(cell))
+      continue;
+    auto& v = values[cell->active_cell_index()];
+    const ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
+    for (unsigned int q = 0; q < clay_points_per_cell; ++q, ++point) {
+      v.insert(v.end(), point->committed.stress.begin(), point->committed.stress.end());
+      v.push_back(point->committed.yield_size);
+    }
+  }
+  return values;
+}
+
+void BiotProblem::Impl::load_clay_cell_values(
+    const std::vector<std::vector<double>>& values) {
+  constexpr unsigned int per_point = 5;
+  std::string problem;
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned())
+      continue;
+    const auto& v = values[cell->active_cell_index()];
+    const std::size_t expected = has_clay_points(cell) ? per_point * clay_points_per_cell : 0;
+    if (v.size() != expected) {
+      problem = "the checkpoint's clay states do not fit the scenario's clay regions";
+      continue;
+    }
+    ClayPoint* point =
+        expected == 0 ? nullptr : &clay_points[clay_offset[cell->active_cell_index()]];
+    for (std::size_t i = 0; i < expected; i += per_point, ++point) {
+      std::copy(v.begin() + i, v.begin() + i + 4, point->committed.stress.begin());
+      point->committed.yield_size = v[i + 4];
+    }
+  }
+  throw_first_problem<InputError>(problem);
+  reset_clay_trials();
 }
 
 void BiotProblem::Impl::reset_clay_trials() {
