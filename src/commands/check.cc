@@ -84,15 +84,23 @@ std::string clay_text(const scenario::Material::CamClay& c) {
      << " (Jaky 1944) on the past loading; preconsolidation ";
   switch (c.past) {
   case Past::pressure:
-    os << "sigma'p " << c.past_value << " kPa";
+    os << "sigma'p";
     break;
   case Past::ocr:
-    os << "OCR " << c.past_value;
+    os << "OCR";
     break;
   case Past::pop:
-    os << "POP " << c.past_value << " kPa";
+    os << "POP";
     break;
   }
+  const std::string unit = c.past == Past::ocr ? "" : " kPa";
+  if (c.past_profile.empty())
+    os << " " << c.past_value << unit;
+  for (std::size_t i = 0; i < c.past_profile.size(); ++i)
+    os << (i == 0 ? " " : ", ") << c.past_profile[i].second << unit << " at "
+       << c.past_profile[i].first << " m";
+  if (!c.past_profile.empty())
+    os << " (linear between, constant beyond)";
   os << "; the E' above is only the iterative solver's preconditioner's";
   return os.str();
 }

@@ -547,7 +547,9 @@ namespace {
 /// one-dimensionally with K0nc = 1 - sin phi'cs (Jaky 1944).
 ClaySkeleton clay_skeleton(const scenario::Material::CamClay& clay) {
   return {clay.parameters,
-          [clay](double vertical_start) { return clay.preconsolidation(vertical_start); },
+          [clay](double vertical_start, double elevation) {
+            return clay.preconsolidation(vertical_start, elevation);
+          },
           1.0 - std::sin(clay.friction_angle * units::pi / 180.0)};
 }
 } // namespace

@@ -177,8 +177,8 @@ oedometer(const RunContext& run, double x, const StackLayer& layer) {
   const auto& start = run.derivation.initial().effective_stress;
   o.start_top = -start(Point<2>(x, layer.top), id)[1][1];
   o.start_bottom = -start(Point<2>(x, layer.bottom), id)[1][1];
-  o.past_top = clay.preconsolidation(o.start_top);
-  o.past_bottom = clay.preconsolidation(o.start_bottom);
+  o.past_top = clay.preconsolidation(o.start_top, layer.top);
+  o.past_bottom = clay.preconsolidation(o.start_bottom, layer.bottom);
   return o;
 }
 } // namespace

@@ -71,9 +71,9 @@ void BiotProblem::Impl::prepare_clays() {
       // A start outside the ellipse the preconsolidation gives is taken as on
       // the ellipse through it.
       const double m = clay->parameters.critical_state_slope;
-      point.committed = {
-          point.start_stress,
-          std::max(clay->yield_size(start), yield_size_through(point.start_stress, m))};
+      point.committed = {point.start_stress,
+                         std::max(clay->yield_size(start, x[1]),
+                                  yield_size_through(point.start_stress, m))};
       const auto start_update =
           cam_clay_update(clay->parameters, point.committed, PlaneTensor{});
       point.trial = point.committed;
@@ -163,7 +163,8 @@ void BiotProblem::Impl::load_clay_cell_values(
     if (!cell->is_locally_owned())
       continue;
     const auto& v = values[cell->active_cell_index()];
-    const std::size_t expected = has_clay_points(cell) ? per_point * clay_points_per_cell : 0;
+    const std::size_t expected =
+        has_clay_points(cell) ? per_point * clay_points_per_cell : 0;
     if (v.size() != expected) {
       problem = "the checkpoint's clay states do not fit the scenario's clay regions";
       continue;

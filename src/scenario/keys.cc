@@ -49,9 +49,9 @@ const std::vector<KeySpec>& all_keys() {
     {"materials.<name>.recompression_index", "number", "", "-", "cam_clay: Cr (or Cs), slope of e against log10 sigma' on unloading and reloading, below Cc"},
     {"materials.<name>.void_ratio", "number", "", "-", "cam_clay: e0, the void ratio at the start, 0.1 to 15"},
     {"materials.<name>.friction_angle_cs", "number", "degrees", "-", "cam_clay: critical-state friction angle phi'cs, 5 to 50; M = 6 sin phi'/(3 - sin phi'); K0 = 1 - sin phi' (Jaky 1944) on the past one-dimensional loading"},
-    {"materials.<name>.preconsolidation_pressure", "number", "kPa", "-", "cam_clay: vertical preconsolidation pressure sigma'p (give this, ocr or pop)"},
-    {"materials.<name>.ocr", "number", "", "-", "cam_clay: overconsolidation ratio sigma'p/sigma'v0, 1 to 100"},
-    {"materials.<name>.pop", "number", "kPa", "-", "cam_clay: pre-overburden pressure sigma'p - sigma'v0, 0 to 1e4"},
+    {"materials.<name>.preconsolidation_pressure", "number|profile", "kPa", "-", "cam_clay: vertical preconsolidation pressure sigma'p (give this, ocr or pop); each of the three may be a profile [[elevation (m), value], ...], linear between its points and constant beyond"},
+    {"materials.<name>.ocr", "number|profile", "", "-", "cam_clay: overconsolidation ratio sigma'p/sigma'v0, 1 to 100"},
+    {"materials.<name>.pop", "number|profile", "kPa", "-", "cam_clay: pre-overburden pressure sigma'p - sigma'v0, 0 to 1e4"},
 
     {"section.ground_surface", "number", "m", "required", "Elevation of the ground surface"},
     {"section.bottom", "number", "m", "required", "Elevation of the model base"},

@@ -3,6 +3,7 @@
 #include "parse_parts.h"
 #include "settlewell/core/errors.h"
 #include "settlewell/core/files.h"
+#include "settlewell/core/number_text.h"
 #include "settlewell/scenario/keys.h"
 
 #include <algorithm>
@@ -48,16 +49,33 @@ std::vector<std::string> Scenario::boundary_parts_parents_first() const {
   return ordered;
 }
 
-double Material::CamClay::preconsolidation(double vertical_start) const {
+double Material::CamClay::past_at(double elevation) const {
+  if (past_profile.empty())
+    return past_value;
+  if (elevation <= past_profile.front().first)
+    return past_profile.front().second;
+  for (std::size_t i = 1; i < past_profile.size(); ++i) {
+    const auto& [y1, v1] = past_profile[i];
+    if (elevation <= y1) {
+      const auto& [y0, v0] = past_profile[i - 1];
+      return v0 + (v1 - v0) * (elevation - y0) / (y1 - y0);
+    }
+  }
+  return past_profile.back().second;
+}
+
+double Material::CamClay::preconsolidation(double vertical_start,
+                                           double elevation) const {
+  const double value = past_at(elevation);
   switch (past) {
   case Past::pressure:
-    return past_value;
+    return value;
   case Past::ocr:
-    return past_value * vertical_start;
+    return value * vertical_start;
   case Past::pop:
     break;
   }
-  return vertical_start + past_value;
+  return vertical_start + value;
 }
 
 std::string Scenario::location_of(const std::string& key_path) const {
@@ -88,6 +106,43 @@ const char* const clay_keys[] = {"compression_index",
                                  "ocr",
                                  "pop"};
 
+/// A preconsolidation key: a number, or a profile [[elevation, value], ...] with
+/// distinct elevations, each value in [low, high].
+void read_past(const TableReader& r,
+               const std::string& key,
+               double low,
+               double high,
+               const std::string& unit,
+               const std::string& bounds,
+               Material::CamClay& c) {
+  if (!r.has_array(key)) {
+    c.past_value = r.within(key, low, high, unit, bounds);
+    return;
+  }
+  const std::string form = "must be a number or a profile [[elevation (m), value], ...]";
+  for (const auto& item : *r.array(key)) {
+    const auto* pair = item.as_array();
+    if (pair == nullptr || pair->size() != 2 || !(*pair)[0].is_number() ||
+        !(*pair)[1].is_number())
+      r.fail(key, form);
+    const double y = number_value((*pair)[0]), v = number_value((*pair)[1]);
+    if (!(std::abs(y) <= 1e4))
+      r.fail(key, "elevation " + significant(y) + " m is beyond 10 km of the datum");
+    if (!(v >= low && v <= high))
+      r.fail(key, "value " + significant(v) + " is outside " + significant(low) + " to " +
+                      significant(high) + (unit.empty() ? "" : " " + unit) + " (" +
+                      bounds + ")");
+    c.past_profile.emplace_back(y, v);
+  }
+  if (c.past_profile.size() < 2)
+    r.fail(key, "a profile needs at least two points; give a number for a constant");
+  std::sort(c.past_profile.begin(), c.past_profile.end());
+  for (std::size_t i = 1; i < c.past_profile.size(); ++i)
+    if (c.past_profile[i].first == c.past_profile[i - 1].first)
+      r.fail(key, "the profile gives elevation " + significant(c.past_profile[i].first) +
+                      " m twice");
+}
+
 Material::CamClay read_cam_clay(const TableReader& r, double poisson_ratio) {
   // Bounds: any natural clay or silt (Cc up to about 10 in peat-like organic
   // clays, e0 up to about 15); common practice, no single source.
@@ -105,14 +160,13 @@ Material::CamClay read_cam_clay(const TableReader& r, double poisson_ratio) {
                 "ocr and pop");
   if (r.has("preconsolidation_pressure")) {
     c.past = Material::CamClay::Past::pressure;
-    c.past_value =
-        r.within("preconsolidation_pressure", 0.1, 1e5, "kPa", material_bounds);
+    read_past(r, "preconsolidation_pressure", 0.1, 1e5, "kPa", material_bounds, c);
   } else if (r.has("ocr")) {
     c.past = Material::CamClay::Past::ocr;
-    c.past_value = r.within("ocr", 1.0, 100.0, "", clay_bounds);
+    read_past(r, "ocr", 1.0, 100.0, "", clay_bounds, c);
   } else {
     c.past = Material::CamClay::Past::pop;
-    c.past_value = r.within("pop", 0.0, 1e4, "kPa", clay_bounds);
+    read_past(r, "pop", 0.0, 1e4, "kPa", clay_bounds, c);
   }
   c.parameters =
       CamClayParameters::from_indices(c.compression_index, c.recompression_index,

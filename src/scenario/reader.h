@@ -55,6 +55,11 @@ public:
   const toml::table* table(const std::string& key) const;
   const toml::array* array(const std::string& key) const;
   bool has(const std::string& key) const { return table_.contains(key); }
+  /// Whether the key is given as an array (where a number or an array may be).
+  bool has_array(const std::string& key) const {
+    const toml::node* node = table_.get(key);
+    return node != nullptr && node->is_array();
+  }
 
   /// "FILE:LINE:COL" of a key's value (or of the table if absent).
   std::string where(const std::string& key) const;

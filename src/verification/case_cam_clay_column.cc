@@ -93,7 +93,8 @@ ColumnRun run_column(double k0, double pop, double k0_past, MPI_Comm comm) {
   flow.conductivity_x = flow.conductivity_y = conductivity;
   setup.materials["soil"] = flow;
   const auto m = CamClayParameters::from_indices(cc, cr, e0, phi, nu);
-  setup.clays["soil"] = {m, [pop](double vertical) { return vertical + pop; }, k0_past};
+  setup.clays["soil"] = {m, [pop](double vertical, double) { return vertical + pop; },
+                         k0_past};
   setup.geostatic.unit_weights["soil"] = unit_weight;
   setup.geostatic.effective_stress = [k0](const dealii::Point<2>& x, auto) {
     dealii::SymmetricTensor<2, 3> s;

@@ -4,6 +4,7 @@
 // verification case `cam-clay-paths` (src/verification/case_cam_clay.cc).
 #include "settlewell/core/errors.h"
 #include "settlewell/materials/cam_clay.h"
+#include "settlewell/scenario/scenario.h"
 
 #include <gtest/gtest.h>
 
@@ -107,4 +108,22 @@ TEST(CamClay, TangentMatchesFiniteDifferencesOnTheDrySide) {
   ASSERT_TRUE(u.yielded);
   EXPECT_LT(u.state.yield_size, 300.0);
   EXPECT_LT(tangent_mismatch(heavy, increment, 1e-8), 1e-5);
+}
+
+// A preconsolidation profile, by hand: POP 40 kPa at -9 m and 10 kPa at -4 m.
+TEST(CamClayScenario, PreconsolidationProfileIsLinearBetweenItsPointsAndConstantBeyond) {
+  scenario::Material::CamClay c;
+  c.past = scenario::Material::CamClay::Past::pop;
+  c.past_profile = {{-9.0, 40.0}, {-4.0, 10.0}};
+  EXPECT_DOUBLE_EQ(c.past_at(-6.5), 25.0);
+  EXPECT_DOUBLE_EQ(c.past_at(-4.0), 10.0);
+  EXPECT_DOUBLE_EQ(c.past_at(0.0), 10.0);
+  EXPECT_DOUBLE_EQ(c.past_at(-20.0), 40.0);
+  EXPECT_DOUBLE_EQ(c.preconsolidation(100.0, -6.5), 125.0); // sigma'v0 + POP
+  c.past = scenario::Material::CamClay::Past::ocr;
+  c.past_profile = {{-9.0, 2.0}, {-4.0, 1.0}};
+  EXPECT_DOUBLE_EQ(c.preconsolidation(80.0, -5.0), 96.0); // OCR 1.2 there
+  c.past_profile.clear();
+  c.past_value = 1.5;
+  EXPECT_DOUBLE_EQ(c.preconsolidation(80.0, -5.0), 120.0);
 }

@@ -34,7 +34,7 @@ BiotSetup clay_column(unsigned int max_iterations, unsigned int max_halvings) {
   setup.materials["soil"] = flow;
   const auto m = CamClayParameters::from_indices(0.45, 0.07, 1.2, 25.0, 0.3);
   const double k0 = 1.0 - std::sin(25.0 * units::pi / 180.0);
-  setup.clays["soil"] = {m, [](double vertical) { return vertical; }, k0};
+  setup.clays["soil"] = {m, [](double vertical, double) { return vertical; }, k0};
   setup.geostatic.unit_weights["soil"] = unit_weight;
   setup.geostatic.effective_stress = [k0](const dealii::Point<2>& x, auto) {
     dealii::SymmetricTensor<2, 3> s;

@@ -60,18 +60,19 @@ struct GeostaticState {
 /// preconditioner assumes.
 struct ClaySkeleton {
   CamClayParameters parameters;
-  /// The vertical preconsolidation pressure sigma'p where the start's vertical
-  /// effective stress is sigma'v0, kPa.
-  std::function<double(double vertical_start)> preconsolidation;
+  /// The vertical preconsolidation pressure sigma'p at an elevation (m) where the
+  /// start's vertical effective stress is sigma'v0, kPa.
+  std::function<double(double vertical_start, double elevation)> preconsolidation;
   /// K0 of the past one-dimensional loading to sigma'p (the yield ellipse passes
   /// through the stress it reached).
   double k0_past = 0.5;
 
-  /// p'c of the yield ellipse where the start's effective stress (tension
-  /// positive) is `start`, kPa.
-  double yield_size(const dealii::SymmetricTensor<2, 3>& start) const {
+  /// p'c of the yield ellipse at an elevation (m) where the start's effective
+  /// stress (tension positive) is `start`, kPa.
+  double yield_size(const dealii::SymmetricTensor<2, 3>& start, double elevation) const {
     return yield_size_from_vertical_preconsolidation(
-        preconsolidation(-start[1][1]), k0_past, parameters.critical_state_slope);
+        preconsolidation(-start[1][1], elevation), k0_past,
+        parameters.critical_state_slope);
   }
 };
 

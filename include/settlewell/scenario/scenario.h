@@ -37,9 +37,14 @@ struct Material {
     double friction_angle = 0.0; ///< phi'cs, degrees
     /// How the preconsolidation is given: sigma'p (kPa), OCR, or POP (kPa).
     enum class Past { pressure, ocr, pop } past = Past::ocr;
+    /// Its value: a constant, or a profile of (elevation m, value) pairs sorted by
+    /// elevation, linear between them and constant beyond the ends.
     double past_value = 1.0;
-    /// sigma'p at a point whose start vertical effective stress is sigma'v0, kPa.
-    double preconsolidation(double vertical_start) const;
+    std::vector<std::pair<double, double>> past_profile; ///< empty: the constant
+    double past_at(double elevation) const;
+    /// sigma'p at a point (elevation, m) whose start vertical effective stress is
+    /// sigma'v0, kPa.
+    double preconsolidation(double vertical_start, double elevation) const;
   };
   std::optional<CamClay> cam_clay;
 };
