@@ -35,7 +35,7 @@ mesh=("$source_dir/src/mesh/gmsh_checks.cc" "$source_dir/src/mesh/name_table.cc"
 case "$target" in
 scenario)
   sources=("$here/scenario_fuzz.cc" "$source_dir"/src/scenario/*.cc "$source_dir"/src/materials/*.cc
-           "$source_dir/src/core/files.cc")
+           "$source_dir/src/core/files.cc" "$source_dir/src/core/number_text.cc")
   # toml++ 3.3.0 asserts (in a Release build: assumes) that a table header starts
   # with a key, and "[ = 1" breaks that before its own error is raised; the Release
   # binary gives the parse error (tests/bad-input/toml_header_without_key.toml).

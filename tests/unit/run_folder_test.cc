@@ -127,11 +127,12 @@ TEST(RunFolder, ARunDoesNotOverwriteASweepFolder) {
 }
 
 TEST(OutputFiles, AFullDiskIsASystemErrorNamingTheFile) {
-  // /dev/full takes a file open but refuses every byte with ENOSPC.
-  settlewell::CsvFile csv("/dev/full", {"time_days", "head_m"}, MPI_COMM_WORLD);
+  // /dev/full takes a file open but refuses every byte with ENOSPC: the header,
+  // written at once, fails.
   try {
+    settlewell::CsvFile csv("/dev/full", {"time_days", "head_m"}, MPI_COMM_WORLD);
     csv.row({1.0, 2.0});
-    FAIL() << "a row written to a full disk must throw";
+    FAIL() << "a table written to a full disk must throw";
   } catch (const settlewell::SystemError& e) {
     EXPECT_NE(std::string(e.what()).find("/dev/full: cannot write (No space left"),
               std::string::npos)
