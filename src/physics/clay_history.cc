@@ -13,6 +13,8 @@ namespace settlewell {
 
 namespace {
 constexpr std::size_t no_points = std::numeric_limits<std::size_t>::max();
+/// A point's committed state in a checkpoint: the stress (4) and the yield size.
+constexpr unsigned int checkpoint_values_per_point = 5;
 
 PlaneTensor plane(const SymmetricTensor<2, 3>& s) {
   return {{s[0][0], s[1][1], s[2][2], s[0][1]}};
@@ -146,6 +148,7 @@ std::vector<std::vector<double>> BiotProblem::Impl::clay_cell_values() const {
     if (!cell->is_locally_owned() || !has_clay_points(cell))
       continue;
     auto& v = values[cell->active_cell_index()];
+    v.reserve(checkpoint_values_per_point * clay_points_per_cell);
     const ClayPoint* point = &clay_points[clay_offset[cell->active_cell_index()]];
     for (unsigned int q = 0; q < clay_points_per_cell; ++q, ++point) {
       v.insert(v.end(), point->committed.stress.begin(), point->committed.stress.end());
@@ -157,7 +160,7 @@ std::vector<std::vector<double>> BiotProblem::Impl::clay_cell_values() const {
 
 void BiotProblem::Impl::load_clay_cell_values(
     const std::vector<std::vector<double>>& values) {
-  constexpr unsigned int per_point = 5;
+  constexpr unsigned int per_point = checkpoint_values_per_point;
   std::string problem;
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned())
