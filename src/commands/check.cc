@@ -101,6 +101,9 @@ std::string clay_text(const scenario::Material::CamClay& c) {
        << c.past_profile[i].first << " m";
   if (!c.past_profile.empty())
     os << " (linear between, constant beyond)";
+  if (c.permeability_change_index > 0.0)
+    os << "; conductivity k0 10^((e - e0)/Ck) with Ck " << c.permeability_change_index
+       << " (Taylor 1948), the k above being k0";
   os << "; the E' above is only the iterative solver's preconditioner's";
   return os.str();
 }

@@ -40,6 +40,22 @@ void CamClayParameters::validate(const std::string& where) const {
           "the shear modulus must not be negative, kPa", shear_modulus);
 }
 
+double one_dimensional_stress_ratio(const CamClayParameters& m) {
+  const double mm = m.critical_state_slope * m.critical_state_slope;
+  const double nu = m.poisson_ratio;
+  const auto gap = [&](double eta) {
+    return eta * m.kappa * 2.0 * (1.0 + nu) / (9.0 * (1.0 - 2.0 * nu)) +
+           (m.lambda - m.kappa) * 2.0 * eta / (mm - eta * eta) - 2.0 / 3.0 * m.lambda;
+  };
+  // The gap rises from -2 lambda/3 at 0 to +infinity at M: bisection.
+  double lo = 0.0, hi = m.critical_state_slope * (1.0 - 1e-12);
+  for (int i = 0; i < 200; ++i) {
+    const double mid = 0.5 * (lo + hi);
+    (gap(mid) < 0.0 ? lo : hi) = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
 double critical_state_slope(double friction_angle_degrees) {
   const double s = std::sin(friction_angle_degrees * units::pi / 180.0);
   return 6.0 * s / (3.0 - s);

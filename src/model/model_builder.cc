@@ -550,7 +550,8 @@ ClaySkeleton clay_skeleton(const scenario::Material::CamClay& clay) {
           [clay](double vertical_start, double elevation) {
             return clay.preconsolidation(vertical_start, elevation);
           },
-          1.0 - std::sin(clay.friction_angle * units::pi / 180.0)};
+          1.0 - std::sin(clay.friction_angle * units::pi / 180.0),
+          clay.permeability_change_index};
 }
 } // namespace
 

@@ -59,6 +59,9 @@ DerivedState Derivation::at(const Point<2>& x,
   DerivedState d = at(x, cell->material_id(), v, grad);
   if (!problem_.has_clays() || !cell->is_locally_owned())
     return d;
+  // A clay whose conductivity follows its strain (a permeability change index).
+  if (const double rate = problem_.conductivity_rate(cell->material_id()); rate != 0.0)
+    d.darcy_flux *= std::exp(rate * d.volumetric_strain);
   if (const auto clay = problem_.clay_cell_state(cell->active_cell_index())) {
     SymmetricTensor<2, 3> stress;
     stress[0][0] = clay->stress[0];

@@ -229,6 +229,15 @@ struct BiotProblem::Impl {
                       const DoFHandler<2>::active_cell_iterator& cell,
                       FullMatrix<double>& cell_matrix,
                       Vector<double>& cell_rhs) const;
+  /// A clay cell's flow terms when its conductivity follows its strain (Ck given),
+  /// about the state `local` (CellKernel::add_strain_dependent_flow). Returns
+  /// false, adding nothing, when its conductivity stays.
+  bool add_clay_flow(CellKernel& kernel,
+                     const DoFHandler<2>::active_cell_iterator& cell,
+                     const Vector<double>& local,
+                     double dt,
+                     FullMatrix<double>& cell_matrix,
+                     Vector<double>& cell_rhs) const;
   struct FieldNorms {
     double u = 0.0, p = 0.0;
   };
@@ -238,12 +247,23 @@ struct BiotProblem::Impl {
   /// Adds the solution of K delta = newton_r to the iterate (a kept factor as
   /// GMRES's preconditioner, or a new factorisation).
   void add_newton_correction(StepReport& report);
-  LA::MPI::Vector newton_r; ///< the residual of the iterate (newton_residual)
+  LA::MPI::Vector newton_r;     ///< the residual of the iterate (newton_residual)
+  LA::MPI::Vector newton_delta; ///< the last correction (add_newton_correction)
+  /// The iterate's residual relative to largest_drive (which a step's first
+  /// iterate may raise): the clay points updated if asked, the system assembled.
+  double newton_iterate_residual(double t_new,
+                                 double dt,
+                                 bool first_iteration,
+                                 bool update_points,
+                                 StepReport& report);
+  /// The residual after the last correction, that correction halved while the
+  /// residual does not fall below `previous` (a backtracking line search).
+  double searched_residual(double t_new, double dt, double previous, StepReport& report);
   /// A Newton step's system: the parts no clay changes (`fixed_matrix` per dt' and
   /// set of held pressures, `fixed_rhs` per step), to which each iteration adds
   /// the clays' terms.
   void assemble_newton_system(double t_new, double dt, bool first_iteration);
-  void add_clay_terms();
+  void add_clay_terms(double dt);
   LA::MPI::SparseMatrix fixed_matrix;
   LA::MPI::Vector fixed_rhs;
   double fixed_dt = std::numeric_limits<double>::quiet_NaN();
@@ -283,6 +303,8 @@ struct BiotProblem::Impl {
   std::vector<ClayPoint> clay_points;
   unsigned int clay_points_per_cell = 0;
   std::vector<const ClaySkeleton*> clay_by_region; ///< by region id; null: elastic
+  /// ClaySkeleton::conductivity_rate of a region, 0 if it is not a clay.
+  double conductivity_rate(types::material_id region) const;
   LA::MPI::Vector step_start; ///< the solution at the step's start, with ghosts
   LA::MPI::Vector displacement_mask, pressure_mask; ///< 1 on the field's owned dofs
   FieldNorms largest_drive; ///< the largest residual at a step's start so far

@@ -4,6 +4,8 @@
 
 #include <deal.II/base/quadrature_lib.h>
 
+#include <cmath>
+
 namespace settlewell {
 
 using namespace dealii;
@@ -174,6 +176,38 @@ void CellKernel::add_tangent_and_force(const std::vector<PlaneTangent>& tangents
   for (unsigned int a = 0; a < n; ++a)
     for (unsigned int b = 0; b < n; ++b)
       matrix(u_dofs_[a], u_dofs_[b]) += block_[a * n + b];
+}
+
+void CellKernel::add_strain_dependent_flow(const Tensor<2, 2>& mobility,
+                                           double rate,
+                                           const Vector<double>& local,
+                                           double dt,
+                                           FullMatrix<double>& matrix,
+                                           Vector<double>& vector) {
+  update_cell_values();
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    evaluate_shapes(q);
+    double trace = 0.0;
+    for (const unsigned int i : u_dofs_)
+      trace += local(i) * divergence_[i];
+    Tensor<1, 2> grad_p;
+    for (const unsigned int i : p_dofs_)
+      grad_p += local(i) * grad_p_[i];
+    const double factor = std::exp(rate * trace);
+    const double w = dt * weight(fe_values_, q);
+    // The flux's change per unit tr eps, and the mobility's change from m0.
+    const Tensor<1, 2> per_strain = rate * factor * w * (mobility * grad_p);
+    const Tensor<2, 2> extra = (factor - 1.0) * w * mobility;
+    for (const unsigned int i : p_dofs_) {
+      const double along = grad_p_[i] * per_strain;
+      vector(i) += along * trace;
+      for (const unsigned int j : u_dofs_)
+        matrix(i, j) += along * divergence_[j];
+      const Tensor<1, 2> extra_i = extra * grad_p_[i]; // m0 is symmetric
+      for (const unsigned int j : p_dofs_)
+        matrix(i, j) += extra_i * grad_p_[j];
+    }
+  }
 }
 
 void CellKernel::mirror_into(FullMatrix<double>& out) const {

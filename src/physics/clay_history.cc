@@ -214,6 +214,30 @@ void BiotProblem::Impl::add_clay_terms(CellKernel& kernel,
   kernel.add_tangent_and_force(tangents, tau, cell_matrix, cell_rhs);
 }
 
+bool BiotProblem::Impl::add_clay_flow(CellKernel& kernel,
+                                      const DoFHandler<2>::active_cell_iterator& cell,
+                                      const Vector<double>& local,
+                                      double dt,
+                                      FullMatrix<double>& cell_matrix,
+                                      Vector<double>& cell_rhs) const {
+  const double rate = conductivity_rate(cell->material_id());
+  if (rate == 0.0)
+    return false;
+  kernel.add_strain_dependent_flow(coefficients[cell->material_id()].mobility, rate,
+                                   local, dt, cell_matrix, cell_rhs);
+  return true;
+}
+
+double BiotProblem::conductivity_rate(types::material_id region) const {
+  return impl_->conductivity_rate(region);
+}
+
+double BiotProblem::Impl::conductivity_rate(types::material_id region) const {
+  const ClaySkeleton* clay =
+      region < clay_by_region.size() ? clay_by_region[region] : nullptr;
+  return clay == nullptr ? 0.0 : clay->conductivity_rate();
+}
+
 std::optional<BiotProblem::ClayCellState>
 BiotProblem::clay_cell_state(unsigned int active_cell_index) const {
   const Impl& m = *impl_;

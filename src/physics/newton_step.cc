@@ -69,14 +69,14 @@ void BiotProblem::Impl::assemble_newton_system(double t_new,
   }
   matrix.copy_from(fixed_matrix);
   rhs = fixed_rhs;
-  add_clay_terms();
+  add_clay_terms(dt);
 }
 
-void BiotProblem::Impl::add_clay_terms() {
+void BiotProblem::Impl::add_clay_terms(double dt) {
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
   FullMatrix<double> cell_matrix(n, n);
-  Vector<double> cell_rhs(n);
+  Vector<double> cell_rhs(n), local(n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !has_clay_points(cell))
@@ -86,6 +86,8 @@ void BiotProblem::Impl::add_clay_terms() {
     cell_matrix = 0.0;
     cell_rhs = 0.0;
     add_clay_terms(kernel, cell, cell_matrix, cell_rhs);
+    cell->get_dof_values(solution, local);
+    add_clay_flow(kernel, cell, local, dt, cell_matrix, cell_rhs);
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
     constraints.distribute_local_to_global(cell_rhs, dofs, rhs);
   }
@@ -102,7 +104,9 @@ void BiotProblem::Impl::add_newton_correction(StepReport& report) {
   constexpr unsigned int krylov_limit = 8;
   if (row_signs.size() > 0)
     throw InternalError("a Newton step needs the system without row signs");
-  LA::MPI::Vector delta(owned, comm);
+  if (newton_delta.size() == 0)
+    newton_delta.reinit(owned, comm);
+  LA::MPI::Vector& delta = newton_delta;
   Timer timer;
   unsigned int krylov = 0;
   if (newton_factor_ready)
@@ -128,8 +132,53 @@ void BiotProblem::Impl::add_newton_correction(StepReport& report) {
   report.solve_seconds += timer.wall_time();
 }
 
-void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& report) {
+double BiotProblem::Impl::newton_iterate_residual(double t_new,
+                                                  double dt,
+                                                  bool first_iteration,
+                                                  bool update_points,
+                                                  StepReport& report) {
   Timer timer;
+  if (update_points)
+    report.yielding_points = update_clay_points();
+  assemble_newton_system(t_new, dt, first_iteration);
+  const FieldNorms r = newton_residual();
+  report.assembly_seconds += timer.wall_time();
+  if (first_iteration) {
+    largest_drive.u = std::max(largest_drive.u, r.u);
+    largest_drive.p = std::max(largest_drive.p, r.p);
+  }
+  return std::max(largest_drive.u > 0.0 ? r.u / largest_drive.u : 0.0,
+                  largest_drive.p > 0.0 ? r.p / largest_drive.p : 0.0);
+}
+
+double BiotProblem::Impl::searched_residual(double t_new,
+                                            double dt,
+                                            double previous,
+                                            StepReport& report) {
+  // Backtracking with the sufficient decrease |r(x + s delta)| <= (1 - 1e-4 s)
+  // |r(x)| (Dennis & Schnabel 1983 sec. 6.3, from memory). Past the last cut the
+  // shortest correction is kept, or its failure raised: the step's cut-back
+  // takes over.
+  const unsigned int cuts = setup.newton.line_search_cuts;
+  double share = 1.0; // of the correction in the iterate
+  for (unsigned int cut = 0;; ++cut) {
+    try {
+      const double relative = newton_iterate_residual(t_new, dt, false, true, report);
+      if (relative <= (1.0 - 1e-4 * share) * previous || cut == cuts)
+        return relative;
+    } catch (const SolverError&) { // a point's return failed, on every process
+      if (cut == cuts)
+        throw;
+    }
+    owned_solution.add(-0.5 * share, newton_delta);
+    share *= 0.5;
+    constraints.distribute(owned_solution);
+    solution = owned_solution;
+    ++report.line_search_cuts;
+  }
+}
+
+void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& report) {
   set_drain_values(t_new);
   make_constraints(constraint_inputs(), t_new, constraints);
   // The first iterate carries the last step's trend on, x_n + r (x_n - x_{n-1})
@@ -146,22 +195,13 @@ void BiotProblem::Impl::solve_newton_step(double t_new, double dt, StepReport& r
   record_step_start_strains();
   const auto& newton = setup.newton;
   for (unsigned int k = 0;; ++k) {
-    timer.restart();
     // Without a trend, the first iteration keeps the committed states and the
     // tangents of the last step's end (elastoplastic where the clay was
     // yielding): the strain has not moved yet, and an elastic tangent there would
     // overshoot.
-    if (k > 0 || predicted)
-      report.yielding_points = update_clay_points();
-    assemble_newton_system(t_new, dt, k == 0);
-    const FieldNorms r = newton_residual();
-    report.assembly_seconds += timer.wall_time();
-    if (k == 0) {
-      largest_drive.u = std::max(largest_drive.u, r.u);
-      largest_drive.p = std::max(largest_drive.p, r.p);
-    }
-    const double relative = std::max(largest_drive.u > 0.0 ? r.u / largest_drive.u : 0.0,
-                                     largest_drive.p > 0.0 ? r.p / largest_drive.p : 0.0);
+    const double relative =
+        k == 0 ? newton_iterate_residual(t_new, dt, true, predicted, report)
+               : searched_residual(t_new, dt, report.newton_residuals.back(), report);
     report.newton_residuals.push_back(relative);
     if (k > 0 && relative <= newton.tolerance)
       break;

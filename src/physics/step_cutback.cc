@@ -25,6 +25,7 @@ StepReport joined(const StepReport& first, const StepReport& second) {
   r.solve_seconds += first.solve_seconds;
   r.newton_iterations += first.newton_iterations;
   r.factorisations += first.factorisations;
+  r.line_search_cuts += first.line_search_cuts;
   r.newton_residuals.insert(r.newton_residuals.begin(), first.newton_residuals.begin(),
                             first.newton_residuals.end());
   r.sub_steps += first.sub_steps;

@@ -33,6 +33,7 @@ void BiotProblem::Impl::storage_residual(double t,
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
   Vector<double> cell_rhs(n), local(n), residual(n), old_state(n);
+  FullMatrix<double> flow_matrix(n, n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
     if (!cell->is_locally_owned() || !in_model(cell))
@@ -45,6 +46,12 @@ void BiotProblem::Impl::storage_residual(double t,
     add_old_state_and_fluxes(kernel, cell, t, dt, old_state, cell_rhs);
     cell->get_dof_values(solution, local);
     cell_matrix_at(kernel, cell, dt).vmult(residual, local);
+    // A clay whose conductivity follows its strain: its flow's change, as
+    // Newton's last system held it at this state.
+    flow_matrix = 0.0;
+    if (has_clay_points(cell) &&
+        add_clay_flow(kernel, cell, local, dt, flow_matrix, cell_rhs))
+      flow_matrix.vmult_add(residual, local);
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&

@@ -52,9 +52,10 @@ step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
                              "iterations", "monitors_s", "output_s"};
   if (digs) // solves of the step until the drained surface's active set settled
     h.push_back("drain_rounds");
-  if (clays) // Newton's method: solves, new factors, sub-steps, yielding points, residual
-    h.insert(h.end(), {"newton_iterations", "factorisations", "sub_steps",
-                       "yielding_points", "newton_residual_relative"});
+  if (clays) // Newton's method: solves, new factors, halved corrections, sub-steps,
+             // yielding points, residual
+    h.insert(h.end(), {"newton_iterations", "factorisations", "line_search_cuts",
+                       "sub_steps", "yielding_points", "newton_residual_relative"});
   for (const auto& m : monitors)
     for (const auto& column : m->step_columns())
       h.push_back(column);
@@ -85,7 +86,8 @@ std::vector<double> step_row(const StepReport& r,
     row.push_back(double(r.drain_rounds));
   if (clays)
     row.insert(row.end(), {double(r.newton_iterations), double(r.factorisations),
-                           double(r.sub_steps), double(r.yielding_points),
+                           double(r.line_search_cuts), double(r.sub_steps),
+                           double(r.yielding_points),
                            r.newton_residuals.empty() ? 0.0 : r.newton_residuals.back()});
   return row;
 }

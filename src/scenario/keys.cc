@@ -52,6 +52,7 @@ const std::vector<KeySpec>& all_keys() {
     {"materials.<name>.preconsolidation_pressure", "number|profile", "kPa", "-", "cam_clay: vertical preconsolidation pressure sigma'p (give this, ocr or pop); each of the three may be a profile [[elevation (m), value], ...], linear between its points and constant beyond"},
     {"materials.<name>.ocr", "number|profile", "", "-", "cam_clay: overconsolidation ratio sigma'p/sigma'v0, 1 to 100"},
     {"materials.<name>.pop", "number|profile", "kPa", "-", "cam_clay: pre-overburden pressure sigma'p - sigma'v0, 0 to 1e4"},
+    {"materials.<name>.permeability_change_index", "number", "", "none", "cam_clay: Ck, the loss of void ratio that makes the conductivity ten times smaller, k = k0 10^((e - e0)/Ck) (Taylor 1948), 0.01 to 10; often near 0.5 e0; not given: k stays k0"},
 
     {"section.ground_surface", "number", "m", "required", "Elevation of the ground surface"},
     {"section.bottom", "number", "m", "required", "Elevation of the model base"},

@@ -104,7 +104,8 @@ const char* const clay_keys[] = {"compression_index",
                                  "friction_angle_cs",
                                  "preconsolidation_pressure",
                                  "ocr",
-                                 "pop"};
+                                 "pop",
+                                 "permeability_change_index"};
 
 /// A preconsolidation key: a number, or a profile [[elevation, value], ...] with
 /// distinct elevations, each value in [low, high].
@@ -154,6 +155,10 @@ Material::CamClay read_cam_clay(const TableReader& r, double poisson_ratio) {
     r.fail("recompression_index", "must be smaller than compression_index");
   c.void_ratio = r.within("void_ratio", 0.1, 15.0, "", clay_bounds);
   c.friction_angle = r.within("friction_angle_cs", 5.0, 50.0, "degrees", clay_bounds);
+  // Ck of natural clays lies near 0.5 e0 (Tavenas et al. 1983, from memory).
+  if (r.has("permeability_change_index"))
+    c.permeability_change_index =
+        r.within("permeability_change_index", 0.01, 10.0, "", clay_bounds);
   const int n_past = r.has("preconsolidation_pressure") + r.has("ocr") + r.has("pop");
   if (n_past != 1)
     r.fail_here("a cam_clay material needs exactly one of preconsolidation_pressure, "

@@ -152,8 +152,9 @@ double TableReader::within(const std::string& key,
                            const std::string& bounds) const {
   const double value = number(key);
   if (!(value >= low && value <= high))
-    fail(key, "must lie in [" + format_number(low) + ", " + format_number(high) + "] " +
-                  unit + ", " + bounds + " (got " + format_number(value) + ")");
+    fail(key, "must lie in [" + format_number(low) + ", " + format_number(high) + "]" +
+                  (unit.empty() ? "" : " " + unit) + ", " + bounds + " (got " +
+                  format_number(value) + ")");
   return value;
 }
 

@@ -8,14 +8,11 @@
 // & Peck 1948), integrated over the depth by Simpson's rule on 2000 slices;
 // Modified Cam Clay (Roscoe & Burland 1968). Cam Clay's normal compression line
 // is straight in v-ln p', and on one-dimensional strain its stress ratio keeps the
-// value eta_K0 its flow rule gives,
-//   (2/3) lambda = eta kappa 2(1 + nu)/(9(1 - 2 nu)) + (lambda - kappa) 2 eta/(M^2 -
-//   eta^2)
-// (Wood 1990 ch. 6 gives the approach; this form was derived here from the
-// model's laws). Started on that line, the column's compression follows Cc exactly;
-// started with K0 = nu/(1 - nu) inside the yield surface, its elastic
-// recompression keeps the stress ratio and follows Cr exactly. Any difference is
-// the discretisation's.
+// value eta_K0 its flow rule gives (one_dimensional_stress_ratio, derived from the
+// model's laws; Wood 1990 ch. 6 gives the approach). Started on that line, the column's
+// compression follows Cc exactly; started with K0 = nu/(1 - nu) inside the yield surface,
+// its elastic recompression keeps the stress ratio and follows Cr exactly. Any difference
+// is the discretisation's.
 //
 // Tolerances, measured with 12 cells and a ramp over a day:
 //  - recompression 3e-3: the error halved with each halving of the step (6.0e-3,
@@ -52,21 +49,6 @@ constexpr double conductivity = 2e-9; // m/s
 constexpr double ramp_days = 1.0;
 constexpr double steps_per_decade = 40.0;
 constexpr double cc = 0.42, cr = 0.06, e0 = 1.15, phi = 26.0, nu = 0.3;
-
-/// Cam Clay's stress ratio on one-dimensional normal compression (bisection).
-double k0_stress_ratio(const CamClayParameters& m) {
-  const double mm = m.critical_state_slope * m.critical_state_slope;
-  const auto gap = [&](double eta) {
-    return eta * m.kappa * 2.0 * (1.0 + nu) / (9.0 * (1.0 - 2.0 * nu)) +
-           (m.lambda - m.kappa) * 2.0 * eta / (mm - eta * eta) - 2.0 / 3.0 * m.lambda;
-  };
-  double lo = 0.0, hi = m.critical_state_slope * (1.0 - 1e-12);
-  for (int i = 0; i < 200; ++i) {
-    const double mid = 0.5 * (lo + hi);
-    (gap(mid) < 0.0 ? lo : hi) = mid;
-  }
-  return 0.5 * (lo + hi);
-}
 
 double vertical_start(double y) {
   return fill + (unit_weight - units::default_gamma_w) * (-y);
@@ -108,33 +90,20 @@ ColumnRun run_column(double k0, double pop, double k0_past, MPI_Comm comm) {
   // where the faces drain at once.
   bc.head("top", uniform(linear_ramp(-head_drop, units::days(ramp_days))));
   bc.head("bottom", uniform(linear_ramp(-head_drop, units::days(ramp_days))));
-  // Tight enough that Newton's own convergence shows, not the stopping rules'.
-  setup.newton.tolerance = 1e-11;
-  setup.newton.linear_tolerance = 1e-13;
-  // Each step starts from the last one's state, not its trend carried on: then
-  // three or more iterations per step show the asymptotic rate (with the trend
-  // most steps converge in two, too few to measure an order).
-  setup.newton.carry_trend = false;
+  show_newton_order(setup.newton);
   BiotProblem problem(mesh, setup);
   // From a thousandth of a day to 3e4 days (Tv above 5 for the softest state).
   std::vector<double> times;
   for (double t = 1e-3; t < 3.1e4; t *= std::pow(10.0, 1.0 / steps_per_decade))
     times.push_back(units::days(t));
   ColumnRun run;
-  std::vector<double> orders;
+  NewtonOrders orders;
   for (const double t : times) {
     const StepReport step = problem.advance_to(t);
     run.yielding = std::max(run.yielding, step.yielding_points);
-    // The order from three successive residuals near the solution, above round-off.
-    const auto& r = step.newton_residuals;
-    for (std::size_t k = 1; k + 1 < r.size(); ++k)
-      if (r[k] < 1e-2 && r[k + 1] > 1e-12)
-        orders.push_back(std::log(r[k + 1] / r[k]) / std::log(r[k] / r[k - 1]));
+    orders.add(step);
   }
-  if (!orders.empty()) {
-    std::nth_element(orders.begin(), orders.begin() + orders.size() / 2, orders.end());
-    run.observed_order = orders[orders.size() / 2];
-  }
+  run.observed_order = orders.median();
   run.settlement = -probe(problem, dealii::Point<2>(0.5, 0.0)).uy;
   return run;
 }
@@ -157,7 +126,7 @@ double elog_settlement(double c) {
 
 std::vector<CheckRow> run_cam_clay_column(const CaseSettings&, MPI_Comm comm) {
   const auto m = CamClayParameters::from_indices(cc, cr, e0, phi, nu);
-  const double eta = k0_stress_ratio(m);
+  const double eta = one_dimensional_stress_ratio(m);
   const double k0_nc = (3.0 - eta) / (3.0 + 2.0 * eta);
   std::vector<CheckRow> rows;
   const double jaky = 1.0 - std::sin(phi * units::pi / 180.0); // Jaky (1944)

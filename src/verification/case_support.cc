@@ -36,6 +36,27 @@ writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm 
                                        case_name, comm);
 }
 
+void NewtonOrders::add(const StepReport& step) {
+  const auto& r = step.newton_residuals;
+  for (std::size_t k = 1; k + 1 < r.size(); ++k)
+    if (r[k] < 1e-2 && r[k + 1] > 1e-12)
+      orders_.push_back(std::log(r[k + 1] / r[k]) / std::log(r[k] / r[k - 1]));
+}
+
+double NewtonOrders::median() const {
+  if (orders_.empty())
+    return std::numeric_limits<double>::quiet_NaN();
+  std::vector<double> sorted = orders_;
+  std::nth_element(sorted.begin(), sorted.begin() + sorted.size() / 2, sorted.end());
+  return sorted[sorted.size() / 2];
+}
+
+void show_newton_order(NewtonSettings& newton) {
+  newton.tolerance = 1e-11;
+  newton.linear_tolerance = 1e-13;
+  newton.carry_trend = false;
+}
+
 double crossing_time(const std::vector<double>& t,
                      const std::vector<double>& value,
                      double level) {

@@ -64,6 +64,11 @@ const std::vector<VerificationCase>& all_cases() {
        "against the e-log form, recompression and normally consolidated; Newton's "
        "convergence",
        run_cam_clay_column},
+      {"davis-raymond",
+       "a Cam Clay column with a permeability change index Ck = Cc under a sudden "
+       "load: degree of settlement and pore pressure against Davis & Raymond's "
+       "closed form; the observed order under mesh and step refinement",
+       run_davis_raymond},
   };
   return cases;
 }

@@ -107,7 +107,8 @@ def kill_session(session, timeout=30.0):
 
 
 NEWTON_TOLERANCE = 1e-7
-NEWTON_COLUMNS = {"iterations", "newton_iterations", "factorisations", "sub_steps",
+NEWTON_COLUMNS = {"iterations", "newton_iterations", "factorisations", "line_search_cuts",
+                  "sub_steps",
                   "newton_residual_relative", "water_balance_error_relative"}
 
 

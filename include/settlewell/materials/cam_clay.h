@@ -55,6 +55,13 @@ double yield_size_from_vertical_preconsolidation(double vertical_preconsolidatio
                                                  double k0_normally_consolidated,
                                                  double critical_state_slope);
 
+/// The stress ratio eta = q/p' that the model keeps on one-dimensional normal
+/// compression with G from nu' (the root in (0, M) of
+///   (2/3) lambda = eta kappa 2(1 + nu)/(9(1 - 2 nu)) + (lambda - kappa) 2 eta/(M^2 -
+///   eta^2),
+/// derived from the model's laws; Wood 1990 ch. 6 gives the approach).
+double one_dimensional_stress_ratio(const CamClayParameters& parameters);
+
 /// The history a material point keeps between accepted steps.
 struct CamClayState {
   PlaneTensor stress{};    ///< absolute effective stress, kPa, tension positive

@@ -30,7 +30,8 @@ struct StepReport {
   /// yielding at its end, and the residual before each solve and at the end,
   /// relative to the largest a step started with.
   unsigned int newton_iterations = 0;
-  unsigned int factorisations = 0; ///< in this step (Newton's method)
+  unsigned int factorisations = 0;   ///< in this step (Newton's method)
+  unsigned int line_search_cuts = 0; ///< corrections halved by the line search
   unsigned int yielding_points = 0;
   std::vector<double> newton_residuals;
   /// Steps the step was taken in: 1, or more after a failed Newton step was
@@ -155,6 +156,9 @@ public:
   std::optional<ClayCellState> clay_cell_state(unsigned int active_cell_index) const;
   /// Whether some region has a Cam Clay skeleton.
   bool has_clays() const;
+  /// c of a region's conductivity k = k0 exp(c tr eps) (a clay with a
+  /// permeability change index), 0 where the conductivity stays.
+  double conductivity_rate(dealii::types::material_id region) const;
   /// Where a Cam Clay region has yielded so far: its quadrature points whose yield
   /// size p'c differs from the start's (they went past the yield surface at some
   /// time), the box that holds them, and the largest change of p'c. Collective.

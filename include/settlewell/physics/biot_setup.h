@@ -10,6 +10,7 @@
 #include <deal.II/base/symmetric_tensor.h>
 #include <deal.II/base/types.h>
 
+#include <cmath>
 #include <functional>
 #include <map>
 #include <string>
@@ -66,6 +67,18 @@ struct ClaySkeleton {
   /// K0 of the past one-dimensional loading to sigma'p (the yield ellipse passes
   /// through the stress it reached).
   double k0_past = 0.5;
+  /// Ck, the change of void ratio for a tenfold change of conductivity: the
+  /// conductivity follows k = k0 10^((e - e0)/Ck) (Taylor 1948), with e - e0 =
+  /// v0 tr(eps) in small strain. 0: the conductivity stays that of the material.
+  double permeability_change_index = 0.0;
+
+  /// c of k = k0 exp(c tr eps) (tr eps tension positive, from the start), 1/-; 0
+  /// when the conductivity stays.
+  double conductivity_rate() const {
+    return permeability_change_index > 0.0
+               ? std::log(10.0) * parameters.specific_volume / permeability_change_index
+               : 0.0;
+  }
 
   /// p'c of the yield ellipse at an elevation (m) where the start's effective
   /// stress (tension positive) is `start`, kPa.
@@ -90,6 +103,9 @@ struct NewtonSettings {
   /// A step that fails is taken again as two halves, at most this many times
   /// over (down to 1/2^max_halvings of the step).
   unsigned int max_halvings = 5;
+  /// A correction after which the residual does not fall (or a point's return
+  /// fails) is halved, at most this many times (a line search; 0: none).
+  unsigned int line_search_cuts = 4;
   /// Each step's first iterate carries the last step's trend on (else it starts
   /// from the last step's state).
   bool carry_trend = true;

@@ -67,6 +67,18 @@ public:
                              const std::vector<PlaneTensor>& stresses,
                              dealii::FullMatrix<double>& matrix,
                              dealii::Vector<double>& vector);
+  /// A mobility that follows the volumetric strain, m = f m0 with f = exp(c tr
+  /// eps), linearised for Newton's method about the state `local` (the cell's dof
+  /// values): into `matrix` the p-p entries dt integral of grad phi_i . (f - 1) m0
+  /// grad phi_j (add_matrix holds m0) and the p-u entries dt integral of grad phi_i
+  /// . c f m0 grad p tr eps(v_j); into the p rows of `vector` those p-u entries
+  /// applied to the state itself, so that the rows' residual is exact at `local`.
+  void add_strain_dependent_flow(const dealii::Tensor<2, 2>& mobility,
+                                 double rate,
+                                 const dealii::Vector<double>& local,
+                                 double dt,
+                                 dealii::FullMatrix<double>& matrix,
+                                 dealii::Vector<double>& vector);
   /// The fixed-stress approximation of the Schur complement in the p-p entries:
   /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
   /// drained plane bulk modulus lambda + mu.

@@ -35,6 +35,9 @@ struct Material {
     CamClayParameters parameters;
     double compression_index = 0.0, recompression_index = 0.0, void_ratio = 0.0;
     double friction_angle = 0.0; ///< phi'cs, degrees
+    /// Ck: the conductivity falls tenfold for each Ck of void ratio lost (Taylor
+    /// 1948); 0 (not given): it stays.
+    double permeability_change_index = 0.0;
     /// How the preconsolidation is given: sigma'p (kPa), OCR, or POP (kPa).
     enum class Past { pressure, ocr, pop } past = Past::ocr;
     /// Its value: a constant, or a profile of (elevation m, value) pairs sorted by

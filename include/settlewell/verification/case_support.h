@@ -32,6 +32,25 @@ double crossing_time(const std::vector<double>& t,
 /// Formats a number for a quantity label ("Tv=0.197").
 std::string label(const std::string& name, double value);
 
+/// Newton's observed order near the solution over a run's steps: each triple of
+/// successive residuals whose middle one is below 1e-2 (of the step's scale) and
+/// whose last is above 1e-12 (above round-off) gives log(r3/r2)/log(r2/r1).
+class NewtonOrders {
+public:
+  void add(const StepReport& step);
+  /// The median over all triples so far; NaN if there are none.
+  double median() const;
+
+private:
+  std::vector<double> orders_;
+};
+
+/// Settings that let Newton's own convergence show, not the stopping rules': a
+/// tight tolerance, exact corrections, and each step started from the last one's
+/// state (with the trend carried on most steps converge in two iterations, too few
+/// to measure an order).
+void show_newton_order(NewtonSettings& newton);
+
 /// The source of the Newton-order rows: quadratic convergence of Newton's method
 /// with the exact Jacobian, which the consistent tangent of an implicit return
 /// provides.
