@@ -4,6 +4,7 @@
 // verification case `cam-clay-paths` (src/verification/case_cam_clay.cc).
 #include "settlewell/core/errors.h"
 #include "settlewell/materials/cam_clay.h"
+#include "settlewell/physics/biot_setup.h"
 #include "settlewell/scenario/scenario.h"
 
 #include <gtest/gtest.h>
@@ -126,4 +127,16 @@ TEST(CamClayScenario, PreconsolidationProfileIsLinearBetweenItsPointsAndConstant
   c.past_profile.clear();
   c.past_value = 1.5;
   EXPECT_DOUBLE_EQ(c.preconsolidation(80.0, -5.0), 120.0);
+}
+
+TEST(ClaySkeleton, PermeabilityChangeIndexEqualToCcGivesConstantCvOnTheCompressionLine) {
+  // Taylor (1948): k = k0 10^((e - e0)/Ck); with e - e0 = -Cc log10(sigma'/sigma'0)
+  // on the normal compression line and Ck = Cc, k = k0 sigma'0/sigma' (what Davis
+  // & Raymond 1965 assume). Small strain: e - e0 = v0 tr(eps).
+  ClaySkeleton c;
+  c.parameters = clay();
+  EXPECT_EQ(c.conductivity_rate(), 0.0);                // no Ck: k stays
+  c.permeability_change_index = 0.42;                   // = Cc
+  const double strain = -0.42 / 2.15 * std::log10(3.0); // sigma' tripled
+  EXPECT_NEAR(std::exp(c.conductivity_rate() * strain), 1.0 / 3.0, 1e-14);
 }
