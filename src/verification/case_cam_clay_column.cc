@@ -69,21 +69,10 @@ ColumnRun run_column(double k0, double pop, double k0_past, MPI_Comm comm) {
     box.y_edges.push_back(-height + height * i / 12.0);
   const Mesh mesh = make_box_mesh(box, comm);
   BiotSetup setup;
-  PoroelasticMaterial flow;
-  flow.youngs_modulus = 5000.0; // the preconditioner's stiffness only
-  flow.poisson_ratio = nu;
-  flow.conductivity_x = flow.conductivity_y = conductivity;
-  setup.materials["soil"] = flow;
   const auto m = CamClayParameters::from_indices(cc, cr, e0, phi, nu);
-  setup.clays["soil"] = {m, [pop](double vertical, double) { return vertical + pop; },
-                         k0_past};
-  setup.geostatic.unit_weights["soil"] = unit_weight;
-  setup.geostatic.effective_stress = [k0](const dealii::Point<2>& x, auto) {
-    dealii::SymmetricTensor<2, 3> s;
-    s[1][1] = -vertical_start(x[1]);
-    s[0][0] = s[2][2] = k0 * s[1][1];
-    return s;
-  };
+  set_clay_column(setup,
+                  {m, [pop](double vertical, double) { return vertical + pop; }, k0_past},
+                  conductivity, unit_weight, vertical_start, k0);
   auto& bc = setup.conditions;
   bc.fix("left", true, false).fix("right", true, false).fix("bottom", true, true);
   // The heads fall over a day (a ramp): each step's stress increment stays small

@@ -101,23 +101,14 @@ struct Run {
 
 BiotSetup column_setup() {
   BiotSetup setup;
-  PoroelasticMaterial flow;
-  flow.youngs_modulus = 2000.0; // the preconditioner's stiffness only
-  flow.poisson_ratio = nu;
-  flow.conductivity_x = flow.conductivity_y = conductivity;
-  setup.materials["soil"] = flow;
   const auto m = CamClayParameters::from_indices(cc, cr, e0, phi, nu);
   const double eta = one_dimensional_stress_ratio(m);
   const double k0 = (3.0 - eta) / (3.0 + 2.0 * eta);
-  // Normally consolidated: the preconsolidation is the start's.
-  setup.clays["soil"] = {m, [](double vertical, double) { return vertical; }, k0, cc};
-  setup.geostatic.unit_weights["soil"] = units::default_gamma_w; // no buoyant weight
-  setup.geostatic.effective_stress = [k0](const dealii::Point<2>&, auto) {
-    dealii::SymmetricTensor<2, 3> s;
-    s[1][1] = -start_vertical;
-    s[0][0] = s[2][2] = k0 * s[1][1];
-    return s;
-  };
+  // Normally consolidated (the preconsolidation is the start's), Ck = Cc, no
+  // buoyant weight.
+  set_clay_column(
+      setup, {m, [](double vertical, double) { return vertical; }, k0, cc}, conductivity,
+      units::default_gamma_w, [](double) { return start_vertical; }, k0);
   auto& bc = setup.conditions;
   bc.fix("left", true, false).fix("right", true, false).fix("bottom", true, true);
   bc.head("top", uniform(step_at_start(0.0)));

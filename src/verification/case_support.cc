@@ -36,6 +36,28 @@ writer_for(const CaseSettings& settings, const std::string& case_name, MPI_Comm 
                                        case_name, comm);
 }
 
+void set_clay_column(BiotSetup& setup,
+                     const ClaySkeleton& clay,
+                     double conductivity,
+                     double unit_weight,
+                     const std::function<double(double)>& vertical_start,
+                     double k0) {
+  PoroelasticMaterial flow;
+  flow.youngs_modulus = 5000.0; // the iterative solver's preconditioner's only
+  flow.poisson_ratio = clay.parameters.poisson_ratio;
+  flow.conductivity_x = flow.conductivity_y = conductivity;
+  setup.materials["soil"] = flow;
+  setup.clays["soil"] = clay;
+  setup.geostatic.unit_weights["soil"] = unit_weight;
+  setup.geostatic.effective_stress = [vertical_start, k0](const dealii::Point<2>& x,
+                                                          auto) {
+    dealii::SymmetricTensor<2, 3> s;
+    s[1][1] = -vertical_start(x[1]);
+    s[0][0] = s[2][2] = k0 * s[1][1];
+    return s;
+  };
+}
+
 void NewtonOrders::add(const StepReport& step) {
   const auto& r = step.newton_residuals;
   for (std::size_t k = 1; k + 1 < r.size(); ++k)

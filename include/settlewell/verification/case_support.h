@@ -32,6 +32,16 @@ double crossing_time(const std::vector<double>& t,
 /// Formats a number for a quantity label ("Tv=0.197").
 std::string label(const std::string& name, double value);
 
+/// A column of one clay region, "soil": its Cam Clay skeleton `clay`, conductivity
+/// (m/s) and unit weight (kN/m3), and its start, a vertical effective stress
+/// vertical_start(elevation) (kPa, compression positive) with sigma'h = k0 sigma'v.
+void set_clay_column(BiotSetup& setup,
+                     const ClaySkeleton& clay,
+                     double conductivity,
+                     double unit_weight,
+                     const std::function<double(double)>& vertical_start,
+                     double k0);
+
 /// Newton's observed order near the solution over a run's steps: each triple of
 /// successive residuals whose middle one is below 1e-2 (of the step's scale) and
 /// whose last is above 1e-12 (above round-off) gives log(r3/r2)/log(r2/r1).
