@@ -73,7 +73,6 @@ std::string storage_text(const scenario::Material& m, double gamma_w) {
 
 /// What a cam_clay material's skeleton uses, converted from the user's terms.
 std::string clay_text(const scenario::Material::CamClay& c) {
-  using Past = scenario::Material::CamClay::Past;
   std::ostringstream os;
   const auto& m = c.parameters;
   os << "Modified Cam Clay from Cc " << c.compression_index << ", Cr "
@@ -81,26 +80,7 @@ std::string clay_text(const scenario::Material::CamClay& c) {
      << c.friction_angle << " degrees: lambda " << m.lambda << ", kappa " << m.kappa
      << " (C / ln 10), v0 " << m.specific_volume << ", M " << m.critical_state_slope
      << ", K0nc " << 1.0 - std::sin(c.friction_angle * units::pi / 180.0)
-     << " (Jaky 1944) on the past loading; preconsolidation ";
-  switch (c.past) {
-  case Past::pressure:
-    os << "sigma'p";
-    break;
-  case Past::ocr:
-    os << "OCR";
-    break;
-  case Past::pop:
-    os << "POP";
-    break;
-  }
-  const std::string unit = c.past == Past::ocr ? "" : " kPa";
-  if (c.past_profile.empty())
-    os << " " << c.past_value << unit;
-  for (std::size_t i = 0; i < c.past_profile.size(); ++i)
-    os << (i == 0 ? " " : ", ") << c.past_profile[i].second << unit << " at "
-       << c.past_profile[i].first << " m";
-  if (!c.past_profile.empty())
-    os << " (linear between, constant beyond)";
+     << " (Jaky 1944) on the past loading; preconsolidation " << c.past_text();
   if (c.permeability_change_index > 0.0)
     os << "; conductivity k0 10^((e - e0)/Ck) with Ck " << c.permeability_change_index
        << " (Taylor 1948), the k above being k0";

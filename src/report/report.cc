@@ -130,20 +130,28 @@ void inputs_section(Document& d, const toml::table& r) {
   Table materials{{"region", "material", "unit weight (kN/m³)", "E' (kPa)", "ν'",
                    "mv (1/MPa)", "kx (m/s)", "ky (m/s)", "K0"},
                   {}};
+  std::vector<std::string> clays;
   if (const auto* ms = r["inputs"]["materials"].as_array())
     for (const auto& node : *ms) {
       const auto& m = *node.as_table();
+      // A Cam Clay's stiffness follows its stress: no single E' or mv.
+      const bool clay = m.contains("cam_clay");
+      if (clay)
+        clays.push_back(text(m["region"]) + ": Modified Cam Clay, " +
+                        text(m["cam_clay"]));
       materials.rows.push_back({{text(m["region"])},
                                 {text(m["material"])},
                                 {num(get(m["unit_weight"]))},
-                                {num(get(m["youngs_modulus_kPa"]))},
+                                {clay ? "Cam Clay" : num(get(m["youngs_modulus_kPa"]))},
                                 {num(get(m["poisson_ratio"]))},
-                                {num(1000 * get(m["mv_per_kPa"]))},
+                                {clay ? "Cam Clay" : num(1000 * get(m["mv_per_kPa"]))},
                                 {num(get(m["kx"]))},
                                 {num(get(m["ky"]))},
                                 {num(get(m["k0"]))}});
     }
   s.table(materials);
+  if (!clays.empty())
+    s.list(clays);
   Table boundaries{{"boundary", "hydraulic, mechanical"}, {}};
   if (const auto* bs = r["inputs"]["boundaries"].as_array())
     for (const auto& node : *bs)

@@ -30,8 +30,7 @@ toml::table inputs_table(const scenario::Scenario& s,
   toml::array materials, boundaries, stages, geometry;
   for (const auto& [region, name] : model::region_materials(s, mesh)) {
     const auto& m = s.materials.at(name);
-    materials.push_back(
-        toml::table{{"region", region},
+    toml::table row{{"region", region},
                     {"material", name},
                     {"unit_weight", m.unit_weight},
                     {"youngs_modulus_kPa", m.poroelastic.youngs_modulus},
@@ -39,7 +38,11 @@ toml::table inputs_table(const scenario::Scenario& s,
                     {"mv_per_kPa", 1.0 / m.poroelastic.constrained_modulus()},
                     {"kx", m.poroelastic.conductivity_x},
                     {"ky", m.poroelastic.conductivity_y},
-                    {"k0", m.k0}});
+                    {"k0", m.k0}};
+    // A clay's E' and mv are only the iterative solver's reference stiffness.
+    if (m.cam_clay)
+      row.insert("cam_clay", m.cam_clay->summary());
+    materials.push_back(std::move(row));
   }
   for (const auto& [name, role] : model::boundary_roles(s, mesh))
     boundaries.push_back(

@@ -64,6 +64,30 @@ double Material::CamClay::past_at(double elevation) const {
   return past_profile.back().second;
 }
 
+std::string Material::CamClay::past_text() const {
+  std::ostringstream os;
+  const char* const names[] = {"sigma'p", "OCR", "POP"};
+  os << names[static_cast<int>(past)];
+  const std::string unit = past == Past::ocr ? "" : " kPa";
+  if (past_profile.empty())
+    os << " " << past_value << unit;
+  for (std::size_t i = 0; i < past_profile.size(); ++i)
+    os << (i == 0 ? " " : ", ") << past_profile[i].second << unit << " at "
+       << past_profile[i].first << " m";
+  if (!past_profile.empty())
+    os << " (linear between, constant beyond)";
+  return os.str();
+}
+
+std::string Material::CamClay::summary() const {
+  std::ostringstream os;
+  os << "Cc " << compression_index << ", Cr " << recompression_index << ", e0 "
+     << void_ratio << ", phi'cs " << friction_angle << " degrees, " << past_text();
+  if (permeability_change_index > 0.0)
+    os << ", Ck " << permeability_change_index << " (kx, ky at the start)";
+  return os.str();
+}
+
 double Material::CamClay::preconsolidation(double vertical_start,
                                            double elevation) const {
   const double value = past_at(elevation);

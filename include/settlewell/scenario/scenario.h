@@ -48,6 +48,11 @@ struct Material {
     /// sigma'p at a point (elevation, m) whose start vertical effective stress is
     /// sigma'v0, kPa.
     double preconsolidation(double vertical_start, double elevation) const;
+    /// "POP 25 kPa", "OCR 1.5 at -9 m, 1.2 at -4 m (linear between, constant
+    /// beyond)": how the past was given.
+    std::string past_text() const;
+    /// The oedometer's terms in one line: Cc, Cr, e0, phi'cs, the past, Ck.
+    std::string summary() const;
   };
   std::optional<CamClay> cam_clay;
 };
