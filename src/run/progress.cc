@@ -36,7 +36,8 @@ void Progress::step(const std::string& stage,
                     std::size_t n_stages,
                     double time_days,
                     double dt_days,
-                    double solve_seconds) {
+                    double solve_seconds,
+                    const std::string& detail) {
   ++done_;
   if (!enabled_)
     return;
@@ -46,8 +47,10 @@ void Progress::step(const std::string& stage,
   line << "stage " << stage_number << "/" << n_stages << " " << stage << " | t "
        << std::fixed << std::setprecision(2) << time_days << " d | dt "
        << std::setprecision(3) << dt_days << " d | step " << done_ << "/" << total_
-       << " | solve " << std::setprecision(3) << solve_seconds << " s | left ~"
-       << duration_text(left);
+       << " | solve " << std::setprecision(3) << solve_seconds << " s";
+  if (!detail.empty())
+    line << " | " << detail;
+  line << " | left ~" << duration_text(left);
   if (in_place_)
     out_ << '\r' << std::left << std::setw(100) << line.str() << std::flush;
   else

@@ -92,6 +92,21 @@ std::vector<double> step_row(const StepReport& r,
   return row;
 }
 
+/// A clay step's Newton iterations for the progress line ("Newton 3, residual
+/// 2.1e-09"; the halvings, the sub-steps), empty for a linear step.
+std::string newton_text(const StepReport& r) {
+  if (r.newton_residuals.empty())
+    return "";
+  std::ostringstream os;
+  os << "Newton " << r.newton_iterations << ", residual " << std::setprecision(2)
+     << std::scientific << r.newton_residuals.back();
+  if (r.line_search_cuts > 0)
+    os << ", " << r.line_search_cuts << " halved";
+  if (r.sub_steps > 1)
+    os << ", in " << r.sub_steps << " sub-steps";
+  return os.str();
+}
+
 /// Stops the run before a step whose solution is not finite reaches the outputs:
 /// those of the steps before stay as they are. A sum carries NaN and infinity
 /// where PETSc's max-norm would skip a NaN.
@@ -481,7 +496,7 @@ RunSummary Simulation::Impl::run_steps(const RunOptions& options,
     const std::size_t k = view.stage();
     progress.step(m.schedule.stages()[k].name, k + 1, m.schedule.stages().size(),
                   units::to_days(report.time), units::to_days(report.dt),
-                  report.solve_seconds);
+                  report.solve_seconds, newton_text(report));
     summary.stopped_by = stop_signal(m.comm);
     const bool overdue =
         options.checkpoint_minutes > 0.0 &&

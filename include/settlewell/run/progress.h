@@ -19,12 +19,15 @@ public:
            bool enabled,
            std::size_t done_before = 0);
 
+  /// `detail`: more about the step (a clay's Newton iterations), shown before the
+  /// time left.
   void step(const std::string& stage,
             std::size_t stage_number,
             std::size_t n_stages,
             double time_days,
             double dt_days,
-            double solve_seconds);
+            double solve_seconds,
+            const std::string& detail = "");
   void finish();
 
 private:
