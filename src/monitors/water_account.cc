@@ -38,6 +38,7 @@ WaterAccount::WaterAccount(const RunContext& run)
     , tolerance_(run.scenario.limits.mass_balance) {
   for (const auto& p : pumped_) {
     volume_[p.label] = 0.0;
+    injecting_steps_[p.label] = 0;
     stage_volume_[p.label].assign(run.schedule.stages().size(), 0.0);
   }
   std::set<std::string> lines;
@@ -76,9 +77,11 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
   lines.insert(lines.end(), sources_.begin(), sources_.end());
   const std::vector<double> outflow = problem.outflows(lines);
   std::size_t next = 0;
+  std::vector<double> pumped_rates;
   for (const auto& p : pumped_) {
     const double q =
         p.drained_surface ? problem.drained_surface_outflow() : outflow[next++];
+    pumped_rates.push_back(q);
     volume_[p.label] += q * dt;
     stage_volume_[p.label][view.stage()] += q * dt;
     final_discharge_[p.label] = q;
@@ -117,8 +120,26 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
         << "settlewell: warning: the water balance of step at day "
         << units::to_days(view.time()) << " is off by " << error
         << " (relative); see steps.csv (the run's last lines count such steps)\n";
+  for (std::size_t i = 0; i < pumped_.size(); ++i)
+    note_injection(view, pumped_[i], pumped_rates[i]);
   values.insert(values.end(), {net_outflow * units::seconds_per_day, stored, error});
   return values;
+}
+
+void WaterAccount::note_injection(const RunView& view,
+                                  const model::PumpedLine& line,
+                                  double q) {
+  // Water put into the ground: more than round-off of the largest step's
+  // exchange (a line held at the head around it passes about nothing either way).
+  if (!(-q * view.step.dt > 1e-6 * largest_moved_) || injecting_steps_[line.label]++ > 0)
+    return;
+  dealii::ConditionalOStream(std::cerr,
+                             dealii::Utilities::MPI::this_mpi_process(view.comm()) == 0)
+      << "settlewell: warning: at day " << units::to_days(view.time()) << " '"
+      << line.label << "' puts water into the ground (" << -q * units::seconds_per_day
+      << " m3/day): its held head is above the ground's there, so it injects; a "
+         "head-held line is not yet limited to taking water (the run's last lines "
+         "count such steps)\n";
 }
 
 void WaterAccount::finish(const RunView& view, toml::table& results) {
@@ -133,7 +154,8 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
         {"final_m3_per_day",
          q != final_discharge_.end() ? q->second * units::seconds_per_day : 0.0},
         {"volume_m3", volume_.at(p.label)},
-        {"stage_volumes_m3", per_stage}});
+        {"stage_volumes_m3", per_stage},
+        {"steps_injecting", int64_t(injecting_steps_.at(p.label))}});
   }
   results.insert("discharge", discharge);
   results.insert("discharge_unit",
@@ -207,8 +229,9 @@ void WaterAccount::write_budget(const RunView& view, toml::table& results) const
 }
 
 void WaterAccount::visit_state(StateArchive& a) {
-  a.mark("water account");
+  a.mark("water account 2");
   a& volume_& final_discharge_& stage_volume_& worst_balance_& largest_moved_& steps_off_;
+  a& injecting_steps_;
   a& inflow_volume_& final_inflow_& storage_release_& final_storage_release_;
 }
 

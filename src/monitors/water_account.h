@@ -35,6 +35,9 @@ private:
   double worst_balance_ = 0.0;
   double largest_moved_ = 0.0; ///< water moved in the largest step so far, m^3
   std::size_t steps_off_ = 0;  ///< steps whose balance error exceeds the tolerance
+  /// Steps in which a pumped line put water into the ground, by label.
+  std::map<std::string, std::uint64_t> injecting_steps_;
+  void note_injection(const RunView& view, const model::PumpedLine& line, double q);
 };
 
 } // namespace settlewell::monitors

@@ -309,6 +309,10 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
       "storage equation where heads are prescribed), in m³/day " +
       unit + ".");
   Table t{{"line", "rate at the end (m³/day)"}, {}};
+  // A line that put water into the ground: flagged in its own column.
+  const bool injects = std::any_of(q->begin(), q->end(), [](const auto& node) {
+    return get((*node.as_table())["steps_injecting"]) > 0.0;
+  });
   if (const auto* stages = r["stages"].as_array())
     for (const auto& st : *stages)
       t.header.push_back("volume in " + text((*st.as_table())["name"]) + " (m³)");
@@ -321,7 +325,17 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
       for (const auto& v : *vs)
         row.push_back({significant(v.value<double>().value_or(0.0))});
     row.push_back({significant(get(line["volume_m3"]))});
+    if (injects) {
+      const double n = get(line["steps_injecting"]);
+      row.push_back({num(n, 8), n > 0.0 ? Flag::attention : Flag::ok});
+    }
     t.rows.push_back(row);
+  }
+  if (injects) {
+    t.header.push_back("steps putting water into the ground");
+    s.paragraph("A line with steps putting water into the ground held a head above "
+                "the ground's around it: it injected instead of pumping. Check its "
+                "target heads; a head-held line is not yet limited to taking water.");
   }
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
   budget_table(s, r, unit);

@@ -117,6 +117,8 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       const auto& line = *node.as_table();
       const std::string label(line["line"].value_or(std::string_view()));
       summary.pumped_volume[label] = line["volume_m3"].value_or(0.0);
+      if (const auto n = line["steps_injecting"].value_or(int64_t(0)); n > 0)
+        summary.injecting_steps[label] = std::size_t(n);
       summary.final_discharge[label] =
           line["final_m3_per_day"].value_or(0.0) / units::seconds_per_day;
       auto& per_stage = summary.stage_volume[label];
@@ -207,6 +209,9 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance
         << " (worst " << r.mass_balance << "); see steps.csv\n"
         << std::fixed;
+  for (const auto& [label, n] : r.injecting_steps)
+    out << "  " << label << " put water into the ground in " << n << " of " << r.steps
+        << " steps (its held head above the ground's there)\n";
   if (r.movement_steps_over > 0)
     out << "  movement: " << r.movement_steps_over << " of " << r.steps
         << " steps move the ground more than " << std::defaultfloat << r.movement_limit

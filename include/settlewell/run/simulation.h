@@ -68,6 +68,8 @@ struct RunSummary {
   /// beyond it.
   double largest_movement = 0.0, movement_limit = 0.0;
   std::size_t movement_steps_over = 0;
+  /// Pumped lines that put water into the ground, and in how many steps.
+  std::map<std::string, std::size_t> injecting_steps;
   std::string run_directory;
 };
 
