@@ -229,10 +229,10 @@ struct BiotProblem::Impl {
                       const DoFHandler<2>::active_cell_iterator& cell,
                       FullMatrix<double>& cell_matrix,
                       Vector<double>& cell_rhs) const;
-  /// A clay cell's flow terms when its conductivity follows its strain (Ck given),
-  /// about the state `local` (CellKernel::add_strain_dependent_flow). Returns
-  /// false, adding nothing, when its conductivity stays.
-  bool add_clay_flow(CellKernel& kernel,
+  /// A clay cell's flow terms when its conductivity follows its strain (Ck given:
+  /// conductivity_rate of its region not 0), about the state `local`
+  /// (CellKernel::add_strain_dependent_flow).
+  void add_clay_flow(CellKernel& kernel,
                      const DoFHandler<2>::active_cell_iterator& cell,
                      const Vector<double>& local,
                      double dt,

@@ -214,18 +214,16 @@ void BiotProblem::Impl::add_clay_terms(CellKernel& kernel,
   kernel.add_tangent_and_force(tangents, tau, cell_matrix, cell_rhs);
 }
 
-bool BiotProblem::Impl::add_clay_flow(CellKernel& kernel,
+void BiotProblem::Impl::add_clay_flow(CellKernel& kernel,
                                       const DoFHandler<2>::active_cell_iterator& cell,
                                       const Vector<double>& local,
                                       double dt,
                                       FullMatrix<double>& cell_matrix,
                                       Vector<double>& cell_rhs) const {
-  const double rate = conductivity_rate(cell->material_id());
-  if (rate == 0.0)
-    return false;
-  kernel.add_strain_dependent_flow(coefficients[cell->material_id()].mobility, rate,
-                                   local, dt, cell_matrix, cell_rhs);
-  return true;
+  const auto region = cell->material_id();
+  kernel.add_strain_dependent_flow(coefficients[region].mobility,
+                                   conductivity_rate(region), local, dt, cell_matrix,
+                                   cell_rhs);
 }
 
 double BiotProblem::conductivity_rate(types::material_id region) const {

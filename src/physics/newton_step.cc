@@ -86,8 +86,10 @@ void BiotProblem::Impl::add_clay_terms(double dt) {
     cell_matrix = 0.0;
     cell_rhs = 0.0;
     add_clay_terms(kernel, cell, cell_matrix, cell_rhs);
-    cell->get_dof_values(solution, local);
-    add_clay_flow(kernel, cell, local, dt, cell_matrix, cell_rhs);
+    if (conductivity_rate(cell->material_id()) != 0.0) {
+      cell->get_dof_values(solution, local);
+      add_clay_flow(kernel, cell, local, dt, cell_matrix, cell_rhs);
+    }
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
     constraints.distribute_local_to_global(cell_rhs, dofs, rhs);
   }

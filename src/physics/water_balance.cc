@@ -48,10 +48,11 @@ void BiotProblem::Impl::storage_residual(double t,
     cell_matrix_at(kernel, cell, dt).vmult(residual, local);
     // A clay whose conductivity follows its strain: its flow's change, as
     // Newton's last system held it at this state.
-    flow_matrix = 0.0;
-    if (has_clay_points(cell) &&
-        add_clay_flow(kernel, cell, local, dt, flow_matrix, cell_rhs))
+    if (conductivity_rate(cell->material_id()) != 0.0) {
+      flow_matrix = 0.0;
+      add_clay_flow(kernel, cell, local, dt, flow_matrix, cell_rhs);
       flow_matrix.vmult_add(residual, local);
+    }
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
