@@ -113,6 +113,8 @@ double line_measure(const Mesh& mesh, const std::string& name, AnalysisType anal
 struct ControlItem {
   std::vector<std::optional<Target>> targets;
   std::optional<std::function<double(const Point<2>&)>> initial;
+  /// How a head held there lets water through (HydraulicCondition::Exchange).
+  HydraulicCondition::Exchange exchange = HydraulicCondition::Exchange::both_ways;
 };
 
 void require_line(const Scenario& s,
@@ -130,6 +132,14 @@ void require_line(const Scenario& s,
 std::string well_line(const Scenario& s, const Mesh& mesh, const std::string& well) {
   const std::string prefixed = section_names::well(well);
   return s.section || mesh.has_line(prefixed) ? prefixed : well;
+}
+
+bool recharge_well(const Scenario& s, const std::string& well) {
+  if (!s.section)
+    return false;
+  const auto& wells = s.section->wells;
+  return std::any_of(wells.begin(), wells.end(),
+                     [&](const auto& w) { return w.name == well && w.recharge; });
 }
 
 std::map<std::string, ControlItem>
@@ -152,6 +162,10 @@ hydraulic_items(const Scenario& s,
         it.initial = [h = *spec.head](const Point<2>&) { return h; };
       else
         it.initial = [&initial](const Point<2>& x) { return initial.head(x); };
+    } else if (spec.hydraulic == BoundarySpec::Hydraulic::seepage_face) {
+      auto& it = item(name);
+      it.initial = [](const Point<2>& x) { return x[1]; }; // atmospheric pressure
+      it.exchange = HydraulicCondition::Exchange::seepage_face;
     }
   for (std::size_t k = 0; k < n; ++k) {
     const auto& stage = s.stages[k];
@@ -167,15 +181,20 @@ hydraulic_items(const Scenario& s,
                          well + "': the mesh has no line named '" + well + "' or '" +
                          section_names::well(well) + "'");
       item(line).targets[k] = target;
+      item(line).exchange = recharge_well(s, well)
+                                ? HydraulicCondition::Exchange::both_ways
+                                : HydraulicCondition::Exchange::pumped;
     }
-    if (stage.excavation_level_head)
-      item(section_names::excavation_level).targets[k] =
-          Target{Target::Kind::head, *stage.excavation_level_head};
+    if (stage.excavation_level_head) {
+      auto& it = item(section_names::excavation_level);
+      it.targets[k] = Target{Target::Kind::head, *stage.excavation_level_head};
+      it.exchange = HydraulicCondition::Exchange::pumped; // from a sump
+    }
   }
   if (s.section)
     for (const auto& w : s.section->wells)
       if (items.count(section_names::well(w.name)))
-        pumped.push_back({w.name, section_names::well(w.name)});
+        pumped.push_back({w.name, section_names::well(w.name), false, w.recharge});
   if (!s.section)
     for (const auto& stage : s.stages)
       for (const auto& [well, target] : stage.wells)
@@ -199,6 +218,7 @@ void add_hydraulic(const Scenario& s,
     for (const auto& phase : control_phases(schedule, item.targets, item.initial, h0)) {
       if (phase.kind == Target::Kind::head) {
         bc.head(line, phase.value, phase.window);
+        bc.hydraulic.back().exchange = item.exchange;
         continue;
       }
       // A discharge (m^3/s per metre run, or per well) spread evenly over the line.

@@ -1,5 +1,6 @@
 #include "water_account.h"
 
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 
@@ -27,6 +28,14 @@ std::set<std::string> lateral_edges(const scenario::Scenario& s) {
   return edges;
 }
 
+/// A warning on the first process's standard error.
+void warn(const RunView& view, const std::string& text) {
+  dealii::ConditionalOStream(std::cerr,
+                             dealii::Utilities::MPI::this_mpi_process(view.comm()) == 0)
+      << "settlewell: warning: at day " << units::to_days(view.time()) << " " << text
+      << " (the run's last lines count such steps)\n";
+}
+
 double share(double part, double whole) {
   return whole > 0.0 ? part / whole : 0.0;
 }
@@ -38,7 +47,7 @@ WaterAccount::WaterAccount(const RunContext& run)
     , tolerance_(run.scenario.limits.mass_balance) {
   for (const auto& p : pumped_) {
     volume_[p.label] = 0.0;
-    injecting_steps_[p.label] = 0;
+    line_steps_[p.label] = {};
     stage_volume_[p.label].assign(run.schedule.stages().size(), 0.0);
   }
   std::set<std::string> lines;
@@ -120,8 +129,16 @@ std::vector<double> WaterAccount::after_step(const RunView& view) {
         << "settlewell: warning: the water balance of step at day "
         << units::to_days(view.time()) << " is off by " << error
         << " (relative); see steps.csv (the run's last lines count such steps)\n";
-  for (std::size_t i = 0; i < pumped_.size(); ++i)
+  if (!view.step.drains_settled && unsettled_steps_++ == 0)
+    warn(view, "the lines that take water only (wells, seepage faces, the dug "
+               "surface) had not settled which of their points drain after " +
+                   std::to_string(view.step.drain_rounds) +
+                   " solves; the step keeps the last (steps.csv drain_rounds)");
+  for (std::size_t i = 0; i < pumped_.size(); ++i) {
     note_injection(view, pumped_[i], pumped_rates[i]);
+    if (!pumped_[i].drained_surface)
+      note_one_way(view, pumped_[i]);
+  }
   values.insert(values.end(), {net_outflow * units::seconds_per_day, stored, error});
   return values;
 }
@@ -131,15 +148,27 @@ void WaterAccount::note_injection(const RunView& view,
                                   double q) {
   // Water put into the ground: more than round-off of the largest step's
   // exchange (a line held at the head around it passes about nothing either way).
-  if (!(-q * view.step.dt > 1e-6 * largest_moved_) || injecting_steps_[line.label]++ > 0)
+  // A recharge well is meant to; any other line does only by a discharge target
+  // below zero.
+  if (!(-q * view.step.dt > 1e-6 * largest_moved_) ||
+      line_steps_[line.label].injecting++ > 0 || line.recharge)
     return;
-  dealii::ConditionalOStream(std::cerr,
-                             dealii::Utilities::MPI::this_mpi_process(view.comm()) == 0)
-      << "settlewell: warning: at day " << units::to_days(view.time()) << " '"
-      << line.label << "' puts water into the ground (" << -q * units::seconds_per_day
-      << " m3/day): its held head is above the ground's there, so it injects; a "
-         "head-held line is not yet limited to taking water (the run's last lines "
-         "count such steps)\n";
+  warn(view, "'" + line.label + "' puts water into the ground (" +
+                 significant(-q * units::seconds_per_day) + " m3/day)");
+}
+
+void WaterAccount::note_one_way(const RunView& view, const model::PumpedLine& line) {
+  const auto state = view.run.problem.one_way_state(line.line);
+  auto& steps = line_steps_[line.label];
+  if (state.stopped && steps.stopped++ == 0)
+    warn(view, "'" + line.label +
+                   "' would put water into the ground: its held head is above the "
+                   "ground's around it, so its pump stands and it is sealed (only a "
+                   "recharge well, section.wells[].recharge, injects)");
+  if (state.dry && steps.dry++ == 0)
+    warn(view, "'" + line.label +
+                   "' has run dry: its target head is below its screen, which drains "
+                   "at atmospheric pressure");
 }
 
 void WaterAccount::finish(const RunView& view, toml::table& results) {
@@ -155,7 +184,10 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
          q != final_discharge_.end() ? q->second * units::seconds_per_day : 0.0},
         {"volume_m3", volume_.at(p.label)},
         {"stage_volumes_m3", per_stage},
-        {"steps_injecting", int64_t(injecting_steps_.at(p.label))}});
+        {"recharge", p.recharge},
+        {"steps_injecting", int64_t(line_steps_.at(p.label).injecting)},
+        {"steps_stopped", int64_t(line_steps_.at(p.label).stopped)},
+        {"steps_dry", int64_t(line_steps_.at(p.label).dry)}});
   }
   results.insert("discharge", discharge);
   results.insert("discharge_unit",
@@ -172,6 +204,7 @@ void WaterAccount::finish(const RunView& view, toml::table& results) {
                  toml::table{{"largest_relative_error", worst_balance_},
                              {"tolerance", tolerance_},
                              {"steps_over_tolerance", int64_t(steps_off_)},
+                             {"steps_one_way_unsettled", int64_t(unsettled_steps_)},
                              {"closes", worst_balance_ <= tolerance_}});
 }
 
@@ -229,10 +262,12 @@ void WaterAccount::write_budget(const RunView& view, toml::table& results) const
 }
 
 void WaterAccount::visit_state(StateArchive& a) {
-  a.mark("water account 2");
+  a.mark("water account 3");
   a& volume_& final_discharge_& stage_volume_& worst_balance_& largest_moved_& steps_off_;
-  a& injecting_steps_;
+  for (auto& [label, steps] : line_steps_)
+    a& steps.injecting& steps.stopped& steps.dry;
   a& inflow_volume_& final_inflow_& storage_release_& final_storage_release_;
+  a& unsettled_steps_;
 }
 
 } // namespace settlewell::monitors

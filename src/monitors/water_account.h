@@ -35,9 +35,16 @@ private:
   double worst_balance_ = 0.0;
   double largest_moved_ = 0.0; ///< water moved in the largest step so far, m^3
   std::size_t steps_off_ = 0;  ///< steps whose balance error exceeds the tolerance
-  /// Steps in which a pumped line put water into the ground, by label.
-  std::map<std::string, std::uint64_t> injecting_steps_;
+  /// Steps whose one-way lines' active set had not settled at the round limit.
+  std::uint64_t unsettled_steps_ = 0;
+  /// Steps in which a pumped line put water into the ground, stood stopped (it
+  /// would have put water in), or ran dry (its target below it), by label.
+  struct LineSteps {
+    std::uint64_t injecting = 0, stopped = 0, dry = 0;
+  };
+  std::map<std::string, LineSteps> line_steps_;
   void note_injection(const RunView& view, const model::PumpedLine& line, double q);
+  void note_one_way(const RunView& view, const model::PumpedLine& line);
 };
 
 } // namespace settlewell::monitors

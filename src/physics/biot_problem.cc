@@ -194,10 +194,14 @@ void BiotProblem::Impl::setup_dofs() {
 
 void BiotProblem::Impl::find_internal_lines() {
   pressure_line_dofs.assign(conditions.pressures.size(), {});
-  for (std::size_t k = 0; k < conditions.pressures.size(); ++k)
-    if (conditions.pressures[k].line.internal)
-      pressure_line_dofs[k] = pressure_dofs_on_line(
-          dof_handler, mesh.internal_lines.at(conditions.pressures[k].line.name));
+  for (std::size_t k = 0; k < conditions.pressures.size(); ++k) {
+    const LineRef& line = conditions.pressures[k].line;
+    if (line.internal)
+      pressure_line_dofs[k] =
+          pressure_dofs_on_line(dof_handler, mesh.internal_lines.at(line.name));
+    else if (conditions.pressures[k].one_way())
+      pressure_line_dofs[k] = pressure_dofs_on_boundary(dof_handler, line.id);
+  }
   line_flux_faces.clear();
   for (std::size_t k = 0; k < conditions.fluxes.size(); ++k)
     if (conditions.fluxes[k].line.internal)
@@ -368,6 +372,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   new_geometry = m.fit_springs(m.time) || new_geometry;
   if (new_geometry)
     m.find_exposed();
+  m.open_one_way_lines(t_new);
   // Cells taken out or props fitted change what the old states mean: start again
   // with implicit Euler.
   const StepWeights weights =

@@ -30,6 +30,15 @@ using namespace dealii; // as in the two files that include this one
 struct BiotProblem::Impl {
   Impl(const Mesh& mesh, BiotSetup setup);
 
+  /// A pressure dof on a line that takes water only (one_way_flow.cc): where it
+  /// is, and what limits its pressure (an index into conditions.pressures, or
+  /// dug_surface).
+  static constexpr std::size_t dug_surface = std::numeric_limits<std::size_t>::max();
+  struct OneWayDof {
+    Point<2> x;
+    std::size_t condition = dug_surface;
+  };
+
   ConstraintInputs constraint_inputs() const {
     return {dof_handler, layout,   conditions,         plate,   setup.rigid_skeleton,
             owned,       relevant, pressure_line_dofs, removed, drained_now};
@@ -178,7 +187,8 @@ struct BiotProblem::Impl {
   /// wants the symmetric form. Matrix and rhs are scaled by it before a solve.
   LA::MPI::Vector row_signs;
   std::unique_ptr<LinearSolver> solver;
-  std::vector<LineDofs> pressure_line_dofs; ///< per conditions.pressures (internal only)
+  /// Per conditions.pressures: for internal lines and one-way boundaries.
+  std::vector<LineDofs> pressure_line_dofs;
   std::vector<double> unit_weights; ///< by region id, kN/m^3 (with excavation only)
   std::vector<bool> removed;        ///< by active cell index: taken out by excavation
   std::vector<bool> excavated;      ///< per setup.excavation: applied
@@ -284,6 +294,8 @@ struct BiotProblem::Impl {
     double previous_dt = 0.0;
     unsigned int euler_steps_left = 0;
     std::set<types::global_dof_index> draining;
+    std::map<types::global_dof_index, OneWayDof> one_way;
+    std::vector<bool> one_way_open, pumped_stopped;
   };
   StepHistory kept_history() const;
   void restore(const StepHistory& kept);
@@ -322,18 +334,40 @@ struct BiotProblem::Impl {
   std::vector<types::global_dof_index> spring_dofs;
   std::vector<double> spring_fitted_at; ///< displacement at fitting; NaN: not fitted
 
-  // The drained surface that excavation exposes (drained_surface.cc).
-  /// Finds the pressure dofs on faces between cells in the model and removed cells.
+  // Lines where water leaves but does not enter (one_way_flow.cc): the surface
+  // excavation exposes, draining to the pit, and the one-way conditions.
+  /// Sets the dug surface's dofs in one_way: the pressure dofs on faces between
+  /// cells in the model and removed cells.
   void find_exposed();
-  /// The excess pressure at which a point of the surface drains at time t, kPa.
-  double drain_limit(const Point<2>& x, double t) const;
+  void add_exposed();
+  /// Adds the dofs of the one-way conditions that apply at t and did not before
+  /// (held at their limit at first), and drops those of the ones that stopped.
+  /// Starts a step: a pumped line may stop and start again within it.
+  void open_one_way_lines(double t);
+  /// Whether a one-way dof lies below the water of a pumped line at t.
+  bool below_pumped_water(const OneWayDof& d, double t) const;
+  /// Starts or stops the pumped lines from the solve at t whose storage residual
+  /// at the draining dofs is `residual`: a running line whose net flow would enter
+  /// the ground stops (and stays stopped for the step); a stopped one starts where
+  /// the soil's pressure exceeds its limit anywhere along it. Collective.
+  void switch_pumped_lines(double t, const LA::MPI::Vector& residual, double tolerance);
+  /// Sets pumped_stopped from the draining dofs at t (resume). Collective.
+  void infer_stopped_lines(double t);
+  /// The excess pressure at which a one-way dof drains at time t, kPa.
+  double drain_limit(const OneWayDof& d, double t) const;
+  /// The draining dofs that one source (a condition, or dug_surface) limits.
+  std::set<types::global_dof_index> draining_of(std::size_t condition) const;
   /// Sets drained_now to the draining dofs and their limits at time t.
   void set_drain_values(double t);
-  /// Re-decides which exposed dofs drain from the solve at (t, dt): a draining dof
-  /// whose water would enter stops draining; a dry one above its limit drains.
+  /// Re-decides which one-way dofs drain from the solve at (t, dt): a draining dof
+  /// whose water would enter stops draining; a sealed one above its limit drains.
   /// Returns whether the set changed anywhere. Collective.
   bool update_draining(double t, double dt);
-  std::map<types::global_dof_index, Point<2>> exposed; ///< locally relevant
+  std::map<types::global_dof_index, OneWayDof> one_way; ///< locally relevant
+  std::vector<bool> one_way_open; ///< per conditions.pressures: its dofs are in one_way
+  /// Per conditions.pressures: a pumped line whose pump stopped, and one that
+  /// stopped in the current step (it does not start again within the step).
+  std::vector<bool> pumped_stopped, stopped_in_step;
   std::set<types::global_dof_index> draining, matrix_draining;
   std::map<types::global_dof_index, double> drained_now;
   /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).

@@ -154,10 +154,13 @@ void BiotProblem::load_checkpoint(StateArchive& a) {
   LA::MPI::Vector flags(m.owned, m.relevant, m.comm);
   flags = owned_flags;
   m.find_exposed();
+  m.one_way_open.clear();
+  m.open_one_way_lines(m.time);
   m.draining.clear();
-  for (const auto& [d, x] : m.exposed)
+  for (const auto& [d, at] : m.one_way)
     if (flags(d) > 0.5)
       m.draining.insert(d);
+  m.infer_stopped_lines(m.time);
 }
 
 } // namespace settlewell

@@ -167,7 +167,7 @@ void add_pressures(const ConstraintInputs& in,
   const auto& pressures = in.conditions.pressures;
   for (std::size_t k = 0; k < pressures.size(); ++k) {
     const auto& bc = pressures[k];
-    if (!bc.window.contains(t))
+    if (!bc.window.contains(t) || bc.one_way()) // one-way lines: in `drained`
       continue;
     if (!bc.line.internal) {
       const ExcessPressureValues values(bc.excess_pressure, t);

@@ -20,11 +20,10 @@ bool face_on_line(const DoFHandler<2>::face_iterator& face,
   return false;
 }
 
-} // namespace
-
+/// The pressure dofs at the vertices of the faces `on` picks, each once.
+template <typename Picks>
 std::vector<std::pair<types::global_dof_index, Point<2>>>
-pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
-                      const std::vector<Segment>& line) {
+pressure_dofs_on_faces(const DoFHandler<2>& dof_handler, const Picks& on) {
   // Vertex dofs of the FESystem come in base-element order: ux, uy, then p.
   const unsigned int p_index_at_vertex = FieldLayout::pressure;
   std::set<types::global_dof_index> seen;
@@ -33,9 +32,9 @@ pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
     if (cell->is_artificial())
       continue;
     for (const unsigned int f : cell->face_indices()) {
-      const auto face = cell->face(f);
-      if (!face_on_line(face, line))
+      if (!on(cell, f))
         continue;
+      const auto face = cell->face(f);
       for (unsigned int v = 0; v < 2; ++v) {
         const auto dof = face->vertex_dof_index(v, p_index_at_vertex);
         if (seen.insert(dof).second)
@@ -44,6 +43,23 @@ pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
     }
   }
   return dofs;
+}
+
+} // namespace
+
+std::vector<std::pair<types::global_dof_index, Point<2>>>
+pressure_dofs_on_line(const DoFHandler<2>& dof_handler,
+                      const std::vector<Segment>& line) {
+  return pressure_dofs_on_faces(dof_handler, [&](const auto& cell, unsigned int f) {
+    return face_on_line(cell->face(f), line);
+  });
+}
+
+std::vector<std::pair<types::global_dof_index, Point<2>>>
+pressure_dofs_on_boundary(const DoFHandler<2>& dof_handler, types::boundary_id id) {
+  return pressure_dofs_on_faces(dof_handler, [&](const auto& cell, unsigned int f) {
+    return cell->at_boundary(f) && cell->face(f)->boundary_id() == id;
+  });
 }
 
 std::vector<LineFace> faces_on_boundary(const DoFHandler<2>& dof_handler,

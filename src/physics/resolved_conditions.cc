@@ -2,6 +2,7 @@
 
 #include "settlewell/core/errors.h"
 
+#include <algorithm>
 #include <map>
 #include <set>
 
@@ -20,6 +21,29 @@ FieldFunction excess_from(const HydraulicCondition& c, const BiotSetup& setup) {
   return [=](const dealii::Point<2>& x, double t) {
     return value(x, t) - gw * (h0(x) - x[1]);
   };
+}
+
+/// A one-way line's absolute pore pressure, at least zero (atmospheric above the
+/// water it holds).
+FieldFunction held_pressure_from(const HydraulicCondition& c, double gw) {
+  const FieldFunction value = c.value;
+  if (c.kind == HydraulicCondition::Kind::head)
+    return [=](const dealii::Point<2>& x, double t) {
+      return std::max(0.0, gw * (value(x, t) - x[1]));
+    };
+  return [=](const dealii::Point<2>& x, double t) { return std::max(0.0, value(x, t)); };
+}
+
+ExcessPressureBoundary
+one_way_line(const HydraulicCondition& c, const BiotSetup& setup, LineRef line) {
+  const double gw = setup.gamma_w;
+  const auto h0 = setup.initial_head;
+  const FieldFunction held = held_pressure_from(c, gw);
+  return {std::move(line),
+          [=](const dealii::Point<2>& x, double t) {
+            return held(x, t) - gw * (h0(x) - x[1]);
+          },
+          c.window, c.exchange, held};
 }
 
 LineRef line_of(const std::string& name, const Mesh& mesh) {
@@ -49,8 +73,14 @@ void resolve_hydraulic(const BiotSetup& setup,
         throw InputError("'" + c.boundary +
                          "' has two hydraulic conditions at the same time");
     seen[c.boundary].push_back(c.window);
+    const bool one_way = c.exchange != HydraulicCondition::Exchange::both_ways;
+    if (one_way && c.kind == HydraulicCondition::Kind::normal_flux)
+      throw InternalError("a one-way condition on '" + c.boundary +
+                          "' must hold a head or a pore pressure");
     if (c.kind == HydraulicCondition::Kind::normal_flux)
       out.fluxes.push_back({line, c.value, c.window});
+    else if (one_way)
+      out.pressures.push_back(one_way_line(c, setup, line));
     else
       out.pressures.push_back({line, excess_from(c, setup), c.window});
   }

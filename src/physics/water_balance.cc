@@ -106,10 +106,12 @@ double BiotProblem::Impl::prescribed_outflow(const FluxBoundary& flux) const {
 namespace {
 
 /// The prescribed pressure dofs of each active condition, a dof going to the first
-/// condition that constrains it (as in make_constraints).
+/// condition that constrains it (as in make_constraints); a one-way line's are
+/// those it holds now, among `draining`.
 std::vector<std::set<types::global_dof_index>>
 active_pressure_dofs(const ResolvedConditions& conditions,
                      const std::vector<LineDofs>& line_dofs,
+                     const std::set<types::global_dof_index>& draining,
                      const DoFHandler<2>& dof_handler,
                      const FieldLayout& layout,
                      double t) {
@@ -120,7 +122,11 @@ active_pressure_dofs(const ResolvedConditions& conditions,
     if (!bc.window.contains(t))
       continue;
     std::vector<types::global_dof_index> dofs;
-    if (bc.line.internal) {
+    if (bc.one_way()) {
+      for (const auto& [dof, x] : line_dofs[k])
+        if (draining.count(dof))
+          dofs.push_back(dof);
+    } else if (bc.line.internal) {
       for (const auto& [dof, x] : line_dofs[k])
         dofs.push_back(dof);
     } else {
@@ -156,7 +162,7 @@ std::vector<double> BiotProblem::outflows(const std::vector<std::string>& lines)
     return out;
   // The lines that hold a pressure now take their consistent flux from one
   // residual over all of their dofs; the others their prescribed flux, if any.
-  const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs,
+  const auto sets = active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.draining,
                                          m.dof_handler, m.layout, m.time);
   std::vector<const std::set<types::global_dof_index>*> held(lines.size(), nullptr);
   std::set<types::global_dof_index> all;
@@ -196,8 +202,9 @@ BiotProblem::WaterExchange BiotProblem::water_exchange() const {
   if (!(m.time > 0.0))
     return {};
   std::set<types::global_dof_index> all;
-  for (const auto& set : active_pressure_dofs(m.conditions, m.pressure_line_dofs,
-                                              m.dof_handler, m.layout, m.time))
+  for (const auto& set :
+       active_pressure_dofs(m.conditions, m.pressure_line_dofs, m.draining, m.dof_handler,
+                            m.layout, m.time))
     all.insert(set.begin(), set.end());
   all.insert(m.draining.begin(), m.draining.end());
   LA::MPI::Vector residual;
@@ -221,7 +228,7 @@ BiotProblem::WaterExchange BiotProblem::water_exchange() const {
 
 double BiotProblem::drained_surface_outflow() const {
   const Impl& m = *impl_;
-  return m.time > 0.0 ? m.reaction_outflow(m.draining) : 0.0;
+  return m.time > 0.0 ? m.reaction_outflow(m.draining_of(Impl::dug_surface)) : 0.0;
 }
 
 BiotProblem::StorageChange BiotProblem::storage_change() const {

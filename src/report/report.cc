@@ -94,7 +94,14 @@ void run_section(Document& d, const toml::table& r) {
   const bool balance_ok = r["water_balance"]["closes"].value_or(false);
   const auto& movement = r["plausibility"];
   const double steps_over = get(movement["steps_over_movement_limit"]);
-  d.add("Run").table(
+  const double unsettled = get(r["water_balance"]["steps_one_way_unsettled"]);
+  Section& run = d.add("Run");
+  if (unsettled > 0.0)
+    run.note("Attention: in " + num(unsettled, 8) +
+             " steps the lines that take water only (wells, seepage faces, the dug "
+             "surface) had not settled which of their points drain at the round "
+             "limit; those steps keep their last solve (steps.csv drain_rounds).");
+  run.table(
       {{"item", "value"},
        {{{"scenario"}, {text(r["input"])}},
         {{"scenario SHA-256"}, {text(r["input_sha256"])}},
@@ -299,6 +306,44 @@ void well_level_table(Section& s, const toml::table& r) {
   s.table(t);
 }
 
+/// The steps in which a pumped line put water into the ground, was sealed where it
+/// would have, or ran dry: a flagged column each, where any line has such steps.
+void line_step_columns(Section& s, const toml::array& lines, Table& t) {
+  struct Kind {
+    const char* key;
+    const char* header;
+    const char* meaning;
+  };
+  const Kind kinds[] = {
+      {"steps_injecting", "steps putting water into the ground",
+       "A recharge well puts water into the ground by design; any other line with "
+       "such steps had a discharge target below zero."},
+      {"steps_stopped", "steps stopped (it would inject)",
+       "A pumped line (a well, a held excavation level) takes water only: in the "
+       "steps counted its held head stood above the ground's around it, so that "
+       "held it would have put water in, and it stood stopped and sealed instead. "
+       "Check its target heads: a line stopped all along pumps nothing."},
+      {"steps_dry", "steps run dry",
+       "A well whose target head lies below its screen has run dry: its screen "
+       "drains at atmospheric pressure, and the head it was asked for is not "
+       "reached."}};
+  for (const auto& kind : kinds) {
+    const auto any = std::any_of(lines.begin(), lines.end(), [&](const auto& node) {
+      return get((*node.as_table())[kind.key]) > 0.0;
+    });
+    if (!any)
+      continue;
+    t.header.push_back(kind.header);
+    for (std::size_t i = 0; i < lines.size(); ++i) {
+      const auto& line = *lines[i].as_table();
+      const double n = get(line[kind.key]);
+      const bool expected = line["recharge"].value_or(false) && &kind == &kinds[0];
+      t.rows[i].push_back({num(n, 8), n > 0.0 && !expected ? Flag::attention : Flag::ok});
+    }
+    s.paragraph(kind.meaning);
+  }
+}
+
 void discharge_section(Document& d, const toml::table& r, const std::string& unit) {
   const auto* q = r["discharge"].as_array();
   if (q == nullptr || q->empty())
@@ -309,34 +354,22 @@ void discharge_section(Document& d, const toml::table& r, const std::string& uni
       "storage equation where heads are prescribed), in m³/day " +
       unit + ".");
   Table t{{"line", "rate at the end (m³/day)"}, {}};
-  // A line that put water into the ground: flagged in its own column.
-  const bool injects = std::any_of(q->begin(), q->end(), [](const auto& node) {
-    return get((*node.as_table())["steps_injecting"]) > 0.0;
-  });
   if (const auto* stages = r["stages"].as_array())
     for (const auto& st : *stages)
       t.header.push_back("volume in " + text((*st.as_table())["name"]) + " (m³)");
   t.header.push_back("total volume (m³)");
   for (const auto& node : *q) {
     const auto& line = *node.as_table();
-    std::vector<Cell> row{{text(line["line"])},
+    const bool recharge = line["recharge"].value_or(false);
+    std::vector<Cell> row{{text(line["line"]) + (recharge ? " (recharge)" : "")},
                           {significant(get(line["final_m3_per_day"]))}};
     if (const auto* vs = line["stage_volumes_m3"].as_array())
       for (const auto& v : *vs)
         row.push_back({significant(v.value<double>().value_or(0.0))});
     row.push_back({significant(get(line["volume_m3"]))});
-    if (injects) {
-      const double n = get(line["steps_injecting"]);
-      row.push_back({num(n, 8), n > 0.0 ? Flag::attention : Flag::ok});
-    }
     t.rows.push_back(row);
   }
-  if (injects) {
-    t.header.push_back("steps putting water into the ground");
-    s.paragraph("A line with steps putting water into the ground held a head above "
-                "the ground's around it: it injected instead of pumping. Check its "
-                "target heads; a head-held line is not yet limited to taking water.");
-  }
+  line_step_columns(s, *q, t);
   s.table(t).image("plots/discharge.png", "Pumped discharge against time");
   budget_table(s, r, unit);
   well_level_table(s, r);

@@ -117,8 +117,13 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       const auto& line = *node.as_table();
       const std::string label(line["line"].value_or(std::string_view()));
       summary.pumped_volume[label] = line["volume_m3"].value_or(0.0);
-      if (const auto n = line["steps_injecting"].value_or(int64_t(0)); n > 0)
-        summary.injecting_steps[label] = std::size_t(n);
+      const RunSummary::LineNotes notes{
+          line["recharge"].value_or(false),
+          std::size_t(line["steps_injecting"].value_or(int64_t(0))),
+          std::size_t(line["steps_stopped"].value_or(int64_t(0))),
+          std::size_t(line["steps_dry"].value_or(int64_t(0)))};
+      if (notes.injecting + notes.stopped + notes.dry > 0)
+        summary.line_notes[label] = notes;
       summary.final_discharge[label] =
           line["final_m3_per_day"].value_or(0.0) / units::seconds_per_day;
       auto& per_stage = summary.stage_volume[label];
@@ -142,6 +147,8 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
   summary.mass_balance_steps_off =
       std::size_t(r["water_balance"]["steps_over_tolerance"].value_or(int64_t(0)));
+  summary.one_way_unsettled_steps =
+      std::size_t(r["water_balance"]["steps_one_way_unsettled"].value_or(int64_t(0)));
   summary.largest_movement = r["plausibility"]["largest_movement_m"].value_or(0.0);
   summary.movement_limit = r["plausibility"]["movement_limit_m"].value_or(0.0);
   summary.movement_steps_over =
@@ -204,14 +211,28 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
           << significant(100 * r.water_sources[i].second, 2) << " %";
     out << "\n";
   }
+  if (r.one_way_unsettled_steps > 0)
+    out << "  lines that take water only: " << r.one_way_unsettled_steps << " of "
+        << r.steps << " steps kept their last solve before it settled which points "
+        << "drain; see steps.csv drain_rounds\n";
   if (r.mass_balance_steps_off > 0)
     out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance
         << " (worst " << r.mass_balance << "); see steps.csv\n"
         << std::fixed;
-  for (const auto& [label, n] : r.injecting_steps)
-    out << "  " << label << " put water into the ground in " << n << " of " << r.steps
-        << " steps (its held head above the ground's there)\n";
+  for (const auto& [label, n] : r.line_notes) {
+    const std::string of = " of " + std::to_string(r.steps) + " steps";
+    if (n.injecting > 0)
+      out << "  " << label << (n.recharge ? " (a recharge well)" : "")
+          << " put water into the ground in " << n.injecting << of << "\n";
+    if (n.stopped > 0)
+      out << "  " << label << " stood stopped, sealed, because it would have put "
+          << "water into the ground (its held head above the ground's) in " << n.stopped
+          << of << "\n";
+    if (n.dry > 0)
+      out << "  " << label << " ran dry (its target head below its screen) in " << n.dry
+          << of << "\n";
+  }
   if (r.movement_steps_over > 0)
     out << "  movement: " << r.movement_steps_over << " of " << r.steps
         << " steps move the ground more than " << std::defaultfloat << r.movement_limit

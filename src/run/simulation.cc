@@ -22,6 +22,7 @@
 #include <deal.II/base/mpi.h>
 #include <deal.II/base/timer.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -43,14 +44,24 @@ bool is_root(MPI_Comm comm) {
   return Utilities::MPI::this_mpi_process(comm) == 0;
 }
 
+/// Whether a step may re-solve until the one-way lines' active set settles: a dug
+/// surface, a well that takes water only, a seepage face.
+bool has_one_way_lines(const BiotSetup& setup) {
+  const auto& lines = setup.conditions.hydraulic;
+  return !setup.excavation.empty() ||
+         std::any_of(lines.begin(), lines.end(), [](const auto& c) {
+           return c.exchange != HydraulicCondition::Exchange::both_ways;
+         });
+}
+
 std::vector<std::string>
 step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
-            bool digs,
+            bool one_way,
             bool clays) {
   std::vector<std::string> h{"step",       "time_days",  "dt_days",         "stage",
                              "new_matrix", "assembly_s", "factorisation_s", "solve_s",
                              "iterations", "monitors_s", "output_s"};
-  if (digs) // solves of the step until the drained surface's active set settled
+  if (one_way) // solves of the step until the one-way lines' active set settled
     h.push_back("drain_rounds");
   if (clays) // Newton's method: solves, new factors, halved corrections, sub-steps,
              // yielding points, residual
@@ -67,7 +78,7 @@ step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
 std::vector<double> step_row(const StepReport& r,
                              std::size_t number,
                              std::size_t stage,
-                             bool digs,
+                             bool one_way,
                              bool clays,
                              double monitors_seconds,
                              double output_seconds) {
@@ -82,7 +93,7 @@ std::vector<double> step_row(const StepReport& r,
                           double(r.iterations),
                           monitors_seconds,
                           output_seconds};
-  if (digs)
+  if (one_way)
     row.push_back(double(r.drain_rounds));
   if (clays)
     row.insert(row.end(), {double(r.newton_iterations), double(r.factorisations),
@@ -275,7 +286,7 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
     for (auto& m : monitors)
       m->at_output_time(view);
   std::vector<double> row =
-      step_row(view.step, view.step_number, view.stage(), !model.setup.excavation.empty(),
+      step_row(view.step, view.step_number, view.stage(), has_one_way_lines(model.setup),
                !model.setup.clays.empty(), monitors_seconds, clock.wall_time());
   row.insert(row.end(), columns.begin(), columns.end());
   steps.row(row);
@@ -406,7 +417,7 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   start(view);
   CsvFile steps(
       options.run_directory + "/steps.csv",
-      step_header(monitors, !model.setup.excavation.empty(), !model.setup.clays.empty()),
+      step_header(monitors, has_one_way_lines(model.setup), !model.setup.clays.empty()),
       comm);
   CheckpointHeader header = new_header();
   return run_steps(options, view, report, steps, header);

@@ -15,6 +15,8 @@ std::string role_text(const BoundarySpec& b) {
     h << "fixed head " << *b.head << " m";
   else if (b.hydraulic == H::fixed_head)
     h << "fixed head (the initial head)";
+  else if (b.hydraulic == H::seepage_face)
+    h << "seepage face (water leaves at atmospheric pressure, none enters)";
   else
     h << (b.hydraulic == H::no_flow ? "no flow" : "set by the stages");
   std::ostringstream m;
@@ -78,8 +80,8 @@ std::vector<std::string> geometry_lines(const Scenario& s) {
     }
     for (const auto& well : sec.wells) {
       std::ostringstream w;
-      w << "Well " << well.name << ": x " << well.x << " m, screen " << well.screen_bottom
-        << " to " << well.screen_top << " m";
+      w << (well.recharge ? "Recharge well " : "Well ") << well.name << ": x " << well.x
+        << " m, screen " << well.screen_bottom << " to " << well.screen_top << " m";
       lines.push_back(w.str());
     }
     for (const auto& l : sec.layers) {

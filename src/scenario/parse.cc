@@ -395,11 +395,15 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
       b.hydraulic = BoundarySpec::Hydraulic::no_flow;
     else if (hydraulic == "fixed_head")
       b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
+    else if (hydraulic == "seepage_face")
+      b.hydraulic = BoundarySpec::Hydraulic::seepage_face;
     else if (!hydraulic.empty())
-      r.fail("hydraulic", "must be no_flow or fixed_head (got '" + hydraulic + "')");
+      r.fail("hydraulic",
+             "must be no_flow, fixed_head or seepage_face (got '" + hydraulic + "')");
     if (r.has("head")) {
-      if (b.hydraulic == BoundarySpec::Hydraulic::no_flow)
-        r.fail("head", "a no_flow boundary takes no head");
+      if (b.hydraulic == BoundarySpec::Hydraulic::no_flow ||
+          b.hydraulic == BoundarySpec::Hydraulic::seepage_face)
+        r.fail("head", "a " + hydraulic + " boundary takes no head");
       b.hydraulic = BoundarySpec::Hydraulic::fixed_head;
       b.head = r.elevation("head");
     }

@@ -74,6 +74,26 @@ Wall read_wall(const TableReader& w, const Scenario& s, const Section& section) 
   return wall;
 }
 
+/// A well outside the pit must be a recharge well, outside the wall and inside
+/// the far boundary.
+void check_recharge_well_outside(const TableReader& r,
+                                 const Well& well,
+                                 const Section& section) {
+  const double half_width = section.excavation_width / 2;
+  const double outer = half_width + (section.wall ? section.wall->thickness : 0.0);
+  const double x = std::abs(well.x);
+  if (!well.recharge)
+    r.fail("x", "the well lies outside the pit (|x| < " + format_number(half_width) +
+                    " m); only a recharge well (recharge = true) may stand outside it");
+  if (!(x > outer))
+    r.fail("x", "the recharge well lies in the wall (" + format_number(half_width) +
+                    " to " + format_number(outer) + " m from the centre line)");
+  if (!(x < outer + section.far_distance))
+    r.fail("x", "the recharge well lies beyond the far boundary (" +
+                    format_number(outer + section.far_distance) +
+                    " m from the centre line)");
+}
+
 void check_well(const TableReader& r,
                 const Well& well,
                 const Scenario& s,
@@ -84,11 +104,10 @@ void check_well(const TableReader& r,
       r.fail("x", "an axisymmetric model takes one well, on the axis (x = 0)");
     if (!(well.radius > 0.0 && well.radius < half_width))
       r.fail("radius", "must be positive and inside the shaft");
-  } else if (section.half_model ? !(well.x > 0.0 && well.x < half_width)
-                                : !(std::abs(well.x) < half_width)) {
-    r.fail("x", "the well lies outside the pit (" +
-                    std::string(section.half_model ? "0 < x < " : "|x| < ") +
-                    format_number(half_width) + " m)");
+  } else if (section.half_model && !(well.x > 0.0)) {
+    r.fail("x", "a half model's wells lie at x > 0");
+  } else if (!(std::abs(well.x) < half_width)) {
+    check_recharge_well_outside(r, well, section);
   }
   if (well.spacing > 0.0 && s.analysis == AnalysisType::axisymmetric)
     r.fail("spacing",
@@ -118,6 +137,8 @@ read_wells(const TableReader& r, const Scenario& s, const Section& section) {
       well.spacing = w.positive("spacing");
     well.screen_top = w.number("screen_top");
     well.screen_bottom = w.number("screen_bottom");
+    if (w.has("recharge"))
+      well.recharge = w.boolean("recharge");
     check_well(w, well, s, section);
     if (!names.insert(well.name).second)
       w.fail("name", "two wells are named '" + well.name + "'");

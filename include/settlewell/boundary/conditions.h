@@ -33,6 +33,21 @@ struct HydraulicCondition {
   Kind kind = Kind::head;
   FieldFunction value;
   TimeWindow window{};
+  /// How water crosses a line that holds a head or pore pressure. Except both_ways,
+  /// the pressure held is at least zero (atmospheric), and each point where it is
+  /// zero is a seepage face: water leaves there where the soil's pressure would be
+  /// higher, and none enters. Decided each step by an active set.
+  enum class Exchange {
+    both_ways,    ///< water enters and leaves (a lake, a recharge well)
+    seepage_face, ///< each point lets water out only, at the pressure held
+    /// A pumped line (a well screen, a drained excavation level): one body of water
+    /// from which a pump only takes. Below its water it holds its head all along
+    /// while its net outflow is positive (water may pass through it from one depth
+    /// to another); where the net would be an inflow the pump stops and the line
+    /// is sealed.
+    pumped
+  };
+  Exchange exchange = Exchange::both_ways; ///< head and pore_pressure only
 };
 
 /// Mechanical conditions, addressed by boundary name. A boundary without one is
@@ -68,6 +83,11 @@ struct BoundaryConditions {
   BoundaryConditions&
   head(const std::string& boundary, FieldFunction h, TimeWindow window = {});
   BoundaryConditions& pore_pressure(const std::string& boundary, FieldFunction p);
+  /// A head held by pumping (HydraulicCondition::Exchange::pumped).
+  BoundaryConditions&
+  pumped_head(const std::string& boundary, FieldFunction h, TimeWindow window = {});
+  /// A seepage face at atmospheric pressure (HydraulicCondition::Exchange).
+  BoundaryConditions& seepage_face(const std::string& boundary, TimeWindow window = {});
   BoundaryConditions&
   outflow(const std::string& boundary, FieldFunction q, TimeWindow window = {});
   BoundaryConditions& fix(const std::string& boundary, bool x, bool y);

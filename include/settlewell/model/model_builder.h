@@ -29,6 +29,7 @@ struct PumpedLine {
   std::string label;            ///< the well's name, "excavation_level" or "formation"
   std::string line;             ///< the mesh line (none for the formation)
   bool drained_surface = false; ///< the surface excavation exposes, draining to the pit
+  bool recharge = false;        ///< a recharge well: may put water into the ground
 };
 
 /// The Biot core's setup for a scenario: materials per region, the initial head,

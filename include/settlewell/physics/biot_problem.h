@@ -98,6 +98,19 @@ public:
   /// Water leaving through the drained surface that excavation exposed, during the
   /// last step (consistent flux), m^3/s. Collective.
   double drained_surface_outflow() const;
+  /// How a line with a one-way condition (water leaves, none enters) stood in the
+  /// last step.
+  struct OneWayState {
+    bool one_way = false; ///< a one-way condition applies on the line now
+    /// A pumped line whose pump stopped: held, its net flow would have entered
+    /// the ground, so it is sealed all along.
+    bool stopped = false;
+    /// The line's held pressure is zero all along: what it holds lies below it (a
+    /// well whose target head is below its screen has run dry).
+    bool dry = false;
+  };
+  /// Collective.
+  OneWayState one_way_state(const std::string& line) const;
   /// Water taken into storage during the last step, the integral of
   /// S dp + alpha d(eps_v), m^3 (per metre run, or for the full circle): the net
   /// change, which with water_exchange().net_outflow * dt closes the water balance,

@@ -47,7 +47,8 @@ struct ConstraintInputs {
   /// By active cell index: cells taken out by excavation (empty: none). Their dofs
   /// that no cell in the model shares are held at zero.
   const std::vector<bool>& removed;
-  /// Pressure dofs of a drained surface held at an excess pressure (kPa) now.
+  /// Pressure dofs of the lines that take water only (the dug surface, one-way
+  /// conditions) held at an excess pressure (kPa) now.
   const std::map<dealii::types::global_dof_index, double>& drained;
 };
 

@@ -15,6 +15,12 @@ std::vector<std::pair<dealii::types::global_dof_index, dealii::Point<2>>>
 pressure_dofs_on_line(const dealii::DoFHandler<2>& dof_handler,
                       const std::vector<Segment>& line);
 
+/// The pressure degrees of freedom on a boundary (locally relevant ones, with
+/// their positions).
+std::vector<std::pair<dealii::types::global_dof_index, dealii::Point<2>>>
+pressure_dofs_on_boundary(const dealii::DoFHandler<2>& dof_handler,
+                          dealii::types::boundary_id id);
+
 /// A cell face lying on an internal line.
 struct LineFace {
   dealii::DoFHandler<2>::active_cell_iterator cell;

@@ -23,6 +23,14 @@ struct ExcessPressureBoundary {
   LineRef line;
   FieldFunction excess_pressure;
   TimeWindow window;
+  /// Except both_ways, excess_pressure is the limit the pore pressure may reach
+  /// (from an absolute one of at least zero), decided by an active set.
+  HydraulicCondition::Exchange exchange = HydraulicCondition::Exchange::both_ways;
+  /// The absolute pore pressure the line holds, kPa (one-way lines only): zero
+  /// all along means the line's target lies below it (a well run dry).
+  FieldFunction held_pressure;
+  /// Water leaves but does not enter, at each point or in sum.
+  bool one_way() const { return exchange != HydraulicCondition::Exchange::both_ways; }
 };
 
 struct FluxBoundary {

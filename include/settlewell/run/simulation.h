@@ -64,12 +64,19 @@ struct RunSummary {
   /// Largest relative water-balance error of a step, and its tolerance.
   double mass_balance = 0.0, mass_balance_tolerance = 0.0;
   std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
+  /// Steps whose one-way lines had not settled which points drain.
+  std::size_t one_way_unsettled_steps = 0;
   /// Largest displacement of any step and its plausible limit (m), and the steps
   /// beyond it.
   double largest_movement = 0.0, movement_limit = 0.0;
   std::size_t movement_steps_over = 0;
-  /// Pumped lines that put water into the ground, and in how many steps.
-  std::map<std::string, std::size_t> injecting_steps;
+  /// Pumped lines that put water into the ground, stood stopped because they
+  /// would have, or ran dry, and in how many steps; recharge wells are marked.
+  struct LineNotes {
+    bool recharge = false;
+    std::size_t injecting = 0, stopped = 0, dry = 0;
+  };
+  std::map<std::string, LineNotes> line_notes;
   std::string run_directory;
 };
 

@@ -83,6 +83,9 @@ struct Well {
   double spacing = 0.0;
   double screen_top = 0.0; ///< elevation, m
   double screen_bottom = 0.0;
+  /// A recharge well may put water into the ground; any other well held at a head
+  /// takes water only (its screen is sealed where the ground's head is lower).
+  bool recharge = false;
 };
 
 struct MeshSizes {
@@ -159,7 +162,9 @@ struct BoundaryPart {
 
 /// What holds on a named boundary for the whole analysis (stages may change heads).
 struct BoundarySpec {
-  enum class Hydraulic { unset, no_flow, fixed_head };
+  /// seepage_face: water leaves at atmospheric pressure where the soil's would be
+  /// higher, and none enters.
+  enum class Hydraulic { unset, no_flow, fixed_head, seepage_face };
   enum class Mechanical { unset, free, fixed, roller, rigid_plate };
   Hydraulic hydraulic = Hydraulic::unset;
   std::optional<double> head; ///< m; fixed_head without it keeps the initial head

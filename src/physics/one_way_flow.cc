@@ -1,0 +1,222 @@
+// Lines through which water leaves but does not enter: the surface excavation
+// exposes (the pit's floor and the faces of the soil left beside removed cells),
+// draining to the pit, and the one-way conditions (seepage faces, and pumped lines:
+// wells and a drained excavation level).
+// The pore pressure there may not exceed a limit: the pit water's,
+// p <= gamma_w max(0, h_pit - y), or the line's own (ExcessPressureBoundary). Where
+// it would, water leaves at that pressure; where it is lower, the line is sealed.
+// The set of draining pressure dofs is decided each step by re-solving until it
+// settles: a draining dof whose water would flow in is released, a sealed dof whose
+// pressure exceeds the limit is held at it (an active set, as for a seepage face;
+// Neuman 1973 and Cooley 1983 use the same switching for seepage faces).
+//
+// A pumped line is one body of water (the well bore, a drainage blanket) from
+// which a pump only takes: below its water all of its dofs are held together, so
+// water may enter at one depth and leave at another, while the line's net flow
+// leaves the ground; where the net would enter, the pump stops and the whole line
+// is sealed, until the soil's pressure exceeds the limit somewhere along it. To
+// keep a step from cycling, a line that stops in a step stays stopped in it.
+#include "biot_problem_impl.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <algorithm>
+#include <cmath>
+
+namespace settlewell {
+
+void BiotProblem::Impl::find_exposed() {
+  for (auto it = one_way.begin(); it != one_way.end();)
+    it = it->second.condition == dug_surface ? one_way.erase(it) : std::next(it);
+  if (setup.pit_water_head && !removed.empty())
+    add_exposed();
+  for (auto it = draining.begin(); it != draining.end();)
+    it = one_way.count(*it) ? std::next(it) : draining.erase(it);
+}
+
+void BiotProblem::Impl::add_exposed() {
+  const FiniteElement<2>& fe = layout.fe;
+  std::vector<types::global_dof_index> face_dofs(fe.n_dofs_per_face());
+  for (const auto& cell : dof_handler.active_cell_iterators()) {
+    if (cell->is_artificial() || !in_model(cell))
+      continue;
+    for (const unsigned int f : cell->face_indices()) {
+      if (cell->at_boundary(f) || cell->neighbor(f)->is_artificial() ||
+          in_model(cell->neighbor(f)))
+        continue;
+      cell->face(f)->get_dof_indices(face_dofs);
+      // The Q1 pressure dofs of a face sit at its two vertices.
+      for (unsigned int i = 0; i < face_dofs.size(); ++i)
+        if (fe.face_system_to_component_index(i).first == FieldLayout::pressure) {
+          const unsigned int vertex = i / fe.n_dofs_per_vertex();
+          // The dug surface comes first where it meets a one-way line.
+          one_way[face_dofs[i]] = {cell->face(f)->vertex(vertex), dug_surface};
+        }
+    }
+  }
+}
+
+void BiotProblem::Impl::open_one_way_lines(double t) {
+  const std::size_t n = conditions.pressures.size();
+  one_way_open.resize(n, false);
+  pumped_stopped.resize(n, false);
+  stopped_in_step.assign(n, false);
+  for (std::size_t k = 0; k < n; ++k) {
+    const auto& bc = conditions.pressures[k];
+    const bool open = bc.one_way() && bc.window.contains(t);
+    if (open == one_way_open[k])
+      continue;
+    one_way_open[k] = open;
+    pumped_stopped[k] = false;
+    for (const auto& [d, x] : pressure_line_dofs[k]) {
+      const auto found = one_way.find(d);
+      if (open && found == one_way.end()) {
+        one_way.emplace(d, OneWayDof{x, k});
+        draining.insert(d); // a line that opens holds its pressure at first
+      } else if (!open && found != one_way.end() && found->second.condition == k) {
+        one_way.erase(found);
+        draining.erase(d);
+      }
+    }
+  }
+}
+
+bool BiotProblem::Impl::below_pumped_water(const OneWayDof& d, double t) const {
+  if (d.condition == dug_surface)
+    return false;
+  const auto& bc = conditions.pressures[d.condition];
+  return bc.exchange == HydraulicCondition::Exchange::pumped &&
+         bc.held_pressure(d.x, t) > 0.0;
+}
+
+void BiotProblem::Impl::switch_pumped_lines(double t,
+                                            const LA::MPI::Vector& residual,
+                                            double tolerance) {
+  const std::size_t n = conditions.pressures.size();
+  // Per line: the net water leaving through its draining dofs (times dt), and
+  // whether the soil's pressure exceeds the limit at one of its sealed dofs.
+  std::vector<double> net(n, 0.0), above(n, 0.0);
+  for (const auto& [d, at] : one_way) {
+    if (at.condition == dug_surface || !owned.is_element(d) ||
+        conditions.pressures[at.condition].exchange !=
+            HydraulicCondition::Exchange::pumped)
+      continue;
+    if (draining.count(d))
+      net[at.condition] -= residual(d);
+    else if (solution(d) > drain_limit(at, t) + 1e-8)
+      above[at.condition] = 1.0;
+  }
+  Utilities::MPI::sum(net, comm, net);
+  Utilities::MPI::max(above, comm, above);
+  for (std::size_t k = 0; k < n; ++k) {
+    if (!one_way_open[k] ||
+        conditions.pressures[k].exchange != HydraulicCondition::Exchange::pumped)
+      continue;
+    if (!pumped_stopped[k] && net[k] < -tolerance)
+      pumped_stopped[k] = stopped_in_step[k] = true;
+    else if (pumped_stopped[k] && !stopped_in_step[k] && above[k] > 0.5)
+      pumped_stopped[k] = false;
+  }
+}
+
+void BiotProblem::Impl::infer_stopped_lines(double t) {
+  const std::size_t n = conditions.pressures.size();
+  std::vector<double> wet(n, 0.0), running(n, 0.0);
+  for (const auto& [d, at] : one_way)
+    if (owned.is_element(d) && below_pumped_water(at, t)) {
+      wet[at.condition] = 1.0;
+      if (draining.count(d))
+        running[at.condition] = 1.0;
+    }
+  Utilities::MPI::max(wet, comm, wet);
+  Utilities::MPI::max(running, comm, running);
+  pumped_stopped.assign(n, false);
+  for (std::size_t k = 0; k < n; ++k)
+    pumped_stopped[k] = wet[k] > 0.5 && running[k] < 0.5;
+}
+
+double BiotProblem::Impl::drain_limit(const OneWayDof& d, double t) const {
+  if (d.condition != dug_surface)
+    return conditions.pressures[d.condition].excess_pressure(d.x, t);
+  const double limit = setup.gamma_w * std::max(0.0, setup.pit_water_head(t) - d.x[1]);
+  return limit - setup.gamma_w * (setup.initial_head(d.x) - d.x[1]);
+}
+
+std::set<types::global_dof_index>
+BiotProblem::Impl::draining_of(std::size_t condition) const {
+  std::set<types::global_dof_index> out;
+  for (const auto d : draining)
+    if (one_way.at(d).condition == condition)
+      out.insert(d);
+  return out;
+}
+
+void BiotProblem::Impl::set_drain_values(double t) {
+  drained_now.clear();
+  for (const auto d : draining)
+    drained_now[d] = drain_limit(one_way.at(d), t);
+}
+
+bool BiotProblem::Impl::update_draining(double t, double dt) {
+  if (Utilities::MPI::sum(one_way.size(), comm) == 0)
+    return false;
+  LA::MPI::Vector residual;
+  storage_residual(t, dt, draining, residual);
+  // Tolerances: water entering below 1e-9 of the largest outflow of the lines is
+  // round-off; so is a pressure within 1e-8 kPa of its limit.
+  double largest = 0.0;
+  for (const auto d : draining)
+    if (owned.is_element(d))
+      largest = std::max(largest, std::abs(residual(d)));
+  const double inflow_tolerance = 1e-9 * Utilities::MPI::max(largest, comm);
+  const std::vector<bool> stopped_before = pumped_stopped;
+  switch_pumped_lines(t, residual, inflow_tolerance);
+  LA::MPI::Vector decision(owned, comm);
+  for (const auto& [d, at] : one_way) {
+    if (!owned.is_element(d))
+      continue;
+    const bool pumped_line =
+        at.condition != dug_surface && conditions.pressures[at.condition].exchange ==
+                                           HydraulicCondition::Exchange::pumped;
+    bool drains = false;
+    if (pumped_line && pumped_stopped[at.condition])
+      drains = false; // the pump stands: sealed all along
+    else if (below_pumped_water(at, t))
+      drains = true; // a running line holds its head below its water
+    else if (pumped_line && stopped_before[at.condition])
+      drains = solution(d) > drain_limit(at, t) + 1e-8; // it starts again
+    else
+      drains = draining.count(d) != 0 ? -residual(d) >= -inflow_tolerance // outflow: keep
+                                      : solution(d) > drain_limit(at, t) + 1e-8;
+    decision(d) = drains ? 1.0 : 0.0;
+  }
+  decision.compress(VectorOperation::insert);
+  LA::MPI::Vector shared(owned, relevant, comm);
+  shared = decision;
+  std::set<types::global_dof_index> next;
+  for (const auto& [d, at] : one_way)
+    if (shared(d) > 0.5)
+      next.insert(d);
+  const bool changed = Utilities::MPI::logical_or(next != draining, comm);
+  draining = std::move(next);
+  return changed;
+}
+
+BiotProblem::OneWayState BiotProblem::one_way_state(const std::string& line) const {
+  const Impl& m = *impl_;
+  OneWayState state;
+  for (std::size_t k = 0; k < m.conditions.pressures.size(); ++k) {
+    const auto& bc = m.conditions.pressures[k];
+    if (bc.line.name != line || !bc.one_way() || !bc.window.contains(m.time))
+      continue;
+    state.one_way = true;
+    state.stopped = m.pumped_stopped.at(k);
+    bool wet = false;
+    for (const auto& [d, x] : m.pressure_line_dofs[k])
+      wet = wet || bc.held_pressure(x, m.time) > 0.0;
+    state.dry = !Utilities::MPI::logical_or(wet, m.comm);
+  }
+  return state;
+}
+
+} // namespace settlewell
