@@ -2,14 +2,18 @@
 
 #include "dof_values.h"
 
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
+#include "settlewell/model/model_builder.h"
 #include "settlewell/physics/field_layout.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/dofs/dof_tools.h>
 
 #include <cmath>
+#include <iostream>
+#include <limits>
 #include <optional>
 #include <set>
 
@@ -143,7 +147,8 @@ std::set<types::global_dof_index> owned_boundary_dofs(const BiotProblem& problem
 
 } // namespace
 
-Extremes::Extremes(const RunContext& run) {
+Extremes::Extremes(const RunContext& run)
+    : suction_limit_(run.scenario.limits.suction) {
   const BiotProblem& problem = run.problem;
   const scenario::Scenario& s = run.scenario;
   double outer = 0.0;
@@ -161,6 +166,22 @@ Extremes::Extremes(const RunContext& run) {
       owned_boundary_dofs(problem, section_names::ground_surface, FieldLayout::uy);
   const double tol = 1e-9 * (1.0 + outer);
   const auto& owned = problem.dof_handler().locally_owned_dofs();
+  const double gw = problem.setup().gamma_w;
+  const auto materials = model::region_materials(s, problem.mesh());
+  for (const auto& [region, material] : materials) {
+    const auto id = problem.mesh().names.region_id(region);
+    suction_limits_.resize(std::max<std::size_t>(suction_limits_.size(), id + 1),
+                           suction_limit_);
+    suction_limits_[id] =
+        s.materials.at(material).air_entry_suction.value_or(suction_limit_);
+    if (region == section_names::wall_region) // a section's wall is not soil
+      suction_limits_[id] = std::numeric_limits<double>::infinity();
+  }
+  for (const auto& [dof, c] : places.component)
+    if (c == FieldLayout::pressure) {
+      const Point<2>& at = places.support.at(dof);
+      start_pressure_[dof] = gw * (problem.setup().initial_head(at) - at[1]);
+    }
   for (const auto& [dof, c] : places.component) {
     if (!owned.is_element(dof))
       continue;
@@ -241,6 +262,36 @@ Located Extremes::floor_heave_now(const BiotProblem& problem) const {
   return share_largest(candidates, problem.communicator(), floor_heave_.value);
 }
 
+Located Extremes::suction_now(const BiotProblem& problem, bool& over) const {
+  const auto& fe = problem.dof_handler().get_fe();
+  const auto& unit_points = fe.get_unit_support_points();
+  const auto& solution = problem.solution();
+  std::vector<types::global_dof_index> dofs(fe.n_dofs_per_cell());
+  std::vector<Located> candidates;
+  double local = 0.0;
+  bool local_over = false;
+  for (const auto& cell : problem.dof_handler().active_cell_iterators()) {
+    if (!cell->is_locally_owned() || problem.is_removed(cell->active_cell_index()))
+      continue;
+    cell->get_dof_indices(dofs);
+    for (unsigned int i = 0; i < dofs.size(); ++i) {
+      if (fe.system_to_component_index(i).first != FieldLayout::pressure)
+        continue;
+      const double suction = -(start_pressure_.at(dofs[i]) + solution[dofs[i]]);
+      local_over = local_over || suction > suction_limits_.at(cell->material_id());
+      if (suction <= 0.0 || clearly_larger(local, suction))
+        continue;
+      local = std::max(local, suction);
+      const Point<2> at =
+          problem.mapping().transform_unit_to_real_cell(cell, unit_points[i]);
+      candidates.push_back({suction, at[0], at[1], 0.0,
+                            problem.mesh().names.region_name(cell->material_id())});
+    }
+  }
+  over = Utilities::MPI::logical_or(local_over, problem.communicator());
+  return share_largest(candidates, problem.communicator(), suction_.value);
+}
+
 std::vector<double> Extremes::after_step(const RunView& view) {
   const BiotProblem& problem = view.run.problem;
   const double to_drawdown = -1.0 / problem.setup().gamma_w;
@@ -257,6 +308,17 @@ std::vector<double> Extremes::after_step(const RunView& view) {
       std::max(stage_outside_[view.stage()], outside_now.value);
   anywhere_.keep_larger(largest(problem, all_uy_, -1.0, anywhere_.value), t);
   drawdown_.keep_larger(largest(problem, all_p_, to_drawdown, drawdown_.value), t);
+  bool over = false;
+  const Located suction = suction_now(problem, over);
+  suction_.keep_larger(suction, t);
+  if (over && suction_steps_++ == 0 && Utilities::MPI::this_mpi_process(view.comm()) == 0)
+    std::cerr << "settlewell: warning: at day " << units::to_days(t)
+              << " soil holds more suction than its air-entry limit "
+                 "(materials.<name>.air_entry_suction, else checks.suction_limit, "
+              << significant(suction_limit_)
+              << " kPa): the model keeps it saturated and counts the suction in its "
+                 "effective stress, where real soil would drain (unsaturated flow is "
+                 "not modelled; the run's last lines count such steps)\n";
   if (has_wall_zone_) {
     drawdown_outside_.keep_larger(
         largest(problem, outside_p_, to_drawdown, drawdown_outside_.value), t);
@@ -293,6 +355,11 @@ void Extremes::finish(const RunView& view, toml::table& results) {
   toml::table summary;
   insert_located(summary, "settlement_anywhere", anywhere_);
   insert_located(summary, "drawdown_anywhere", drawdown_);
+  summary.insert("suction_largest_kPa", suction_.value);
+  if (suction_.value > 0.0)
+    summary.insert("suction_largest_at", place_of(suction_));
+  summary.insert("suction_limit_kPa", suction_limit_);
+  summary.insert("steps_over_suction_limit", int64_t(suction_steps_));
   if (has_wall_zone_) {
     insert_located(summary, "settlement_inside", pit_);
     if (first_dig_ >= 0.0) // the pit surface only until it is dug
@@ -317,9 +384,9 @@ void Extremes::finish(const RunView& view, toml::table& results) {
 }
 
 void Extremes::visit_state(StateArchive& a) {
-  a.mark("extremes");
+  a.mark("extremes 2");
   a& floor_heave_& pit_& outside_& anywhere_& drawdown_outside_& drawdown_&
-      drawdown_outside_by_region_& stage_outside_;
+      drawdown_outside_by_region_& stage_outside_& suction_& suction_steps_;
 }
 
 } // namespace settlewell::monitors

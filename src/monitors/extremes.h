@@ -10,8 +10,10 @@
 
 #include <deal.II/base/point.h>
 
+#include <cstdint>
 #include <map>
 #include <string>
+#include <unordered_map>
 
 namespace settlewell::monitors {
 
@@ -51,6 +53,18 @@ private:
   /// The largest upward displacement of the ground still in the model inside the
   /// wall, over every process, and where.
   Located floor_heave_now(const BiotProblem& problem) const;
+
+  /// The largest suction (minus the absolute pore pressure) at the pressure dofs
+  /// of the cells still in the model, and where; `over`: somewhere beyond its
+  /// soil's limit. Collective.
+  Located suction_now(const BiotProblem& problem, bool& over) const;
+  /// The suction each region's soil holds before it drains, by region id, kPa.
+  std::vector<double> suction_limits_;
+  /// The start's pore pressure at each locally relevant pressure dof, kPa.
+  std::unordered_map<dealii::types::global_dof_index, double> start_pressure_;
+  Located suction_;
+  double suction_limit_ = 0.0;      ///< kPa
+  std::uint64_t suction_steps_ = 0; ///< steps with a suction above the limit
 
   bool has_wall_zone_ = false;
   double inner_ = 0.0;      ///< half the pit's width, m

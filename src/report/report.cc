@@ -95,6 +95,8 @@ void run_section(Document& d, const toml::table& r) {
   const auto& movement = r["plausibility"];
   const double steps_over = get(movement["steps_over_movement_limit"]);
   const double unsettled = get(r["water_balance"]["steps_one_way_unsettled"]);
+  const auto& summary = r["summary"];
+  const double suction_steps = get(summary["steps_over_suction_limit"]);
   Section& run = d.add("Run");
   if (unsettled > 0.0)
     run.note("Attention: in " + num(unsettled, 8) +
@@ -124,7 +126,22 @@ void run_section(Document& d, const toml::table& r) {
          {significant(1000 * get(movement["largest_movement_m"])) + " mm (limit " +
               fixed(1000 * get(movement["movement_limit_m"]), 0) + " mm; " +
               num(steps_over, 8) + " steps over it)",
-          steps_over > 0 ? Flag::attention : Flag::ok}}}});
+          steps_over > 0 ? Flag::attention : Flag::ok}},
+        {{"largest suction held in saturated soil (kPa)"},
+         {significant(get(summary["suction_largest_kPa"])) + " (limit " +
+              significant(get(summary["suction_limit_kPa"])) +
+              " unless a material gives its own; " + num(suction_steps, 8) +
+              " steps over a limit)",
+          suction_steps > 0 ? Flag::attention : Flag::ok}}}});
+  if (suction_steps > 0)
+    run.paragraph(
+        "Above the water table the model keeps the soil saturated, so a lowered "
+        "water table leaves suction there that counts fully in the effective stress. "
+        "Real soil drains beyond its air-entry value and keeps only the change of "
+        "its moist weight, and gives up the water of its pores: where the suction "
+        "exceeds the limit, the settlement there is overestimated, and that water is "
+        "missing from the discharge and its timing (unsaturated flow is not "
+        "modelled).");
 }
 
 void inputs_section(Document& d, const toml::table& r) {

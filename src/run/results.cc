@@ -106,8 +106,12 @@ void read_summary(const toml::table& r, RunSummary& summary) {
   summary.drawdown_outside = sum["drawdown_outside_m"].value<double>();
   summary.modelled_half = r["modelled_half"].value_or(false);
   summary.flow_only = r["coupling"].value_or(std::string()) == "flow_only";
-  for (const char* key : {"settlement_inside", "floor_heave", "settlement_outside",
-                          "settlement_anywhere", "drawdown_outside", "drawdown_anywhere"})
+  summary.suction_largest = sum["suction_largest_kPa"].value_or(0.0);
+  summary.suction_steps_over =
+      std::size_t(sum["steps_over_suction_limit"].value_or(int64_t(0)));
+  for (const char* key :
+       {"settlement_inside", "floor_heave", "settlement_outside", "settlement_anywhere",
+        "drawdown_outside", "drawdown_anywhere", "suction_largest"})
     if (const auto* at = sum[std::string(key) + "_at"].as_table())
       summary.where[key] = place_text(
           (*at)["x_m"].value_or(0.0), (*at)["y_m"].value_or(0.0),
@@ -232,6 +236,13 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     if (n.dry > 0)
       out << "  " << label << " ran dry (its target head below its screen) in " << n.dry
           << of << "\n";
+  }
+  if (r.suction_steps_over > 0) {
+    const auto at = r.where.find("suction_largest");
+    out << "  suction: " << r.suction_steps_over << " of " << r.steps
+        << " steps hold soil saturated beyond its air-entry suction (largest suction "
+        << significant(r.suction_largest) << " kPa"
+        << (at != r.where.end() ? " " + at->second : std::string()) << ")\n";
   }
   if (r.movement_steps_over > 0)
     out << "  movement: " << r.movement_steps_over << " of " << r.steps

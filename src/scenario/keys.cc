@@ -44,6 +44,7 @@ const std::vector<KeySpec>& all_keys() {
     {"materials.<name>.water_bulk_modulus", "number", "kPa", "2.2e6", "Kw, used with porosity"},
     {"materials.<name>.grain_bulk_modulus", "number", "kPa", "infinite", "Ks, used with porosity"},
     {"materials.<name>.earth_pressure_at_rest", "number", "", "0.5", "K0 for the initial horizontal effective stress"},
+    {"materials.<name>.air_entry_suction", "number", "kPa", "checks.suction_limit", "Suction the soil holds before air enters its pores; beyond it the saturated model is flagged (clays hold tens to hundreds of kPa; common practice)"},
     {"materials.<name>.model", "string", "", "\"linear_elastic\"", "The skeleton: linear_elastic (E' and nu') or cam_clay (Modified Cam Clay, Roscoe & Burland 1968: stiffness and yielding from Cc, Cr, e0, phi'cs and the preconsolidation; solved by Newton's method)"},
     {"materials.<name>.compression_index", "number", "", "-", "cam_clay: Cc, slope of e against log10 sigma' on virgin loading, 0.01 to 10"},
     {"materials.<name>.recompression_index", "number", "", "-", "cam_clay: Cr (or Cs), slope of e against log10 sigma' on unloading and reloading, below Cc"},
@@ -164,6 +165,7 @@ const std::vector<KeySpec>& all_keys() {
     {"checks.settlement_limit", "number", "m", "0.025", "Settlement of a neighbour above which it is flagged"},
     {"checks.angular_distortion_limit", "number", "", "0.002", "Angular distortion of a neighbour above which it is flagged (1/500)"},
     {"checks.mass_balance_tolerance", "number", "", "1e-6", "Relative water-balance error of a step above which a warning is given"},
+    {"checks.suction_limit", "number", "kPa", "10", "Suction (negative pore pressure) in soil still in the model above which a warning is given, for materials without air_entry_suction: the model keeps soil saturated at any suction, where real soil drains beyond its air-entry value (a few kPa in sands; common practice)"},
   };
   return keys;
 }

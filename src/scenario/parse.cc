@@ -286,6 +286,8 @@ Material read_material(const std::string& name, const TableReader& r) {
   m.k0 = r.number("earth_pressure_at_rest");
   if (!(m.k0 > 0.0))
     r.fail("earth_pressure_at_rest", "must be positive");
+  if (r.has("air_entry_suction"))
+    m.air_entry_suction = r.positive("air_entry_suction");
   return m;
 }
 

@@ -350,6 +350,7 @@ void parse_checks(const TableReader& top, Scenario& s) {
   l.settlement = r.positive("settlement_limit");
   l.angular_distortion = r.positive("angular_distortion_limit");
   l.mass_balance = r.positive("mass_balance_tolerance");
+  l.suction = r.positive("suction_limit");
 }
 
 } // namespace settlewell::scenario

@@ -70,6 +70,10 @@ struct RunSummary {
   /// beyond it.
   double largest_movement = 0.0, movement_limit = 0.0;
   std::size_t movement_steps_over = 0;
+  /// Largest suction the saturated model held in soil (kPa), and the steps with
+  /// soil beyond its air-entry suction (where: RunSummary::where["suction_largest"]).
+  double suction_largest = 0.0;
+  std::size_t suction_steps_over = 0;
   /// Pumped lines that put water into the ground, stood stopped because they
   /// would have, or ran dry, and in how many steps; recharge wells are marked.
   struct LineNotes {

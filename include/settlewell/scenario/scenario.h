@@ -20,6 +20,9 @@ struct Material {
   std::string name;
   double unit_weight = 0.0; ///< saturated, kN/m^3
   double k0 = 0.0;          ///< coefficient of earth pressure at rest
+  /// kPa: the suction the soil holds before it drains (unset: checks.suction_limit);
+  /// only flags where the saturated model goes beyond it.
+  std::optional<double> air_entry_suction;
   PoroelasticMaterial poroelastic;
   /// What the storage was computed from, when it was given as a porosity.
   struct StorageInputs {
@@ -254,6 +257,7 @@ struct CheckLimits {
   double settlement = 0.0;       ///< m
   double angular_distortion = 0.0;
   double mass_balance = 0.0; ///< relative
+  double suction = 0.0;      ///< kPa: a saturated soil's suction beyond this is flagged
 };
 
 /// How the equations are discretised and solved.
