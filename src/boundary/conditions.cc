@@ -17,14 +17,6 @@ BoundaryConditions& BoundaryConditions::pumped_head(const std::string& boundary,
   return *this;
 }
 
-BoundaryConditions& BoundaryConditions::seepage_face(const std::string& boundary,
-                                                     TimeWindow window) {
-  hydraulic.push_back({boundary, HydraulicCondition::Kind::pore_pressure,
-                       [](const dealii::Point<2>&, double) { return 0.0; }, window,
-                       HydraulicCondition::Exchange::seepage_face});
-  return *this;
-}
-
 BoundaryConditions& BoundaryConditions::pore_pressure(const std::string& boundary,
                                                       FieldFunction p) {
   hydraulic.push_back(

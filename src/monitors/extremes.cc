@@ -277,9 +277,12 @@ Located Extremes::suction_now(const BiotProblem& problem, bool& over) const {
     for (unsigned int i = 0; i < dofs.size(); ++i) {
       if (fe.system_to_component_index(i).first != FieldLayout::pressure)
         continue;
+      const double limit = suction_limits_.at(cell->material_id());
       const double suction = -(start_pressure_.at(dofs[i]) + solution[dofs[i]]);
-      local_over = local_over || suction > suction_limits_.at(cell->material_id());
-      if (suction <= 0.0 || clearly_larger(local, suction))
+      // Beyond the limit where the analysis added to it (the start's suction
+      // moves nothing); a wall is no soil.
+      local_over = local_over || (suction > limit && solution[dofs[i]] < -0.01 * limit);
+      if (std::isinf(limit) || suction <= 0.0 || clearly_larger(local, suction))
         continue;
       local = std::max(local, suction);
       const Point<2> at =
@@ -313,8 +316,8 @@ std::vector<double> Extremes::after_step(const RunView& view) {
   suction_.keep_larger(suction, t);
   if (over && suction_steps_++ == 0 && Utilities::MPI::this_mpi_process(view.comm()) == 0)
     std::cerr << "settlewell: warning: at day " << units::to_days(t)
-              << " soil holds more suction than its air-entry limit "
-                 "(materials.<name>.air_entry_suction, else checks.suction_limit, "
+              << " the analysis has raised the suction in soil beyond its air-entry "
+                 "limit (materials.<name>.air_entry_suction, else checks.suction_limit, "
               << significant(suction_limit_)
               << " kPa): the model keeps it saturated and counts the suction in its "
                  "effective stress, where real soil would drain (unsaturated flow is "

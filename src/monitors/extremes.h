@@ -55,8 +55,8 @@ private:
   Located floor_heave_now(const BiotProblem& problem) const;
 
   /// The largest suction (minus the absolute pore pressure) at the pressure dofs
-  /// of the cells still in the model, and where; `over`: somewhere beyond its
-  /// soil's limit. Collective.
+  /// of the soil still in the model, and where; `over`: somewhere the analysis
+  /// raised it beyond its soil's limit. Collective.
   Located suction_now(const BiotProblem& problem, bool& over) const;
   /// The suction each region's soil holds before it drains, by region id, kPa.
   std::vector<double> suction_limits_;

@@ -165,10 +165,12 @@ void WaterAccount::note_one_way(const RunView& view, const model::PumpedLine& li
                    "' would put water into the ground: its held head is above the "
                    "ground's around it, so its pump stands and it is sealed (only a "
                    "recharge well, section.wells[].recharge, injects)");
-  if (state.dry && steps.dry++ == 0)
+  // A held excavation level at its own elevation is a drain at atmospheric
+  // pressure, not a well run dry.
+  if (state.dry && line.label != section_names::excavation_level && steps.dry++ == 0)
     warn(view, "'" + line.label +
-                   "' has run dry: its target head is below its screen, which drains "
-                   "at atmospheric pressure");
+                   "' has run dry: its target head is at or below its screen, which "
+                   "drains at atmospheric pressure");
 }
 
 void WaterAccount::finish(const RunView& view, toml::table& results) {

@@ -372,7 +372,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   new_geometry = m.fit_springs(m.time) || new_geometry;
   if (new_geometry)
     m.find_exposed();
-  m.open_one_way_lines(t_new);
+  m.gather_one_way(t_new);
   // Cells taken out or props fitted change what the old states mean: start again
   // with implicit Euler.
   const StepWeights weights =
@@ -396,10 +396,15 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
     else
       m.solve_step(t_new, dt_eff, new_geometry, report);
     new_geometry = false;
+    const auto solved_draining = m.draining;
+    const auto solved_stopped = m.pumped_stopped;
     if (!m.update_draining(t_new, dt_eff))
       break;
     if (report.drain_rounds == max_drain_rounds) {
-      report.drains_settled = false; // keeps the last solve
+      // Keeps the last solve, with the set it was solved with.
+      report.drains_settled = false;
+      m.draining = solved_draining;
+      m.pumped_stopped = solved_stopped;
       break;
     }
   }

@@ -294,7 +294,6 @@ struct BiotProblem::Impl {
     double previous_dt = 0.0;
     unsigned int euler_steps_left = 0;
     std::set<types::global_dof_index> draining;
-    std::map<types::global_dof_index, OneWayDof> one_way;
     std::vector<bool> one_way_open, pumped_stopped;
   };
   StepHistory kept_history() const;
@@ -336,14 +335,14 @@ struct BiotProblem::Impl {
 
   // Lines where water leaves but does not enter (one_way_flow.cc): the surface
   // excavation exposes, draining to the pit, and the one-way conditions.
-  /// Sets the dug surface's dofs in one_way: the pressure dofs on faces between
-  /// cells in the model and removed cells.
+  /// Sets `exposed`: the pressure dofs on faces between cells in the model and
+  /// removed cells (the dug surface).
   void find_exposed();
-  void add_exposed();
-  /// Adds the dofs of the one-way conditions that apply at t and did not before
-  /// (held at their limit at first), and drops those of the ones that stopped.
-  /// Starts a step: a pumped line may stop and start again within it.
-  void open_one_way_lines(double t);
+  /// Sets one_way at the start of a step to t: the dofs of the one-way conditions
+  /// that apply at t (the first in their order takes a shared dof), then the dug
+  /// surface's. A dof that a line takes anew is held at first, one the dug surface
+  /// takes anew sealed. A line that opens starts with its pump running.
+  void gather_one_way(double t);
   /// Whether a one-way dof lies below the water of a pumped line at t.
   bool below_pumped_water(const OneWayDof& d, double t) const;
   /// Starts or stops the pumped lines from the solve at t whose storage residual
@@ -351,8 +350,6 @@ struct BiotProblem::Impl {
   /// the ground stops (and stays stopped for the step); a stopped one starts where
   /// the soil's pressure exceeds its limit anywhere along it. Collective.
   void switch_pumped_lines(double t, const LA::MPI::Vector& residual, double tolerance);
-  /// Sets pumped_stopped from the draining dofs at t (resume). Collective.
-  void infer_stopped_lines(double t);
   /// The excess pressure at which a one-way dof drains at time t, kPa.
   double drain_limit(const OneWayDof& d, double t) const;
   /// The draining dofs that one source (a condition, or dug_surface) limits.
@@ -363,8 +360,9 @@ struct BiotProblem::Impl {
   /// whose water would enter stops draining; a sealed one above its limit drains.
   /// Returns whether the set changed anywhere. Collective.
   bool update_draining(double t, double dt);
+  std::map<types::global_dof_index, Point<2>> exposed;  ///< locally relevant
   std::map<types::global_dof_index, OneWayDof> one_way; ///< locally relevant
-  std::vector<bool> one_way_open; ///< per conditions.pressures: its dofs are in one_way
+  std::vector<bool> one_way_open; ///< per conditions.pressures: it applied last step
   /// Per conditions.pressures: a pumped line whose pump stopped, and one that
   /// stopped in the current step (it does not start again within the step).
   std::vector<bool> pumped_stopped, stopped_in_step;

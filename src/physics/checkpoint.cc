@@ -38,9 +38,9 @@ const parallel::distributed::Triangulation<2>& triangulation_of(const Mesh& mesh
 
 void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file) const {
   const Impl& m = *impl_;
-  a.mark("biot problem 2");
+  a.mark("biot problem 3");
   double time = m.time;
-  std::vector<bool> excavated = m.excavated;
+  std::vector<bool> excavated = m.excavated, stopped = m.pumped_stopped;
   std::vector<double> fitted = m.spring_fitted_at;
   bool settled = m.settled, has_reference = m.has_reference;
   double previous_dt = m.previous_dt;
@@ -49,7 +49,7 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
   double newton_previous_dt = m.newton_previous_dt, drive_u = m.largest_drive.u,
          drive_p = m.largest_drive.p;
   a& time& excavated& fitted& settled& has_reference& previous_dt& euler_steps_left&
-      newton_previous_dt& drive_u& drive_p;
+      newton_previous_dt& drive_u& drive_p& stopped;
 
   LA::MPI::Vector owned_flags(m.owned, m.comm);
   for (const auto d : m.draining)
@@ -91,9 +91,11 @@ void BiotProblem::save_checkpoint(StateArchive& a, const std::string& mesh_file)
 
 void BiotProblem::load_checkpoint(StateArchive& a) {
   Impl& m = *impl_;
-  a.mark("biot problem 2");
+  a.mark("biot problem 3");
+  std::vector<bool> stopped;
   a& m.time& m.excavated& m.spring_fitted_at& m.settled& m.has_reference& m.previous_dt& m
-      .euler_steps_left& m.newton_previous_dt& m.largest_drive.u& m.largest_drive.p;
+      .euler_steps_left& m.newton_previous_dt& m.largest_drive.u& m.largest_drive
+      .p& stopped;
   if (m.excavated.size() != m.setup.excavation.size() ||
       m.spring_fitted_at.size() != m.setup.springs.size())
     throw InputError("the checkpoint's digging or props do not match the scenario's");
@@ -155,12 +157,14 @@ void BiotProblem::load_checkpoint(StateArchive& a) {
   flags = owned_flags;
   m.find_exposed();
   m.one_way_open.clear();
-  m.open_one_way_lines(m.time);
+  m.gather_one_way(m.time);
   m.draining.clear();
   for (const auto& [d, at] : m.one_way)
     if (flags(d) > 0.5)
       m.draining.insert(d);
-  m.infer_stopped_lines(m.time);
+  if (stopped.size() != m.conditions.pressures.size())
+    throw InputError("the checkpoint's hydraulic conditions do not match the scenario's");
+  m.pumped_stopped = stopped;
 }
 
 } // namespace settlewell

@@ -26,15 +26,9 @@
 namespace settlewell {
 
 void BiotProblem::Impl::find_exposed() {
-  for (auto it = one_way.begin(); it != one_way.end();)
-    it = it->second.condition == dug_surface ? one_way.erase(it) : std::next(it);
-  if (setup.pit_water_head && !removed.empty())
-    add_exposed();
-  for (auto it = draining.begin(); it != draining.end();)
-    it = one_way.count(*it) ? std::next(it) : draining.erase(it);
-}
-
-void BiotProblem::Impl::add_exposed() {
+  exposed.clear();
+  if (!setup.pit_water_head || removed.empty())
+    return;
   const FiniteElement<2>& fe = layout.fe;
   std::vector<types::global_dof_index> face_dofs(fe.n_dofs_per_face());
   for (const auto& cell : dof_handler.active_cell_iterators()) {
@@ -49,36 +43,41 @@ void BiotProblem::Impl::add_exposed() {
       for (unsigned int i = 0; i < face_dofs.size(); ++i)
         if (fe.face_system_to_component_index(i).first == FieldLayout::pressure) {
           const unsigned int vertex = i / fe.n_dofs_per_vertex();
-          // The dug surface comes first where it meets a one-way line.
-          one_way[face_dofs[i]] = {cell->face(f)->vertex(vertex), dug_surface};
+          exposed.emplace(face_dofs[i], cell->face(f)->vertex(vertex));
         }
     }
   }
 }
 
-void BiotProblem::Impl::open_one_way_lines(double t) {
+void BiotProblem::Impl::gather_one_way(double t) {
   const std::size_t n = conditions.pressures.size();
   one_way_open.resize(n, false);
   pumped_stopped.resize(n, false);
   stopped_in_step.assign(n, false);
+  // Built afresh from the lines that apply now, so that a dof two sources share
+  // goes to the same one whatever opened or closed before (and on resume).
+  std::map<types::global_dof_index, OneWayDof> next;
   for (std::size_t k = 0; k < n; ++k) {
     const auto& bc = conditions.pressures[k];
     const bool open = bc.one_way() && bc.window.contains(t);
-    if (open == one_way_open[k])
-      continue;
+    if (open && !one_way_open[k])
+      pumped_stopped[k] = false; // a line that opens starts pumping
     one_way_open[k] = open;
-    pumped_stopped[k] = false;
-    for (const auto& [d, x] : pressure_line_dofs[k]) {
-      const auto found = one_way.find(d);
-      if (open && found == one_way.end()) {
-        one_way.emplace(d, OneWayDof{x, k});
-        draining.insert(d); // a line that opens holds its pressure at first
-      } else if (!open && found != one_way.end() && found->second.condition == k) {
-        one_way.erase(found);
-        draining.erase(d);
-      }
-    }
+    if (open)
+      for (const auto& [d, x] : pressure_line_dofs[k])
+        next.emplace(d, OneWayDof{x, k});
   }
+  for (const auto& [d, x] : exposed)
+    next.emplace(d, OneWayDof{x, dug_surface});
+  std::set<types::global_dof_index> kept;
+  for (const auto& [d, at] : next) {
+    const auto before = one_way.find(d);
+    const bool same = before != one_way.end() && before->second.condition == at.condition;
+    if (same ? draining.count(d) != 0 : at.condition != dug_surface)
+      kept.insert(d); // a line holds a dof it takes anew; the dug surface seals it
+  }
+  one_way = std::move(next);
+  draining = std::move(kept);
 }
 
 bool BiotProblem::Impl::below_pumped_water(const OneWayDof& d, double t) const {
@@ -93,46 +92,41 @@ void BiotProblem::Impl::switch_pumped_lines(double t,
                                             const LA::MPI::Vector& residual,
                                             double tolerance) {
   const std::size_t n = conditions.pressures.size();
-  // Per line: the net water leaving through its draining dofs (times dt), and
-  // whether the soil's pressure exceeds the limit at one of its sealed dofs.
-  std::vector<double> net(n, 0.0), above(n, 0.0);
+  // Per line: the net water leaving through its draining dofs (times dt); for a
+  // stopped line, how far the soil's pressure stands above the limit at its dofs
+  // below its water (summed, and counted), and whether it does at any other.
+  std::vector<double> net(n, 0.0), above_wet(n, 0.0), wet(n, 0.0), above_dry(n, 0.0);
   for (const auto& [d, at] : one_way) {
     if (at.condition == dug_surface || !owned.is_element(d) ||
         conditions.pressures[at.condition].exchange !=
             HydraulicCondition::Exchange::pumped)
       continue;
+    const std::size_t k = at.condition;
+    const double over = solution(d) - drain_limit(at, t);
     if (draining.count(d))
-      net[at.condition] -= residual(d);
-    else if (solution(d) > drain_limit(at, t) + 1e-8)
-      above[at.condition] = 1.0;
+      net[k] -= residual(d);
+    else if (below_pumped_water(at, t)) {
+      above_wet[k] += over;
+      wet[k] += 1.0;
+    } else if (over > 1e-8)
+      above_dry[k] = 1.0;
   }
-  Utilities::MPI::sum(net, comm, net);
-  Utilities::MPI::max(above, comm, above);
+  for (auto* v : {&net, &above_wet, &wet, &above_dry})
+    Utilities::MPI::sum(*v, comm, *v);
   for (std::size_t k = 0; k < n; ++k) {
     if (!one_way_open[k] ||
         conditions.pressures[k].exchange != HydraulicCondition::Exchange::pumped)
       continue;
+    // A stopped line starts again when, held, it would likely take water in net:
+    // the soil's pressure above the limit on average below its water (or anywhere,
+    // for a line with no water held). The stop rule decides after the next solve.
+    const bool would_take =
+        wet[k] > 0.0 ? above_wet[k] > 1e-8 * wet[k] : above_dry[k] > 0.0;
     if (!pumped_stopped[k] && net[k] < -tolerance)
       pumped_stopped[k] = stopped_in_step[k] = true;
-    else if (pumped_stopped[k] && !stopped_in_step[k] && above[k] > 0.5)
+    else if (pumped_stopped[k] && !stopped_in_step[k] && would_take)
       pumped_stopped[k] = false;
   }
-}
-
-void BiotProblem::Impl::infer_stopped_lines(double t) {
-  const std::size_t n = conditions.pressures.size();
-  std::vector<double> wet(n, 0.0), running(n, 0.0);
-  for (const auto& [d, at] : one_way)
-    if (owned.is_element(d) && below_pumped_water(at, t)) {
-      wet[at.condition] = 1.0;
-      if (draining.count(d))
-        running[at.condition] = 1.0;
-    }
-  Utilities::MPI::max(wet, comm, wet);
-  Utilities::MPI::max(running, comm, running);
-  pumped_stopped.assign(n, false);
-  for (std::size_t k = 0; k < n; ++k)
-    pumped_stopped[k] = wet[k] > 0.5 && running[k] < 0.5;
 }
 
 double BiotProblem::Impl::drain_limit(const OneWayDof& d, double t) const {
@@ -210,7 +204,7 @@ BiotProblem::OneWayState BiotProblem::one_way_state(const std::string& line) con
     if (bc.line.name != line || !bc.one_way() || !bc.window.contains(m.time))
       continue;
     state.one_way = true;
-    state.stopped = m.pumped_stopped.at(k);
+    state.stopped = k < m.pumped_stopped.size() && m.pumped_stopped[k];
     bool wet = false;
     for (const auto& [d, x] : m.pressure_line_dofs[k])
       wet = wet || bc.held_pressure(x, m.time) > 0.0;

@@ -40,7 +40,6 @@ BiotProblem::Impl::StepHistory BiotProblem::Impl::kept_history() const {
   kept.previous_dt = previous_dt;
   kept.euler_steps_left = euler_steps_left;
   kept.draining = draining;
-  kept.one_way = one_way;
   kept.one_way_open = one_way_open;
   kept.pumped_stopped = pumped_stopped;
   return kept;
@@ -53,7 +52,6 @@ void BiotProblem::Impl::restore(const StepHistory& kept) {
   previous_dt = kept.previous_dt;
   euler_steps_left = kept.euler_steps_left;
   draining = kept.draining;
-  one_way = kept.one_way;
   one_way_open = kept.one_way_open;
   pumped_stopped = kept.pumped_stopped;
   reset_clay_trials();

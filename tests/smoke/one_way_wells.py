@@ -1,6 +1,6 @@
 """A well takes water only unless it is a recharge well (tests/smoke/
 well_held_high.toml: a small pit whose well W1 is held 3 m above the water
-table). Three runs of the same site:
+table). Four runs of the same site:
 
 - as given: held, W1 would inject, so its pump stands and it is sealed: it pumps
   nothing and puts nothing in; one warning line, the stopped steps counted in

@@ -166,3 +166,24 @@ TEST(OneWayLine, AStoppedPumpStartsAgainWhenTheGroundRisesAboveItsHead) {
   EXPECT_FALSE(problem.one_way_state("right").stopped);
   EXPECT_NEAR(problem.outflow("right"), k * (h_left - 1.0) / length, 1e-9 * k);
 }
+
+TEST(OneWayLine, APumpedLineOpensAndClosesWithItsWindow) {
+  const Mesh mesh = strip_mesh();
+  // Held at 1 m from t = 1e5 s to 2e6 s only: no flow before (the strip comes to
+  // stand at H0), Darcy's flow while it applies, none after. Steps of constant
+  // length, each about the strip's diffusion time (1e3 s) and then 1e5 s.
+  BiotSetup setup = strip_setup(1.0, true);
+  setup.conditions.hydraulic.back().window = TimeWindow{1e5, 2e6};
+  BiotProblem problem(mesh, setup);
+  for (int i = 1; i <= 100; ++i)
+    problem.advance_to(1e3 * i);
+  EXPECT_FALSE(problem.one_way_state("right").one_way);
+  EXPECT_NEAR(head_at(problem, length, -0.5), h_left, 1e-6);
+  for (int i = 2; i <= 20; ++i)
+    problem.advance_to(1e5 * i);
+  EXPECT_TRUE(problem.one_way_state("right").one_way);
+  EXPECT_NEAR(problem.outflow("right"), k * (h_left - 1.0) / length, 1e-9 * k);
+  problem.advance_to(2.1e6);
+  EXPECT_FALSE(problem.one_way_state("right").one_way);
+  EXPECT_NEAR(problem.outflow("right"), 0.0, 1e-9 * k);
+}

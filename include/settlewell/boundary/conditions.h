@@ -86,8 +86,6 @@ struct BoundaryConditions {
   /// A head held by pumping (HydraulicCondition::Exchange::pumped).
   BoundaryConditions&
   pumped_head(const std::string& boundary, FieldFunction h, TimeWindow window = {});
-  /// A seepage face at atmospheric pressure (HydraulicCondition::Exchange).
-  BoundaryConditions& seepage_face(const std::string& boundary, TimeWindow window = {});
   BoundaryConditions&
   outflow(const std::string& boundary, FieldFunction q, TimeWindow window = {});
   BoundaryConditions& fix(const std::string& boundary, bool x, bool y);
