@@ -381,8 +381,9 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   m.form_old_state(weights.previous_weight);
   m.shift_history(dt);
   m.effective_dt = dt_eff;
-  // A drained surface may need several solves until the set of draining dofs
-  // settles; without one, the loop runs once.
+  // Lines that take water only (the dug surface, wells, seepage faces) may need
+  // several solves until the set of draining dofs settles; without one, the loop
+  // runs once.
   constexpr unsigned int max_drain_rounds = 30;
   const bool newton = !m.setup.clays.empty(); // the same on every process
   if (newton) {
@@ -396,17 +397,20 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
     else
       m.solve_step(t_new, dt_eff, new_geometry, report);
     new_geometry = false;
+    if (report.drain_rounds < max_drain_rounds) {
+      if (!m.update_draining(t_new, dt_eff))
+        break;
+      continue;
+    }
+    // The last round allowed: keeps this solve, with the set it was solved with.
     const auto solved_draining = m.draining;
     const auto solved_stopped = m.pumped_stopped;
-    if (!m.update_draining(t_new, dt_eff))
-      break;
-    if (report.drain_rounds == max_drain_rounds) {
-      // Keeps the last solve, with the set it was solved with.
+    if (m.update_draining(t_new, dt_eff)) {
       report.drains_settled = false;
       m.draining = solved_draining;
       m.pumped_stopped = solved_stopped;
-      break;
     }
+    break;
   }
   if (newton) {
     m.commit_clay_points();
