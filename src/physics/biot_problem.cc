@@ -74,6 +74,7 @@ BiotProblem::Impl::Impl(const Mesh& mesh_, BiotSetup setup_)
   build_storage_rows();
   choose_solver();
   prepare_clays();
+  prepare_unsaturated();
 }
 
 void BiotProblem::Impl::map_unit_weights() {
@@ -100,11 +101,13 @@ void BiotProblem::Impl::choose_solver() {
   const bool iterative = setup.solver == SolverChoice::iterative ||
                          (setup.solver == SolverChoice::automatic &&
                           dof_handler.n_dofs() > setup.direct_limit);
-  if (iterative && !setup.clays.empty())
-    throw InputError("a Cam Clay material needs the direct solver (numerics.solver = "
-                     "\"direct\"): its tangent is not symmetric");
+  if (iterative && newton_steps())
+    throw InputError(
+        std::string(setup.clays.empty() ? "a retention curve" : "a Cam Clay material") +
+        " needs the direct solver (numerics.solver = \"direct\"): its "
+        "tangent is not symmetric");
   if (!iterative) {
-    solver = make_direct_solver(comm, setup.clays.empty());
+    solver = make_direct_solver(comm, !newton_steps());
     set_row_signs();
     return;
   }
@@ -357,7 +360,7 @@ StepReport BiotProblem::advance_to(double t_new) {
   if (!m.settled)
     throw InternalError("a gravity-loading start must be settled before the first step");
   // The same on every process.
-  return m.setup.clays.empty() ? m.take_step(t_new) : m.take_clay_step(t_new, 0);
+  return m.newton_steps() ? m.take_clay_step(t_new, 0) : m.take_step(t_new);
 }
 
 StepReport BiotProblem::Impl::take_step(double t_new) {
@@ -375,8 +378,11 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   m.gather_one_way(t_new);
   // Cells taken out or props fitted change what the old states mean: start again
   // with implicit Euler.
+  // Partly saturated soil: implicit Euler throughout (the mixed form's water
+  // content is not a linear function of the old states).
+  const bool euler = new_geometry || !m.setup.unsaturated.empty();
   const StepWeights weights =
-      next_step_weights(dt, new_geometry ? 0.0 : m.previous_dt, m.euler_steps_left);
+      next_step_weights(dt, euler ? 0.0 : m.previous_dt, m.euler_steps_left);
   const double dt_eff = weights.effective_dt;
   m.form_old_state(weights.previous_weight);
   m.shift_history(dt);
@@ -385,7 +391,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   // several solves until the set of draining dofs settles; without one, the loop
   // runs once.
   constexpr unsigned int max_drain_rounds = 30;
-  const bool newton = !m.setup.clays.empty(); // the same on every process
+  const bool newton = m.newton_steps(); // the same on every process
   if (newton) {
     m.step_start = m.solution;
     if (new_geometry)

@@ -320,6 +320,25 @@ struct BiotProblem::Impl {
   LA::MPI::Vector displacement_mask, pressure_mask; ///< 1 on the field's owned dofs
   FieldNorms largest_drive; ///< the largest residual at a step's start so far
 
+  // Soil that drains above the water table (unsaturated_flow.cc).
+  /// Whether steps are solved by Newton's method: a clay or a retention curve.
+  bool newton_steps() const { return !setup.clays.empty() || !setup.unsaturated.empty(); }
+  /// retention_by_region from setup.unsaturated (constructor).
+  void prepare_unsaturated();
+  std::vector<const RetentionCurve*>
+      retention_by_region; ///< by region id; null: saturated
+  bool is_unsaturated(const DoFHandler<2>::active_cell_iterator& cell) const {
+    return cell->material_id() < retention_by_region.size() &&
+           retention_by_region[cell->material_id()] != nullptr;
+  }
+  /// A partly saturated cell's terms (CellKernel::add_unsaturated_terms) at
+  /// `solution` with the old state old_solution.
+  void add_unsaturated_terms(CellKernel& kernel,
+                             const DoFHandler<2>::active_cell_iterator& cell,
+                             double dt,
+                             FullMatrix<double>* tangent,
+                             Vector<double>& residual) const;
+
   // Point springs, props (springs.cc).
   /// Finds the dof of every spring (collective; throws if its node is missing).
   void locate_springs();

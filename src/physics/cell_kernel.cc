@@ -210,6 +210,77 @@ void CellKernel::add_strain_dependent_flow(const Tensor<2, 2>& mobility,
   }
 }
 
+void CellKernel::add_unsaturated_terms(const CellCoefficients& c,
+                                       const UnsaturatedCoefficients& u,
+                                       const Vector<double>& local,
+                                       const Vector<double>& old,
+                                       double dt,
+                                       FullMatrix<double>* tangent,
+                                       Vector<double>& residual) {
+  update_cell_values();
+  const RetentionCurve& curve = *u.curve;
+  const double gw = u.gamma_w, theta_s = curve.saturated_content;
+  for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    double p = 0.0, p_old = 0.0, strain = 0.0, strain_old = 0.0;
+    Tensor<1, 2> grad_p;
+    evaluate_shapes(q);
+    for (const unsigned int i : p_dofs_) {
+      p += local(i) * phi_p_[i];
+      p_old += old(i) * phi_p_[i];
+      grad_p += local(i) * grad_p_[i];
+    }
+    for (const unsigned int i : u_dofs_) {
+      strain += local(i) * divergence_[i];
+      strain_old += old(i) * divergence_[i];
+    }
+    const double start = u.start_pressure(fe_values_.quadrature_point(q));
+    const double now = start + p, before = start + p_old;
+    if (now >= 0.0 && before >= 0.0 && start >= 0.0)
+      continue; // saturated throughout: the saturated system holds
+    const auto at = curve.at(now / gw), at_old = curve.at(before / gw),
+               at_start = curve.at(start / gw);
+    const double capacity = at.capacity / gw; // d theta / dP, 1/kPa
+    const double saturation_slope = capacity / theta_s;
+    const double volume_change = strain - strain_old;
+    const double w = weight(fe_values_, q);
+    // The p rows.
+    const double stored =
+        at.content - at_old.content + c.alpha * (at.saturation - 1.0) * volume_change;
+    const Tensor<1, 2> flux = dt * w * (at.conductivity - 1.0) * (c.mobility * grad_p);
+    const Tensor<1, 2> flux_slope =
+        dt * w * at.conductivity_slope / gw * (c.mobility * grad_p);
+    for (const unsigned int i : p_dofs_) {
+      residual(i) += w * phi_p_[i] * stored + grad_p_[i] * flux;
+      if (tangent == nullptr)
+        continue;
+      const double by_pressure =
+          w * phi_p_[i] * (capacity + c.alpha * saturation_slope * volume_change);
+      const double by_gradient = grad_p_[i] * flux_slope;
+      const Tensor<1, 2> flow_i =
+          dt * w * (at.conductivity - 1.0) * (c.mobility * grad_p_[i]);
+      for (const unsigned int j : p_dofs_)
+        (*tangent)(i, j) += (by_pressure + by_gradient) * phi_p_[j] + flow_i * grad_p_[j];
+      const double by_strain = w * phi_p_[i] * c.alpha * (at.saturation - 1.0);
+      for (const unsigned int j : u_dofs_)
+        (*tangent)(i, j) += by_strain * divergence_[j];
+    }
+    // The u rows: Bishop's stress with chi = S_r, and the weight of the water.
+    const double bishop = at.saturation * now - at_start.saturation * start - p;
+    const double bishop_slope = at.saturation + saturation_slope * now - 1.0;
+    const double water_weight = gw * (at.content - at_start.content);
+    for (const unsigned int i : u_dofs_) {
+      const double v_y = fe_values_[layout_.displacement].value(i, q)[1];
+      residual(i) += w * (-c.alpha * divergence_[i] * bishop + water_weight * v_y);
+      if (tangent == nullptr)
+        continue;
+      const double by_pressure =
+          w * (-c.alpha * divergence_[i] * bishop_slope + gw * capacity * v_y);
+      for (const unsigned int j : p_dofs_)
+        (*tangent)(i, j) += by_pressure * phi_p_[j];
+    }
+  }
+}
+
 void CellKernel::mirror_into(FullMatrix<double>& out) const {
   for (const auto* block : {&u_dofs_, &p_dofs_})
     for (unsigned int a = 0; a < block->size(); ++a)

@@ -75,20 +75,33 @@ void BiotProblem::Impl::assemble_newton_system(double t_new,
 void BiotProblem::Impl::add_clay_terms(double dt) {
   CellKernel kernel(layout, setup.analysis, mapping);
   const unsigned int n = kernel.dofs_per_cell();
-  FullMatrix<double> cell_matrix(n, n);
-  Vector<double> cell_rhs(n), local(n);
+  FullMatrix<double> cell_matrix(n, n), tangent(n, n);
+  Vector<double> cell_rhs(n), local(n), terms(n);
   std::vector<types::global_dof_index> dofs(n);
   for (const auto& cell : dof_handler.active_cell_iterators()) {
-    if (!cell->is_locally_owned() || !has_clay_points(cell))
+    if (!cell->is_locally_owned() || !in_model(cell))
+      continue;
+    const bool clay = has_clay_points(cell), unsaturated = is_unsaturated(cell);
+    if (!clay && !unsaturated)
       continue;
     kernel.reinit(cell);
     cell->get_dof_indices(dofs);
     cell_matrix = 0.0;
     cell_rhs = 0.0;
-    add_clay_terms(kernel, cell, cell_matrix, cell_rhs);
-    if (conductivity_rate(cell->material_id()) != 0.0) {
-      cell->get_dof_values(solution, local);
+    cell->get_dof_values(solution, local);
+    if (clay)
+      add_clay_terms(kernel, cell, cell_matrix, cell_rhs);
+    if (clay && conductivity_rate(cell->material_id()) != 0.0)
       add_clay_flow(kernel, cell, local, dt, cell_matrix, cell_rhs);
+    if (unsaturated) {
+      // Terms N(x) with tangent J enter as J in the matrix and J x - N(x) in the
+      // right-hand side, so that b - K x holds -N(x).
+      tangent = 0.0;
+      terms = 0.0;
+      add_unsaturated_terms(kernel, cell, dt, &tangent, terms);
+      tangent.vmult_add(cell_rhs, local);
+      cell_rhs -= terms;
+      cell_matrix.add(1.0, tangent);
     }
     constraints.distribute_local_to_global(cell_matrix, dofs, matrix);
     constraints.distribute_local_to_global(cell_rhs, dofs, rhs);

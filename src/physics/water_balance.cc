@@ -53,6 +53,8 @@ void BiotProblem::Impl::storage_residual(double t,
       add_clay_flow(kernel, cell, local, dt, flow_matrix, cell_rhs);
       flow_matrix.vmult_add(residual, local);
     }
+    if (is_unsaturated(cell))
+      add_unsaturated_terms(kernel, cell, dt, nullptr, residual);
     residual -= cell_rhs;
     for (unsigned int i = 0; i < n; ++i)
       if (!layout.is_displacement(layout.fe.system_to_component_index(i).first) &&
@@ -236,8 +238,11 @@ BiotProblem::StorageChange BiotProblem::storage_change() const {
   // functions sum to one, so the rows sum to the stored volume. The step's scheme
   // stores s(x_{n+1}) - s(old state) in dt' (step_weights): scaled to the step's
   // length, that is its storage rate times dt, the same measure as the discharges.
+  // Partly saturated cells add their water content's change (add_unsaturated_terms
+  // at dt = 0 holds storage alone).
   const Impl& m = *impl_;
   const double to_step = m.previous_dt / m.effective_dt;
+  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
   const unsigned int n = m.layout.fe.n_dofs_per_cell();
   Vector<double> change(n), stored(n);
   StorageChange local;
@@ -249,6 +254,13 @@ BiotProblem::StorageChange BiotProblem::storage_change() const {
     change -= stored;
     stored = 0.0;
     m.add_storage_terms(cell, change, stored);
+    if (m.is_unsaturated(cell)) {
+      kernel.reinit(cell);
+      change = 0.0;
+      m.add_unsaturated_terms(kernel, cell, 0.0, nullptr, change);
+      for (const unsigned int i : m.storage_rows.rows)
+        stored(i) += change(i);
+    }
     const double cell_change = std::accumulate(stored.begin(), stored.end(), 0.0);
     local.net += cell_change;
     local.gross += std::abs(cell_change);

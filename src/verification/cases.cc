@@ -69,6 +69,11 @@ const std::vector<VerificationCase>& all_cases() {
        "load: degree of settlement and pore pressure against Davis & Raymond's "
        "closed form; the observed order under mesh and step refinement",
        run_davis_raymond},
+      {"unsaturated-infiltration",
+       "rain on a column of Gardner soil 2 m above its water table (rigid skeleton): "
+       "pressure head and water taken in against Srivastava & Yeh's closed form, "
+       "the water balance, Newton's convergence",
+       run_unsaturated_infiltration},
   };
   return cases;
 }

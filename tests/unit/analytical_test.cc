@@ -4,6 +4,7 @@
 // the published source of the solution.
 #include "settlewell/analytical/consolidation.h"
 #include "settlewell/analytical/cutoff_wall.h"
+#include "settlewell/analytical/infiltration.h"
 #include "settlewell/analytical/mandel.h"
 #include "settlewell/analytical/wells.h"
 #include "settlewell/core/units.h"
@@ -155,4 +156,32 @@ TEST(Harr, DischargeAndExitGradientMatchTabulatedValues) {
   }
   // q(d/T) q(1 - d/T) = 1/4 (the map's symmetry).
   EXPECT_NEAR(a::harr_discharge_ratio(0.3) * a::harr_discharge_ratio(0.7), 0.25, 1e-12);
+}
+
+// Srivastava & Yeh (1991) infiltration toward a water table in a Gardner soil
+// (ks 1e-5 m/s, a 2/m, theta 0.40/0.06, a 2 m column, q = ks/2). The check values
+// were computed apart from this code: the same series in a separate script, and
+// a Crank-Nicolson finite-difference solution of the linear equation in k (800
+// cells, Richardson-extrapolated), which agreed with it to 1.2e-9 m in psi and
+// 6.5e-11 m in stored water. Given to 8 significant digits.
+TEST(Infiltration, GardnerColumnMatchesAnIndependentSolution) {
+  const a::GardnerInfiltration column({1e-5, 2.0, 0.40, 0.06}, 2.0, 0.5e-5, 200);
+  struct Value {
+    double t, z, psi;
+  };
+  const std::vector<Value> table{
+      {1e4, 0.25, -0.24934889}, {1e4, 1.0, -0.90541455},  {1e4, 2.0, -0.56215521},
+      {3e4, 0.5, -0.38006197},  {3e4, 1.5, -0.50714789},  {1e5, 1.0, -0.30306062},
+      {1e5, 2.0, -0.34418043},  {3e5, 0.25, -0.10954527}, {3e5, 2.0, -0.33750606}};
+  for (const auto& v : table)
+    EXPECT_NEAR(column.pressure_head(v.z, v.t), v.psi, 1e-8)
+        << v.t << " s, " << v.z << " m";
+  EXPECT_NEAR(column.relative_conductivity(1.0, 1e4), 0.16351851, 1e-8);
+  EXPECT_NEAR(column.stored_water(1e4), 4.9985315e-2, 1e-9);
+  EXPECT_NEAR(column.stored_water(1e5), 0.24538887, 1e-8);
+  EXPECT_NEAR(column.stored_water(3e5), 0.25654431, 1e-8);
+  // At the start: hydrostatic (psi = -z) and nothing stored, to the series's
+  // slow convergence there (2000 terms).
+  const a::GardnerInfiltration fine({1e-5, 2.0, 0.40, 0.06}, 2.0, 0.5e-5, 2000);
+  EXPECT_NEAR(fine.pressure_head(1.0, 0.0), -1.0, 1e-3);
 }

@@ -5,6 +5,7 @@
 #include "settlewell/core/units.h"
 #include "settlewell/materials/cam_clay.h"
 #include "settlewell/materials/poroelastic.h"
+#include "settlewell/materials/retention.h"
 
 #include <deal.II/base/point.h>
 #include <deal.II/base/symmetric_tensor.h>
@@ -141,6 +142,11 @@ struct BiotSetup {
   /// Regions (by name) with a Cam Clay skeleton; they need `geostatic` (the start
   /// stress). Their steps are solved by Newton's method.
   std::map<std::string, ClaySkeleton> clays;
+  /// Regions (by name) whose soil drains above the water table along a retention
+  /// curve (unsaturated flow with Bishop's effective stress, CellKernel::
+  /// add_unsaturated_terms). Their steps are solved by Newton's method with
+  /// implicit Euler: the mixed form keeps mass only with a one-step scheme.
+  std::map<std::string, RetentionCurve> unsaturated;
   NewtonSettings newton;
   /// Props and other point supports, fitted at their `from` times.
   std::vector<PointSpring> springs;

@@ -2,6 +2,7 @@
 
 #include "settlewell/core/linear_algebra.h"
 #include "settlewell/materials/cam_clay.h"
+#include "settlewell/materials/retention.h"
 #include "settlewell/physics/biot_setup.h"
 #include "settlewell/physics/field_layout.h"
 
@@ -29,6 +30,15 @@ struct CellCoefficients {
   bool skeleton_from_history = false;
 
   static CellCoefficients from(const PoroelasticMaterial& m, double gamma_w);
+};
+
+/// What a partly saturated cell needs besides its CellCoefficients.
+struct UnsaturatedCoefficients {
+  const RetentionCurve* curve = nullptr;
+  double gamma_w = 0.0; ///< kN/m^3
+  /// The start's (absolute) pore pressure at a point, kPa: the unknowns are its
+  /// change.
+  std::function<double(const dealii::Point<2>&)> start_pressure;
 };
 
 /// Per-cell integrals of one time step of the Biot system,
@@ -79,6 +89,26 @@ public:
                                  double dt,
                                  dealii::FullMatrix<double>& matrix,
                                  dealii::Vector<double>& vector);
+  /// The terms by which partly saturated soil differs from the saturated system
+  /// that add_matrix integrates, at the state `local` with the old state `old`
+  /// (the cells' dof values; absolute pore pressure P = P0 + p). In the p rows,
+  ///   theta(P) - theta(P_old) + alpha (S_r(P) - 1)(eps_v - eps_v,old)
+  ///   + dt (k_r(P) - 1) grad phi . m grad p
+  /// (water content, the skeleton's volume change filled in the share S_r, the
+  /// flow at the relative conductivity; the mixed form of Celia et al. 1990 with
+  /// implicit Euler), and in the u rows Bishop's (1959) effective stress with
+  /// chi = S_r, -alpha div v (S_r(P) P - S_r(P0) P0 - p), and the weight of the
+  /// water gained, gamma_w (theta(P) - theta(P0)) v_y. Adds these residual terms
+  /// to `residual` and, if `tangent` is not null, their derivatives by the dof
+  /// values to it (not symmetric). In saturated soil (P >= 0 throughout) every
+  /// term is zero.
+  void add_unsaturated_terms(const CellCoefficients& c,
+                             const UnsaturatedCoefficients& u,
+                             const dealii::Vector<double>& local,
+                             const dealii::Vector<double>& old,
+                             double dt,
+                             dealii::FullMatrix<double>* tangent,
+                             dealii::Vector<double>& residual);
   /// The fixed-stress approximation of the Schur complement in the p-p entries:
   /// (S + alpha^2/K) phi_i phi_j + dt grad phi_i . kappa grad phi_j, with K the
   /// drained plane bulk modulus lambda + mu.
