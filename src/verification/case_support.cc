@@ -65,6 +65,15 @@ void NewtonOrders::add(const StepReport& step) {
       orders_.push_back(std::log(r[k + 1] / r[k]) / std::log(r[k] / r[k - 1]));
 }
 
+void WaterBalance::add(const BiotProblem& problem, const StepReport& step) {
+  const auto storage = problem.storage_change();
+  const double out = problem.water_exchange().net_outflow * step.last_dt;
+  largest_moved_ = std::max(
+      {largest_moved_, storage.gross, problem.water_exchange().gross * step.last_dt});
+  worst_ =
+      std::max(worst_, std::abs(storage.net + out) / std::max(largest_moved_, 1e-30));
+}
+
 double NewtonOrders::median() const {
   if (orders_.empty())
     return std::numeric_limits<double>::quiet_NaN();

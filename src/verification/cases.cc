@@ -74,6 +74,11 @@ const std::vector<VerificationCase>& all_cases() {
        "pressure head and water taken in against Srivastava & Yeh's closed form, "
        "the water balance, Newton's convergence",
        run_unsaturated_infiltration},
+      {"lowered-water-table",
+       "a silty sand column whose water table falls 3 m from its top: final settlement "
+       "with the soil above the new water table drained along its retention curve, "
+       "at its moist weight, under Bishop's stress",
+       run_lowered_water_table},
   };
   return cases;
 }

@@ -55,6 +55,20 @@ private:
   std::vector<double> orders_;
 };
 
+/// The water balance of a run's steps as a run reports it (monitors/
+/// water_account.cc): each step's |stored + net outflow dt| over the most water
+/// that moved in any step so far (in plus out, or the cells' storage changes
+/// whatever their sign).
+class WaterBalance {
+public:
+  void add(const BiotProblem& problem, const StepReport& step);
+  /// The largest over the steps so far.
+  double worst() const { return worst_; }
+
+private:
+  double largest_moved_ = 0.0, worst_ = 0.0;
+};
+
 /// Settings that let Newton's own convergence show, not the stopping rules': a
 /// tight tolerance, exact corrections, and each step started from the last one's
 /// state (with the trend carried on most steps converge in two iterations, too few
