@@ -96,14 +96,19 @@ InitialState::InitialState(const scenario::Scenario& s, const Mesh& mesh)
       region_unit_weight_.resize(id + 1), region_k0_.resize(id + 1);
     region_unit_weight_[id] = s.materials.at(material).unit_weight;
     region_k0_[id] = s.materials.at(material).k0;
+    if (region_retention_.size() <= id)
+      region_retention_.resize(id + 1);
+    region_retention_[id] = s.materials.at(material).retention;
   }
   top_ = -1e300;
   for (const auto& v : mesh.triangulation->get_vertices())
     top_ = std::max(top_, v[1]);
   if (const auto* layers = layers_of(s)) {
     head_knots_ = head_knots(s);
-    for (const auto& l : *layers)
+    for (const auto& l : *layers) {
       weight_knots_.emplace_back(l.top, s.materials.at(l.material).unit_weight);
+      layer_retention_.push_back(s.materials.at(l.material).retention);
+    }
   } else {
     if (!s.groundwater.layer_heads.empty())
       throw InputError(s.location_of("groundwater") +
@@ -127,8 +132,51 @@ double InitialState::pore_pressure(const Point<2>& x) const {
   return gamma_w_ * (head(x) - x[1]);
 }
 
+double InitialState::deficit_between(const RetentionCurve& curve,
+                                     const Point<2>& x,
+                                     double y_low,
+                                     double y_high) const {
+  // Simpson's rule on 64 slices: the water content is smooth in y within a layer.
+  if (!(y_high > y_low))
+    return 0.0;
+  constexpr int n = 64;
+  const double h = (y_high - y_low) / n;
+  double sum = 0.0;
+  for (int i = 0; i <= n; ++i) {
+    const Point<2> at(x[0], y_low + i * h);
+    const double lacking =
+        curve.saturated_content - curve.at(pore_pressure(at) / gamma_w_).content;
+    sum += lacking * (i == 0 || i == n ? 1.0 : (i % 2 == 1 ? 4.0 : 2.0));
+  }
+  return gamma_w_ * sum * h / 3.0;
+}
+
+double InitialState::moisture_deficit(const Point<2>& x, types::material_id region) const {
+  if (weight_knots_.empty()) { // a user's mesh: the local soil over the full depth
+    const auto& curve = region_retention_.at(region);
+    return curve ? deficit_between(*curve, x, x[1], top_) : 0.0;
+  }
+  double deficit = 0.0;
+  for (std::size_t k = 0; k < weight_knots_.size(); ++k) {
+    const double layer_top = weight_knots_[k].first;
+    const double layer_bottom =
+        k + 1 < weight_knots_.size() ? weight_knots_[k + 1].first : -1e300;
+    if (x[1] >= layer_top)
+      break;
+    if (layer_retention_[k])
+      deficit += deficit_between(*layer_retention_[k], x, std::max(x[1], layer_bottom),
+                                 layer_top);
+  }
+  return deficit;
+}
+
 double InitialState::vertical_total_stress(const Point<2>& x,
                                            types::material_id region) const {
+  return saturated_vertical_stress(x, region) - moisture_deficit(x, region);
+}
+
+double InitialState::saturated_vertical_stress(const Point<2>& x,
+                                               types::material_id region) const {
   if (weight_knots_.empty()) // a user's mesh: the local unit weight over the full depth
     return region_unit_weight_.at(region) * std::max(0.0, top_ - x[1]);
   double stress = 0.0;
@@ -145,7 +193,10 @@ double InitialState::vertical_total_stress(const Point<2>& x,
 
 SymmetricTensor<2, 3> InitialState::effective_stress(const Point<2>& x,
                                                      types::material_id region) const {
-  const double vertical = vertical_total_stress(x, region) - pore_pressure(x);
+  const double p = pore_pressure(x);
+  const auto& curve = region_retention_.at(region);
+  const double chi = curve && p < 0.0 ? curve->at(p / gamma_w_).saturation : 1.0;
+  const double vertical = vertical_total_stress(x, region) - chi * p;
   SymmetricTensor<2, 3> sigma;
   sigma[1][1] = -vertical;
   sigma[0][0] = sigma[2][2] = -region_k0_.at(region) * vertical;

@@ -589,6 +589,8 @@ Model build_model(const Scenario& s,
     setup.geostatic.unit_weights[region] = s.materials.at(material).unit_weight;
     if (const auto& clay = s.materials.at(material).cam_clay)
       setup.clays[region] = clay_skeleton(*clay);
+    if (const auto& curve = s.materials.at(material).retention)
+      setup.unsaturated[region] = *curve;
   }
   setup.geostatic.effective_stress = [&initial](const Point<2>& x, types::material_id r) {
     return initial.start_effective_stress(x, r);
@@ -596,8 +598,9 @@ Model build_model(const Scenario& s,
   setup.gravity_loading = s.gravity_loading;
   setup.initial_head = [&initial](const Point<2>& x) { return initial.head(x); };
   setup.solver = s.numerics.solver;
-  if (!setup.clays.empty() && setup.solver == SolverChoice::automatic)
-    setup.solver = SolverChoice::direct; // a clay's tangent is not symmetric
+  if ((!setup.clays.empty() || !setup.unsaturated.empty()) &&
+      setup.solver == SolverChoice::automatic)
+    setup.solver = SolverChoice::direct; // Newton's tangent is not symmetric
   setup.solver_tolerance = s.numerics.tolerance;
   const auto roles = boundary_roles(s, mesh);
   const auto items = hydraulic_items(s, mesh, initial, roles, model.pumped);

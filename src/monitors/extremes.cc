@@ -174,7 +174,8 @@ Extremes::Extremes(const RunContext& run)
                            suction_limit_);
     suction_limits_[id] =
         s.materials.at(material).air_entry_suction.value_or(suction_limit_);
-    if (region == section_names::wall_region) // a section's wall is not soil
+    // A section's wall is not soil; a soil with a retention curve drains.
+    if (region == section_names::wall_region || s.materials.at(material).retention)
       suction_limits_[id] = std::numeric_limits<double>::infinity();
   }
   for (const auto& [dof, c] : places.component)

@@ -279,6 +279,8 @@ struct BiotProblem::Impl {
   double fixed_dt = std::numeric_limits<double>::quiet_NaN();
   std::vector<bool> fixed_pressures;
   bool newton_factor_ready = false; ///< the solver holds a factor of some tangent
+  /// Whether the last correction left the residual `relative` at round-off.
+  bool at_round_off(double relative) const;
   /// One step by Newton's method (replaces solve_step when there are clays).
   void solve_newton_step(double t_new, double dt, StepReport& report);
   /// One step from `time` to t_new (advance_to after its checks).
@@ -385,6 +387,17 @@ struct BiotProblem::Impl {
   /// Per conditions.pressures: a pumped line whose pump stopped, and one that
   /// stopped in the current step (it does not start again within the step).
   std::vector<bool> pumped_stopped, stopped_in_step;
+  /// One-way points that left the draining set in this step, and those that came
+  /// back after leaving and stay held to the step's end (point_drains).
+  std::set<types::global_dof_index> left_in_step, held_in_step;
+  /// Whether an owned one-way point that no pump rule decides drains after the
+  /// last solve: a held point while water leaves it, a sealed one where the soil's
+  /// pressure exceeds its limit; one that left and would come back stays held.
+  bool point_drains(types::global_dof_index d,
+                    const OneWayDof& at,
+                    double t,
+                    const LA::MPI::Vector& residual,
+                    double inflow_tolerance);
   std::set<types::global_dof_index> draining, matrix_draining;
   std::map<types::global_dof_index, double> drained_now;
   /// Internal-line flux faces of each owned cell: (face, index into conditions.fluxes).

@@ -54,6 +54,8 @@ void BiotProblem::Impl::gather_one_way(double t) {
   one_way_open.resize(n, false);
   pumped_stopped.resize(n, false);
   stopped_in_step.assign(n, false);
+  left_in_step.clear();
+  held_in_step.clear();
   // Built afresh from the lines that apply now, so that a dof two sources share
   // goes to the same one whatever opened or closed before (and on resume).
   std::map<types::global_dof_index, OneWayDof> next;
@@ -151,6 +153,29 @@ void BiotProblem::Impl::set_drain_values(double t) {
     drained_now[d] = drain_limit(one_way.at(d), t);
 }
 
+bool BiotProblem::Impl::point_drains(types::global_dof_index d,
+                                     const OneWayDof& at,
+                                     double t,
+                                     const LA::MPI::Vector& residual,
+                                     double inflow_tolerance) {
+  if (held_in_step.count(d))
+    return true;
+  if (draining.count(d)) { // held: it keeps draining while water leaves
+    const bool drains = -residual(d) >= -inflow_tolerance;
+    if (!drains)
+      left_in_step.insert(d);
+    return drains;
+  }
+  const bool drains = solution(d) > drain_limit(at, t) + 1e-8;
+  // A point that left the set and would come back has no consistent state (held,
+  // water enters; sealed, its pressure stands above the limit: an exit point
+  // between nodes, or cells whose Q1 couplings are positive): it stays held for the
+  // rest of the step, its small inflow counted in its line's discharge.
+  if (drains && left_in_step.count(d))
+    held_in_step.insert(d);
+  return drains;
+}
+
 bool BiotProblem::Impl::update_draining(double t, double dt) {
   if (Utilities::MPI::sum(one_way.size(), comm) == 0)
     return false;
@@ -180,8 +205,7 @@ bool BiotProblem::Impl::update_draining(double t, double dt) {
     else if (pumped_line && stopped_before[at.condition])
       drains = solution(d) > drain_limit(at, t) + 1e-8; // it starts again
     else
-      drains = draining.count(d) != 0 ? -residual(d) >= -inflow_tolerance // outflow: keep
-                                      : solution(d) > drain_limit(at, t) + 1e-8;
+      drains = point_drains(d, at, t, residual, inflow_tolerance);
     decision(d) = drains ? 1.0 : 0.0;
   }
   decision.compress(VectorOperation::insert);

@@ -224,6 +224,47 @@ double elastic_youngs_modulus(const TableReader& r, double poisson_ratio) {
       poisson_ratio);
 }
 
+const char* const retention_keys[] = {"retention_alpha", "retention_n",
+                                      "saturated_water_content",
+                                      "residual_water_content"};
+
+/// The retention curve of materials.<name>.retention, or none. `porosity`: the
+/// material's (0: not given), theta_s's default.
+std::optional<RetentionCurve> read_retention(const TableReader& r, double porosity) {
+  const std::string model = r.text("retention");
+  if (model == "none") {
+    for (const char* key : retention_keys)
+      if (r.has(key))
+        r.fail(key, "belongs to a retention curve; add retention = \"van_genuchten\" "
+                    "or \"gardner\"");
+    return std::nullopt;
+  }
+  RetentionCurve c;
+  if (model == "van_genuchten")
+    c.model = RetentionCurve::Model::van_genuchten;
+  else if (model == "gardner")
+    c.model = RetentionCurve::Model::gardner;
+  else
+    r.fail("retention", "must be none, van_genuchten or gardner (got '" + model + "')");
+  c.alpha = r.within("retention_alpha", 0.01, 100.0, "1/m", "a soil's range");
+  if (c.model == RetentionCurve::Model::van_genuchten)
+    c.n = r.within("retention_n", 1.05, 10.0, "", "a soil's range");
+  else if (r.has("retention_n"))
+    r.fail("retention_n", "belongs to a van_genuchten curve");
+  if (r.has("saturated_water_content"))
+    c.saturated_content = r.number("saturated_water_content");
+  else if (porosity > 0.0)
+    c.saturated_content = porosity;
+  else
+    r.fail_here("a retention curve needs saturated_water_content (or porosity)");
+  if (!(c.saturated_content > 0.0 && c.saturated_content < 1.0))
+    r.fail("saturated_water_content", "must lie in (0, 1)");
+  c.residual_content = r.number("residual_water_content");
+  if (!(c.residual_content >= 0.0 && c.residual_content < c.saturated_content))
+    r.fail("residual_water_content", "must lie in [0, saturated_water_content)");
+  return c;
+}
+
 Material read_material(const std::string& name, const TableReader& r) {
   Material m;
   m.name = name;
@@ -288,6 +329,10 @@ Material read_material(const std::string& name, const TableReader& r) {
     r.fail("earth_pressure_at_rest", "must be positive");
   if (r.has("air_entry_suction"))
     m.air_entry_suction = r.positive("air_entry_suction");
+  m.retention = read_retention(r, m.storage_from ? m.storage_from->porosity : 0.0);
+  if (m.retention && m.air_entry_suction)
+    r.fail("air_entry_suction", "flags the saturated model only; a material with a "
+                                "retention curve drains by it (remove one)");
   return m;
 }
 
@@ -459,6 +504,31 @@ void check_clay_support(const Scenario& s) {
 }
 } // namespace
 
+namespace {
+/// What a material with a retention curve cannot yet be combined with.
+void check_retention_support(const Scenario& s) {
+  for (const auto& [name, m] : s.materials) {
+    if (!m.retention)
+      continue;
+    const std::string where =
+        s.location_of("materials." + name) + ": materials." + name + ".retention";
+    const auto refuse = [&](const std::string& what) {
+      throw InputError(where + ": a retention curve cannot yet be used " + what);
+    };
+    if (m.cam_clay)
+      refuse("with model = \"cam_clay\"");
+    if (s.gravity_loading)
+      refuse("with initial_state.method = \"gravity\"; use \"k0\"");
+    if (s.numerics.solver == SolverChoice::iterative)
+      refuse("with numerics.solver = \"iterative\" (its tangent is not symmetric); "
+             "use \"direct\" or \"auto\"");
+    for (const auto& stage : s.stages)
+      if (stage.dig_level)
+        refuse("in a model that is dug (stage '" + stage.name + "' has a dig_level)");
+  }
+}
+} // namespace
+
 Scenario parse_scenario(const std::string& text, const std::string& name) {
   const toml::table root = parse_toml(text, name);
   Scenario s;
@@ -487,6 +557,7 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_output(top, s);
   parse_checks(top, s);
   check_clay_support(s);
+  check_retention_support(s);
   if (s.coupling == Coupling::flow_only &&
       (!s.neighbours.empty() || !s.output.columns.empty()))
     top.fail("coupling", "flow_only computes no movement, so it has no settlement for "

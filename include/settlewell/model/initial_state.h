@@ -1,11 +1,13 @@
 #pragma once
 
+#include "settlewell/materials/retention.h"
 #include "settlewell/mesh/mesh.h"
 #include "settlewell/output/derived.h"
 #include "settlewell/scenario/scenario.h"
 
 #include <deal.II/base/symmetric_tensor.h>
 
+#include <optional>
 #include <vector>
 
 namespace settlewell::model {
@@ -21,10 +23,12 @@ public:
   double head(const dealii::Point<2>& x) const; ///< m
   dealii::Tensor<1, 2> head_gradient(const dealii::Point<2>& x) const;
   double pore_pressure(const dealii::Point<2>& x) const; ///< kPa, gamma_w (h0 - y)
-  double
-  vertical_total_stress(const dealii::Point<2>& x,
-                        dealii::types::material_id region) const; ///< kPa, compression +
-  /// Geostatic effective stress, tension positive, components (xx, yy, zz) with zz
+  /// kPa, compression +: the saturated unit weights, less the water a soil with a
+  /// retention curve does not hold above its water table (its moist weight).
+  double vertical_total_stress(const dealii::Point<2>& x,
+                               dealii::types::material_id region) const;
+  /// Geostatic effective stress, tension positive (Bishop's, with chi = S_r, in a
+  /// soil with a retention curve), components (xx, yy, zz) with zz
   /// out of plane (hoop in axisymmetric) and no shear, kPa.
   dealii::SymmetricTensor<2, 3> effective_stress(const dealii::Point<2>& x,
                                                  dealii::types::material_id region) const;
@@ -43,6 +47,18 @@ private:
   std::vector<std::pair<double, double>> weight_knots_; ///< (layer top, unit weight)
   double top_ = 0.0;
   std::vector<double> region_unit_weight_, region_k0_; ///< by material id
+  /// The retention curve of each layer (weight_knots_'s order) and region, if any.
+  std::vector<std::optional<RetentionCurve>> layer_retention_, region_retention_;
+  /// The weight the soil with a retention curve lacks above x for the water it
+  /// does not hold, integral of gamma_w (theta_s - theta(p0)) dy, kPa.
+  double moisture_deficit(const dealii::Point<2>& x, dealii::types::material_id region) const;
+  double saturated_vertical_stress(const dealii::Point<2>& x,
+                                   dealii::types::material_id region) const;
+  /// Of a curve from y_low to y_high (m) at x's abscissa.
+  double deficit_between(const RetentionCurve& curve,
+                         const dealii::Point<2>& x,
+                         double y_low,
+                         double y_high) const;
 };
 
 } // namespace settlewell::model

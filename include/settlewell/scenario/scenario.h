@@ -4,6 +4,7 @@
 #include "settlewell/core/units.h"
 #include "settlewell/materials/cam_clay.h"
 #include "settlewell/materials/poroelastic.h"
+#include "settlewell/materials/retention.h"
 
 #include <map>
 #include <optional>
@@ -23,6 +24,9 @@ struct Material {
   /// kPa: the suction the soil holds before it drains (unset: checks.suction_limit);
   /// only flags where the saturated model goes beyond it.
   std::optional<double> air_entry_suction;
+  /// The soil drains above the water table along this curve (retention not
+  /// "none").
+  std::optional<RetentionCurve> retention;
   PoroelasticMaterial poroelastic;
   /// What the storage was computed from, when it was given as a porosity.
   struct StorageInputs {
