@@ -252,6 +252,16 @@ SECTION_FIELDS = {
 }
 
 
+def phreatic_line(ax, tri, pore_pressure):
+    """The line where the pore pressure is zero (the water table, or the top of the
+    saturated zone), drawn where the section has one; its legend handle."""
+    if pore_pressure is None or not (pore_pressure.min() < 0.0 < pore_pressure.max()):
+        return []
+    ax.tricontour(tri, pore_pressure, levels=[0.0], colors="#1f4e9c", linewidths=1.3,
+                  linestyles="--")
+    return [Line2D([], [], color="#1f4e9c", linestyle="--", label="phreatic line (p = 0)")]
+
+
 def section_view(run, geometry, axisymmetric, time, file, field):
     """One field over the section, with the geometry, a legend of its symbols and,
     in plane strain, a stated vertical exaggeration (x and y share one scale times
@@ -277,6 +287,7 @@ def section_view(run, geometry, axisymmetric, time, file, field):
     ax.set_xlim(tri.x.min(), tri.x.max())
     ax.set_ylim(tri.y.min(), tri.y.max())
     handles = draw_geometry(ax, geometry)
+    handles += phreatic_line(ax, tri, fields.get("pore_pressure"))
     if axisymmetric:
         radial_axis(ax, geometry["x_min"])
         note = "radius on a log scale"

@@ -246,6 +246,8 @@ void WaterAccount::write_budget(const RunView& view, toml::table& results) const
                      {"final_discharge_m3_per_day", pumped_rate * units::seconds_per_day},
                      {"sources", sources},
                      {"share_from_lateral_edges", share(from_edges, pumped)}};
+  if (!view.run.problem.setup().unsaturated.empty()) // part of the storage's share
+    budget.insert("drained_from_pores_m3", view.run.problem.water_drained_from_pores());
   if (share(from_edges, pumped) > 0.5) {
     const std::string warning =
         "the model's lateral edges (held at a fixed head) supply " +

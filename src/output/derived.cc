@@ -39,6 +39,10 @@ Derivation::Derivation(const BiotProblem& problem, InitialFields initial)
     if (materials_.size() <= id)
       materials_.resize(id + 1);
     materials_[id] = problem.setup().materials.at(region);
+    retention_.resize(materials_.size(), nullptr);
+    const auto curve = problem.setup().unsaturated.find(region);
+    if (curve != problem.setup().unsaturated.end())
+      retention_[id] = &curve->second;
   }
 }
 
@@ -105,6 +109,12 @@ DerivedState Derivation::at(const Point<2>& x,
   d.head_gradient = head_gradient;
   d.darcy_flux[0] = -m.conductivity_x * head_gradient[0];
   d.darcy_flux[1] = -m.conductivity_y * head_gradient[1];
+  d.suction = std::max(0.0, -d.pore_pressure);
+  if (const RetentionCurve* curve = retention_.at(region)) {
+    const auto at = curve->at(d.pore_pressure / gamma_w_);
+    d.saturation = at.saturation;
+    d.darcy_flux *= at.conductivity;
+  }
   return d;
 }
 

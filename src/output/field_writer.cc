@@ -33,7 +33,7 @@ std::string number(unsigned int n, unsigned int digits) {
 class DerivedFields : public DataPostprocessor<2> {
 public:
   enum class Part { all, movement, state };
-  DerivedFields(const Derivation& derivation, Part part, bool clays)
+  DerivedFields(const Derivation& derivation, Part part, bool clays, bool unsaturated)
       : derivation_(derivation) {
     using namespace DataComponentInterpretation;
     const std::vector<Field> fields{
@@ -81,9 +81,15 @@ public:
          "mean over the cell",
          false, component_is_scalar,
          [](const DerivedState& d) { return d.yield_ratio; }}};
-    for (const auto* list : {&fields, &clay_fields})
+    const std::vector<Field> unsaturated_fields{
+        {"degree_of_saturation", "-, S_r from the retention curve", false,
+         component_is_scalar, [](const DerivedState& d) { return d.saturation; }},
+        {"suction", "kPa, max(0, -pore pressure)", false, component_is_scalar,
+         [](const DerivedState& d) { return d.suction; }}};
+    for (const auto* list : {&fields, &clay_fields, &unsaturated_fields})
       for (const auto& f : *list)
-        if ((list == &fields || clays) &&
+        if ((list == &fields || (list == &clay_fields && clays) ||
+             (list == &unsaturated_fields && unsaturated)) &&
             (part == Part::all || (part == Part::movement) == f.movement))
           fields_.push_back(f);
   }
@@ -234,9 +240,10 @@ std::string FieldWriter::write(const BiotProblem& problem) {
   using Part = DerivedFields::Part;
   const bool one_vector = &moved == &problem.solution();
   const bool clays = problem.has_clays();
+  const bool unsaturated = !problem.setup().unsaturated.empty();
   const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement,
-                               clays),
-      state(derivation, Part::state, clays);
+                               clays, unsaturated),
+      state(derivation, Part::state, clays, unsaturated);
   data_out.add_data_vector(moved, movement);
   if (!one_vector)
     data_out.add_data_vector(problem.solution(), state);

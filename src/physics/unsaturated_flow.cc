@@ -6,6 +6,10 @@
 
 #include "settlewell/core/errors.h"
 
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/fe/fe_values.h>
+
 namespace settlewell {
 
 void BiotProblem::Impl::prepare_unsaturated() {
@@ -34,6 +38,32 @@ void BiotProblem::Impl::add_unsaturated_terms(
   };
   kernel.add_unsaturated_terms(coefficients[cell->material_id()], u, local, old, dt,
                                tangent, residual);
+}
+
+double BiotProblem::water_drained_from_pores() const {
+  const Impl& m = *impl_;
+  if (m.setup.unsaturated.empty())
+    return 0.0;
+  CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
+  FEValues<2> values(m.mapping, m.layout.fe, QGauss<2>(FieldLayout::displacement_degree + 1),
+                     update_values | update_quadrature_points | update_JxW_values);
+  std::vector<double> p(values.n_quadrature_points);
+  const double gw = m.setup.gamma_w;
+  double drained = 0.0;
+  for (const auto& cell : m.dof_handler.active_cell_iterators()) {
+    if (!cell->is_locally_owned() || !m.in_model(cell) || !m.is_unsaturated(cell))
+      continue;
+    const RetentionCurve& curve = *m.retention_by_region[cell->material_id()];
+    values.reinit(cell);
+    values[m.layout.excess_pressure].get_function_values(m.solution, p);
+    for (unsigned int q = 0; q < p.size(); ++q) {
+      const Point<2>& x = values.quadrature_point(q);
+      const double start = gw * (m.setup.initial_head(x) - x[1]);
+      drained += (curve.at(start / gw).content - curve.at((start + p[q]) / gw).content) *
+                 kernel.weight(values, q);
+    }
+  }
+  return Utilities::MPI::sum(drained, m.comm);
 }
 
 } // namespace settlewell

@@ -42,6 +42,10 @@ struct DerivedState {
   /// yield size p'c, kPa, and the yield ratio (1: yielding). NaN elsewhere.
   double yield_size = std::numeric_limits<double>::quiet_NaN();
   double yield_ratio = std::numeric_limits<double>::quiet_NaN();
+  /// S_r from the soil's retention curve (1 in soil without one), and the suction
+  /// max(0, -p), kPa.
+  double saturation = 1.0;
+  double suction = 0.0;
 };
 
 /// Turns the primary unknowns at a point into the reported quantities.
@@ -69,6 +73,7 @@ private:
   double gamma_w_;
   bool axisymmetric_;
   std::vector<PoroelasticMaterial> materials_; ///< by material id
+  std::vector<const RetentionCurve*> retention_; ///< by material id; null: none
 };
 
 } // namespace settlewell

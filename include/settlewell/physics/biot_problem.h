@@ -122,6 +122,13 @@ public:
   /// Collective.
   StorageChange storage_change() const;
 
+  /// The water the soils with a retention curve have given up by draining since
+  /// the start, the integral of theta(P0) - theta(P) over them (negative where
+  /// they took water in), m^3 (per metre run, or for the full circle): the volume
+  /// drained from the pores above the phreatic line. 0 without such soils.
+  /// Collective.
+  double water_drained_from_pores() const;
+
   /// Seconds for one product of the system matrix with a vector, averaged over
   /// `repeats` products (for benchmarks; the matrix must be assembled). Collective.
   double time_matrix_vector_product(unsigned int repeats) const;
