@@ -1,6 +1,7 @@
 #include "settlewell/commands/check.h"
 
 #include "settlewell/core/errors.h"
+#include "settlewell/core/number_text.h"
 #include "settlewell/core/units.h"
 #include "settlewell/mesh/gmsh_mesh.h"
 #include "settlewell/model/initial_state.h"
@@ -71,6 +72,22 @@ std::string storage_text(const scenario::Material& m, double gamma_w) {
   return os.str();
 }
 
+/// How a soil with a retention curve drains above the water table.
+std::string retention_text(const RetentionCurve& c) {
+  std::ostringstream os;
+  const bool gardner = c.model == RetentionCurve::Model::gardner;
+  os << "drains along "
+     << (gardner ? "Gardner's (1958) exponential curve"
+                 : "van Genuchten's (1980) curve with Mualem's conductivity")
+     << ", a " << c.alpha << " 1/m";
+  if (!gardner)
+    os << ", n " << c.n;
+  os << ", theta_s " << c.saturated_content << ", theta_r " << c.residual_content
+     << "; at 1 m of suction S_r " << significant(c.at(-1.0).saturation) << ", k_r "
+     << significant(c.at(-1.0).conductivity);
+  return os.str();
+}
+
 /// What a cam_clay material's skeleton uses, converted from the user's terms.
 std::string clay_text(const scenario::Material::CamClay& c) {
   std::ostringstream os;
@@ -112,6 +129,8 @@ void describe_scenario(const scenario::Scenario& s,
         << "    storage: " << storage_text(m, s.gamma_w) << '\n';
     if (m.cam_clay)
       out << "    skeleton: " << clay_text(*m.cam_clay) << '\n';
+    if (m.retention)
+      out << "    above the water table: " << retention_text(*m.retention) << '\n';
   }
   out << "Boundaries:\n";
   for (const auto& [name, role] : model::boundary_roles(s, mesh)) {

@@ -151,7 +151,8 @@ double InitialState::deficit_between(const RetentionCurve& curve,
   return gamma_w_ * sum * h / 3.0;
 }
 
-double InitialState::moisture_deficit(const Point<2>& x, types::material_id region) const {
+double InitialState::moisture_deficit(const Point<2>& x,
+                                      types::material_id region) const {
   if (weight_knots_.empty()) { // a user's mesh: the local soil over the full depth
     const auto& curve = region_retention_.at(region);
     return curve ? deficit_between(*curve, x, x[1], top_) : 0.0;

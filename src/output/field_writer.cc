@@ -241,8 +241,8 @@ std::string FieldWriter::write(const BiotProblem& problem) {
   const bool one_vector = &moved == &problem.solution();
   const bool clays = problem.has_clays();
   const bool unsaturated = !problem.setup().unsaturated.empty();
-  const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement,
-                               clays, unsaturated),
+  const DerivedFields movement(derivation, one_vector ? Part::all : Part::movement, clays,
+                               unsaturated),
       state(derivation, Part::state, clays, unsaturated);
   data_out.add_data_vector(moved, movement);
   if (!one_vector)

@@ -45,7 +45,8 @@ double BiotProblem::water_drained_from_pores() const {
   if (m.setup.unsaturated.empty())
     return 0.0;
   CellKernel kernel(m.layout, m.setup.analysis, m.mapping);
-  FEValues<2> values(m.mapping, m.layout.fe, QGauss<2>(FieldLayout::displacement_degree + 1),
+  FEValues<2> values(m.mapping, m.layout.fe,
+                     QGauss<2>(FieldLayout::displacement_degree + 1),
                      update_values | update_quadrature_points | update_JxW_values);
   std::vector<double> p(values.n_quadrature_points);
   const double gw = m.setup.gamma_w;

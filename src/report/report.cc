@@ -77,8 +77,14 @@ void cautions(Document& d) {
       .list({"Small strains, a linear-elastic isotropic soil skeleton (or Modified Cam "
              "Clay, Roscoe & Burland 1968, for materials with model = \"cam_clay\": "
              "yield from the preconsolidation, hardening on the e-log lines, solved by "
-             "Newton's method), Darcy flow with constant conductivity, full saturation "
-             "(capillary saturation retained above the water table).",
+             "Newton's method), Darcy flow. Soil without a retention curve stays "
+             "saturated at any suction (capillary saturation retained above the water "
+             "table, its conductivity constant); soil with one (materials.<name>."
+             "retention) drains above the water table along it (van Genuchten 1980 "
+             "with Mualem's conductivity, or Gardner 1958), its conductivity falling "
+             "with its saturation, and carries Bishop's effective stress with chi = "
+             "S_r at its moist weight: the air stays at atmospheric pressure, the curve "
+             "has no hysteresis, and such steps use implicit Euler.",
              "The pit is dug as the stages say (stages[].dig_level): the soil above "
              "each dig level leaves the model at the stage's start and the forces it "
              "carried are released over the ramp; the dug surface drains to the pit's "
@@ -279,6 +285,11 @@ void budget_table(Section& s, const toml::table& r, const std::string& unit) {
                       {percent(get(src["share_of_final_discharge"]))}});
   }
   s.table(t);
+  if (const auto drained = r["water_budget"]["drained_from_pores_m3"].value<double>())
+    s.paragraph("Of the storage's share, " + significant(*drained) + " m³ " + unit +
+                " drained from the pores of the soils with a retention curve, above "
+                "the phreatic line (the dashed line p = 0 of the section views): the "
+                "integral of the fall of their water content since the start.");
   if (const auto warning = r["water_budget"]["warning"].value<std::string>())
     s.note("Attention: " + *warning + ".");
 }
@@ -761,8 +772,9 @@ std::string start_text(const toml::table& r) {
             "geostatic stress from a drained gravity-loading solve with the saturated "
             "unit weights (its movement is not reported)."
           : "Initial heads hydrostatic below the water table or as given per layer; "
-            "geostatic stress from the saturated unit weights and K0, taken as in "
-            "equilibrium.";
+            "geostatic stress from the saturated unit weights and K0 (above the water "
+            "table, the moist weight and Bishop's stress of a soil with a retention "
+            "curve), taken as in equilibrium.";
   if (const auto stage = start["displacements_from_stage"].value<std::string>())
     line += " Displacements, settlements and strains are reported from the start of "
             "stage '" +

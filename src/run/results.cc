@@ -147,6 +147,7 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       summary.water_sources.emplace_back(src["name"].value_or(std::string()),
                                          src["share_of_pumped_volume"].value_or(0.0));
     }
+  summary.drained_from_pores = r["water_budget"]["drained_from_pores_m3"].value<double>();
   summary.mass_balance = r["water_balance"]["largest_relative_error"].value_or(0.0);
   summary.mass_balance_tolerance = r["water_balance"]["tolerance"].value_or(0.0);
   summary.mass_balance_steps_off =
@@ -213,6 +214,9 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     for (std::size_t i = 0; i < r.water_sources.size(); ++i)
       out << (i == 0 ? " " : ", ") << r.water_sources[i].first << " "
           << significant(100 * r.water_sources[i].second, 2) << " %";
+    if (r.drained_from_pores)
+      out << " (" << significant(*r.drained_from_pores)
+          << " m3 of it drained from the pores above the phreatic line)";
     out << "\n";
   }
   if (r.one_way_unsettled_steps > 0)
@@ -254,7 +258,8 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
       << " (fields/fields.pvd, points.csv, profiles/, "
       << "steps.csv, manifest.json)\n";
   out << "These results come from a poroelastic model (linear-elastic skeletons; "
-         "Modified Cam Clay for materials with model = \"cam_clay\"); they must be "
+         "Modified Cam Clay for materials with model = \"cam_clay\"; unsaturated flow "
+         "with Bishop's stress for materials with a retention curve); they must be "
          "reviewed by a qualified geotechnical engineer, and local codes and licensed "
          "practice govern.\n";
 }

@@ -420,10 +420,10 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   StepReport report; // t = 0: no step yet
   monitors::RunView view{*context, options.run_directory, report, 0};
   start(view);
-  CsvFile steps(
-      options.run_directory + "/steps.csv",
-      step_header(monitors, has_one_way_lines(model.setup), solved_by_newton(model.setup)),
-      comm);
+  CsvFile steps(options.run_directory + "/steps.csv",
+                step_header(monitors, has_one_way_lines(model.setup),
+                            solved_by_newton(model.setup)),
+                comm);
   CheckpointHeader header = new_header();
   return run_steps(options, view, report, steps, header);
 }

@@ -51,7 +51,8 @@ CellCoefficients coefficients() {
 dealii::Vector<double> state(const OneCell& cell, double scale, double shift) {
   dealii::Vector<double> v(cell.layout.fe.n_dofs_per_cell());
   for (unsigned int i = 0; i < v.size(); ++i) {
-    const bool u = cell.layout.is_displacement(cell.layout.fe.system_to_component_index(i).first);
+    const bool u =
+        cell.layout.is_displacement(cell.layout.fe.system_to_component_index(i).first);
     v(i) = (u ? 1e-3 : scale) * std::sin(1.7 * i + shift);
   }
   return v;

@@ -51,7 +51,8 @@ private:
   std::vector<std::optional<RetentionCurve>> layer_retention_, region_retention_;
   /// The weight the soil with a retention curve lacks above x for the water it
   /// does not hold, integral of gamma_w (theta_s - theta(p0)) dy, kPa.
-  double moisture_deficit(const dealii::Point<2>& x, dealii::types::material_id region) const;
+  double moisture_deficit(const dealii::Point<2>& x,
+                          dealii::types::material_id region) const;
   double saturated_vertical_stress(const dealii::Point<2>& x,
                                    dealii::types::material_id region) const;
   /// Of a curve from y_low to y_high (m) at x's abscissa.

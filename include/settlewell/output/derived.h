@@ -72,7 +72,7 @@ private:
   InitialFields initial_;
   double gamma_w_;
   bool axisymmetric_;
-  std::vector<PoroelasticMaterial> materials_; ///< by material id
+  std::vector<PoroelasticMaterial> materials_;   ///< by material id
   std::vector<const RetentionCurve*> retention_; ///< by material id; null: none
 };
 

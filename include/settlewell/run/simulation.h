@@ -61,6 +61,9 @@ struct RunSummary {
   std::vector<WellLevel> well_levels;
   /// Where the pumped water came from: each source's share of the pumped volume.
   std::vector<std::pair<std::string, double>> water_sources;
+  /// m^3 (per metre run or per well): drained from the pores of soils with a
+  /// retention curve; unset without one.
+  std::optional<double> drained_from_pores;
   /// Largest relative water-balance error of a step, and its tolerance.
   double mass_balance = 0.0, mass_balance_tolerance = 0.0;
   std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
