@@ -136,9 +136,21 @@ double InitialState::deficit_between(const RetentionCurve& curve,
                                      const Point<2>& x,
                                      double y_low,
                                      double y_high) const {
-  // Simpson's rule on 64 slices: the water content is smooth in y within a layer.
-  if (!(y_high > y_low))
+  // Only above the water table (p0 < 0) does the soil lack water; its edge is a
+  // kink of the integrand, found by bisection (p0 falls upward within a layer,
+  // where the head is linear with a slope below 1), so that Simpson's rule on 64
+  // slices sees a smooth water content.
+  const auto p0 = [&](double y) { return pore_pressure(Point<2>(x[0], y)); };
+  if (!(y_high > y_low) || !(p0(y_high) < 0.0))
     return 0.0;
+  if (p0(y_low) >= 0.0) {
+    double wet = y_low, dry = y_high;
+    for (int i = 0; i < 60; ++i) {
+      const double mid = 0.5 * (wet + dry);
+      (p0(mid) >= 0.0 ? wet : dry) = mid;
+    }
+    y_low = dry;
+  }
   constexpr int n = 64;
   const double h = (y_high - y_low) / n;
   double sum = 0.0;
@@ -151,35 +163,15 @@ double InitialState::deficit_between(const RetentionCurve& curve,
   return gamma_w_ * sum * h / 3.0;
 }
 
-double InitialState::moisture_deficit(const Point<2>& x,
-                                      types::material_id region) const {
-  if (weight_knots_.empty()) { // a user's mesh: the local soil over the full depth
-    const auto& curve = region_retention_.at(region);
-    return curve ? deficit_between(*curve, x, x[1], top_) : 0.0;
-  }
-  double deficit = 0.0;
-  for (std::size_t k = 0; k < weight_knots_.size(); ++k) {
-    const double layer_top = weight_knots_[k].first;
-    const double layer_bottom =
-        k + 1 < weight_knots_.size() ? weight_knots_[k + 1].first : -1e300;
-    if (x[1] >= layer_top)
-      break;
-    if (layer_retention_[k])
-      deficit += deficit_between(*layer_retention_[k], x, std::max(x[1], layer_bottom),
-                                 layer_top);
-  }
-  return deficit;
-}
-
 double InitialState::vertical_total_stress(const Point<2>& x,
                                            types::material_id region) const {
-  return saturated_vertical_stress(x, region) - moisture_deficit(x, region);
-}
-
-double InitialState::saturated_vertical_stress(const Point<2>& x,
-                                               types::material_id region) const {
-  if (weight_knots_.empty()) // a user's mesh: the local unit weight over the full depth
-    return region_unit_weight_.at(region) * std::max(0.0, top_ - x[1]);
+  // The saturated unit weights, less the water a soil with a retention curve does
+  // not hold above its water table.
+  if (weight_knots_.empty()) { // a user's mesh: the local soil over the full depth
+    const auto& curve = region_retention_.at(region);
+    return region_unit_weight_.at(region) * std::max(0.0, top_ - x[1]) -
+           (curve ? deficit_between(*curve, x, x[1], top_) : 0.0);
+  }
   double stress = 0.0;
   for (std::size_t k = 0; k < weight_knots_.size(); ++k) {
     const double layer_top = weight_knots_[k].first;
@@ -187,7 +179,10 @@ double InitialState::saturated_vertical_stress(const Point<2>& x,
         k + 1 < weight_knots_.size() ? weight_knots_[k + 1].first : -1e300;
     if (x[1] >= layer_top)
       break;
-    stress += weight_knots_[k].second * (layer_top - std::max(x[1], layer_bottom));
+    const double from = std::max(x[1], layer_bottom);
+    stress += weight_knots_[k].second * (layer_top - from);
+    if (layer_retention_[k])
+      stress -= deficit_between(*layer_retention_[k], x, from, layer_top);
   }
   return stress;
 }

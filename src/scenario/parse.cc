@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <fstream>
+#include <functional>
 #include <sstream>
 
 namespace settlewell::scenario {
@@ -481,50 +482,42 @@ void parse_boundaries(const TableReader& top, Scenario& s) {
 }
 
 namespace {
-/// What a cam_clay material cannot yet be combined with, refused at the material.
-void check_clay_support(const Scenario& s) {
-  for (const auto& [name, m] : s.materials) {
-    if (!m.cam_clay)
-      continue;
-    const std::string where = s.location_of("materials." + name) + ": materials." + name;
-    const auto refuse = [&](const std::string& what) {
-      throw InputError(where + ": a cam_clay material cannot yet be used " + what);
-    };
-    if (s.coupling == Coupling::flow_only)
-      refuse("with coupling = \"flow_only\" (it has no skeleton to compute)");
-    if (s.gravity_loading)
-      refuse("with initial_state.method = \"gravity\"; use \"k0\"");
-    if (s.numerics.solver == SolverChoice::iterative)
-      refuse("with numerics.solver = \"iterative\" (its tangent is not symmetric); "
-             "use \"direct\" or \"auto\"");
-    for (const auto& stage : s.stages)
-      if (stage.dig_level)
-        refuse("in a model that is dug (stage '" + stage.name + "' has a dig_level)");
-  }
+/// What a material solved by Newton's method cannot yet be combined with, each
+/// refused through `refuse`.
+void refuse_newton_limits(const Scenario& s,
+                          const std::function<void(const std::string&)>& refuse) {
+  if (s.gravity_loading)
+    refuse("with initial_state.method = \"gravity\"; use \"k0\"");
+  if (s.numerics.solver == SolverChoice::iterative)
+    refuse("with numerics.solver = \"iterative\" (its tangent is not symmetric); "
+           "use \"direct\" or \"auto\"");
+  for (const auto& stage : s.stages)
+    if (stage.dig_level)
+      refuse("in a model that is dug (stage '" + stage.name + "' has a dig_level)");
 }
-} // namespace
 
-namespace {
-/// What a material with a retention curve cannot yet be combined with.
-void check_retention_support(const Scenario& s) {
+/// What a cam_clay material or a retention curve cannot yet be combined with,
+/// refused at the material.
+void check_newton_support(const Scenario& s) {
   for (const auto& [name, m] : s.materials) {
-    if (!m.retention)
-      continue;
-    const std::string where =
-        s.location_of("materials." + name) + ": materials." + name + ".retention";
-    const auto refuse = [&](const std::string& what) {
-      throw InputError(where + ": a retention curve cannot yet be used " + what);
-    };
-    if (m.cam_clay)
-      refuse("with model = \"cam_clay\"");
-    if (s.gravity_loading)
-      refuse("with initial_state.method = \"gravity\"; use \"k0\"");
-    if (s.numerics.solver == SolverChoice::iterative)
-      refuse("with numerics.solver = \"iterative\" (its tangent is not symmetric); "
-             "use \"direct\" or \"auto\"");
-    for (const auto& stage : s.stages)
-      if (stage.dig_level)
-        refuse("in a model that is dug (stage '" + stage.name + "' has a dig_level)");
+    const std::string where = s.location_of("materials." + name) + ": materials." + name;
+    if (m.cam_clay) {
+      const auto refuse = [&](const std::string& what) {
+        throw InputError(where + ": a cam_clay material cannot yet be used " + what);
+      };
+      if (s.coupling == Coupling::flow_only)
+        refuse("with coupling = \"flow_only\" (it has no skeleton to compute)");
+      refuse_newton_limits(s, refuse);
+    }
+    if (m.retention) {
+      const auto refuse = [&](const std::string& what) {
+        throw InputError(where + ".retention: a retention curve cannot yet be used " +
+                         what);
+      };
+      if (m.cam_clay)
+        refuse("with model = \"cam_clay\"");
+      refuse_newton_limits(s, refuse);
+    }
   }
 }
 } // namespace
@@ -556,8 +549,7 @@ Scenario parse_scenario(const std::string& text, const std::string& name) {
   parse_stages(top, s);
   parse_output(top, s);
   parse_checks(top, s);
-  check_clay_support(s);
-  check_retention_support(s);
+  check_newton_support(s);
   if (s.coupling == Coupling::flow_only &&
       (!s.neighbours.empty() || !s.output.columns.empty()))
     top.fail("coupling", "flow_only computes no movement, so it has no settlement for "

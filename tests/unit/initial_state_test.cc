@@ -8,6 +8,8 @@
 
 #include <gtest/gtest.h>
 
+#include <cmath>
+
 namespace sc = settlewell::scenario;
 using dealii::Point;
 
@@ -98,4 +100,56 @@ TEST(InitialState, VerticalEffectiveStressFromTheUnitWeightsAndHorizontalFromK0)
   const auto silt = f.state.effective_stress(Point<2>(0.5, -12.0), f.region("silt"));
   EXPECT_NEAR(silt[1][1], -(218.0 - 72.594), 1e-9);
   EXPECT_NEAR(silt[0][0], -0.5 * (218.0 - 72.594), 1e-9);
+}
+
+TEST(InitialState, MoistWeightAndBishopsStressAboveTheWaterTable) {
+  // A Gardner sand (a 2/m, theta 0.30/0.05) with its water table at -2 m. Above
+  // it the start is hydrostatic, psi = -(y + 2), and the sand lacks gamma_w
+  // (theta_s - theta) = 9.81 * 0.25 (1 - e^(a psi)) of its saturated weight; over
+  // the 2 m above the water table, integral of (1 - e^(-2 s)) ds from 0 to 2 =
+  // 2 - (1 - e^-4)/2 = 1.5091578 m, a hand calculation.
+  const char* sand = R"(
+[materials.sand]
+unit_weight = 19.0
+youngs_modulus = 30000
+poisson_ratio = 0.3
+conductivity = 1e-4
+saturated_water_content = 0.30
+residual_water_content = 0.05
+retention = "gardner"
+retention_alpha = 2.0
+[box]
+bottom = -10.0
+layers = [ { top = 0.0, material = "sand" } ]
+[groundwater]
+water_table = -2.0
+[[stages]]
+name = "hold"
+duration = 1.0
+)";
+  const auto scenario = sc::parse_scenario(sand, "sand.toml");
+  const auto mesh = settlewell::make_scenario_mesh(scenario, MPI_COMM_WORLD);
+  const settlewell::model::InitialState state{scenario, mesh};
+  const auto id = mesh.names.region_id("sand");
+  const double gw = scenario.gamma_w, lacking = 2.0 - (1.0 - std::exp(-4.0)) / 2.0;
+  // The state integrates the deficit by Simpson's rule on 64 slices: its error
+  // bound, (2/180) h^4 max|f| with h = 1/32 m and f = 16 e^(2 psi), times
+  // 9.81 * 0.25, is 4e-7 kPa.
+  const double tolerance = 1e-6; // kPa
+  // Below the water table, at -5 m: the saturated weight less that deficit, and
+  // Terzaghi's stress.
+  const Point<2> below(0.5, -5.0);
+  const double total = 19.0 * 5.0 - gw * 0.25 * lacking;
+  EXPECT_NEAR(state.vertical_total_stress(below, id), total, tolerance);
+  EXPECT_NEAR(state.effective_stress(below, id)[1][1], -(total - gw * 3.0), tolerance);
+  // At -1 m, 1 m of suction: the top metre, psi from -1 to -2 m, lacks the
+  // integral of (1 - e^(-2 s)) ds from 1 to 2 = 1 - (e^-2 - e^-4)/2; Bishop's
+  // stress adds S_r times the suction, S_r = (0.05 + 0.25 e^-2) / 0.30.
+  const Point<2> above(0.5, -1.0);
+  const double top_metre =
+      19.0 - gw * 0.25 * (1.0 - (std::exp(-2.0) - std::exp(-4.0)) / 2.0);
+  const double saturation = (0.05 + 0.25 * std::exp(-2.0)) / 0.30;
+  EXPECT_NEAR(state.vertical_total_stress(above, id), top_metre, tolerance);
+  EXPECT_NEAR(state.effective_stress(above, id)[1][1], -(top_metre + saturation * gw),
+              tolerance);
 }

@@ -16,13 +16,20 @@ using namespace settlewell;
 
 namespace {
 
+Mesh one_cell_mesh() {
+  BoxSpec box;
+  box.x_edges = {0.0, 0.8};
+  box.y_edges = {-0.5, 0.4};
+  return make_box_mesh(box, MPI_COMM_WORLD);
+}
+
 struct OneCell {
   Mesh mesh;
   FieldLayout layout;
   dealii::DoFHandler<2> dofs;
   dealii::MappingQ1<2> mapping;
   OneCell()
-      : mesh(make_box_mesh({{0.0, 0.8}, {-0.5, 0.4}}, MPI_COMM_WORLD)) {
+      : mesh(one_cell_mesh()) {
     dofs.reinit(*mesh.triangulation);
     dofs.distribute_dofs(layout.fe);
   }

@@ -49,13 +49,9 @@ private:
   std::vector<double> region_unit_weight_, region_k0_; ///< by material id
   /// The retention curve of each layer (weight_knots_'s order) and region, if any.
   std::vector<std::optional<RetentionCurve>> layer_retention_, region_retention_;
-  /// The weight the soil with a retention curve lacks above x for the water it
-  /// does not hold, integral of gamma_w (theta_s - theta(p0)) dy, kPa.
-  double moisture_deficit(const dealii::Point<2>& x,
-                          dealii::types::material_id region) const;
-  double saturated_vertical_stress(const dealii::Point<2>& x,
-                                   dealii::types::material_id region) const;
-  /// Of a curve from y_low to y_high (m) at x's abscissa.
+  /// The weight a soil with a retention curve lacks for the water it does not
+  /// hold at the start, the integral of gamma_w (theta_s - theta(p0)) dy of a curve
+  /// from y_low to y_high (m) at x's abscissa, kPa.
   double deficit_between(const RetentionCurve& curve,
                          const dealii::Point<2>& x,
                          double y_low,
