@@ -54,12 +54,6 @@ void Extremes::Sites::add(types::global_dof_index dof,
   regions.push_back(region);
 }
 
-namespace {
-
-/// The largest value over every process, and its place when it is clearly larger
-/// than `kept` (the maximum so far, the same on every process): only a new maximum
-/// is gathered. Of the places whose value is the same maximum (within same_value),
-/// the one with the least x, then y: the same place for any partition of the mesh.
 Located
 share_largest(const std::vector<Located>& candidates, MPI_Comm comm, double kept) {
   double local = 0.0;
@@ -93,6 +87,8 @@ share_largest(const std::vector<Located>& candidates, MPI_Comm comm, double kept
   out.value = largest;
   return out;
 }
+
+namespace {
 
 /// Where each dof of this process's cells lies, and the regions of the cells that
 /// hold it (two or more on a boundary between regions). The ghost cells count too:

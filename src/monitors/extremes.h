@@ -29,6 +29,12 @@ struct Located {
 };
 void visit(StateArchive& a, Located& l);
 
+/// The largest of the candidates over every process, and its place when it is
+/// clearly larger than `kept` (the maximum so far, the same on every process): only
+/// a new maximum is gathered. Of the places whose value is the same maximum, the
+/// one with the least x, then y: the same place for any partition. Collective.
+Located share_largest(const std::vector<Located>& candidates, MPI_Comm comm, double kept);
+
 class Extremes : public Monitor {
 public:
   explicit Extremes(const RunContext& run);

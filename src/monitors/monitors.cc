@@ -3,6 +3,7 @@
 #include "columns.h"
 #include "extremes.h"
 #include "field_series.h"
+#include "head_rise.h"
 #include "neighbours.h"
 #include "plausibility.h"
 #include "prop_forces.h"
@@ -39,6 +40,7 @@ std::vector<std::unique_ptr<Monitor>> make_monitors(const RunContext& run) {
   if (WellLevels::wanted(run.scenario))
     list.push_back(std::make_unique<WellLevels>(run));
   list.push_back(std::make_unique<Extremes>(run));
+  list.push_back(std::make_unique<HeadRise>(run));
   if (run.problem.has_clays())
     list.push_back(std::make_unique<ClayYield>());
   list.push_back(std::make_unique<Plausibility>(run));

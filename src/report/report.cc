@@ -103,6 +103,12 @@ void run_section(Document& d, const toml::table& r) {
   const double unsettled = get(r["water_balance"]["steps_one_way_unsettled"]);
   const auto& summary = r["summary"];
   const double suction_steps = get(summary["steps_over_suction_limit"]);
+  double rise = 0.0, rise_steps = 0.0;
+  if (const auto* stages = r["head_rise"]["stages"].as_array())
+    for (const auto& stage : *stages) {
+      rise = std::max(rise, get(stage.as_table()->at_path("largest_rise_m")));
+      rise_steps += get(stage.as_table()->at_path("steps_over_limit"));
+    }
   Section& run = d.add("Run");
   if (unsettled > 0.0)
     run.note("Attention: in " + num(unsettled, 8) +
@@ -138,7 +144,22 @@ void run_section(Document& d, const toml::table& r) {
               significant(get(summary["suction_limit_kPa"])) +
               " unless a material gives its own; " + num(suction_steps, 8) +
               " steps over a limit)",
-          suction_steps > 0 ? Flag::attention : Flag::ok}}}});
+          suction_steps > 0 ? Flag::attention : Flag::ok}},
+        {{"largest rise of a head in permeable soil in a stage that only lowers heads "
+          "(m)"},
+         {significant(rise) + " (limit " + significant(get(r["head_rise"]["limit_m"])) +
+              "; " + num(rise_steps, 8) + " steps over it)",
+          rise_steps > 0 ? Flag::attention : Flag::ok}}}});
+  if (rise_steps > 0)
+    run.paragraph(
+        "In a stage that only lowers heads (it lowers held heads or pumps more, and "
+        "raises none, digs nothing and changes no load), a head in permeable soil "
+        "rose by more than the limit: water reaches the ground from somewhere the "
+        "stage does not mean it to, most often a boundary held at a head above the "
+        "start's water table, or a recharge. Check the boundaries' heads before "
+        "using the discharge and the drawdown. (Low-permeability layers are not "
+        "watched: their heads rise undrained where the ground beside them "
+        "compresses.)");
   if (suction_steps > 0)
     run.paragraph(
         "Above the water table the model keeps the soil saturated, so a lowered "

@@ -116,6 +116,23 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       summary.where[key] = place_text(
           (*at)["x_m"].value_or(0.0), (*at)["y_m"].value_or(0.0),
           (*at)["region"].value_or(std::string()), (*at)["time_days"].value_or(0.0));
+  summary.head_rise_limit = r["head_rise"]["limit_m"].value_or(0.0);
+  if (const auto* stages = r["head_rise"]["stages"].as_array())
+    for (const auto& node : *stages) {
+      const auto& stage = *node.as_table();
+      summary.head_rise_steps_over +=
+          std::size_t(stage["steps_over_limit"].value_or(int64_t(0)));
+      const double rise = stage["largest_rise_m"].value_or(0.0);
+      const auto* at = stage["largest_rise_at"].as_table();
+      if (rise <= summary.head_rise_largest || at == nullptr)
+        continue;
+      summary.head_rise_largest = rise;
+      summary.where["head_rise"] =
+          place_text((*at)["x_m"].value_or(0.0), (*at)["y_m"].value_or(0.0),
+                     (*at)["region"].value_or(std::string()),
+                     (*at)["time_days"].value_or(0.0)) +
+          " in stage '" + stage["stage"].value_or(std::string()) + "'";
+    }
   if (const auto* lines = r["discharge"].as_array())
     for (const auto& node : *lines) {
       const auto& line = *node.as_table();
@@ -247,6 +264,16 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
         << " steps hold soil saturated beyond its air-entry suction (largest suction "
         << significant(r.suction_largest) << " kPa"
         << (at != r.where.end() ? " " + at->second : std::string()) << ")\n";
+  }
+  if (r.head_rise_steps_over > 0) {
+    const auto at = r.where.find("head_rise");
+    out << "  heads: " << r.head_rise_steps_over << " of " << r.steps
+        << " steps raise a head in permeable soil more than "
+        << significant(r.head_rise_limit)
+        << " m in a stage that only lowers heads (largest "
+        << significant(r.head_rise_largest) << " m"
+        << (at != r.where.end() ? " " + at->second : std::string())
+        << "): check what feeds it (a boundary's head, a recharge)\n";
   }
   if (r.movement_steps_over > 0)
     out << "  movement: " << r.movement_steps_over << " of " << r.steps

@@ -171,6 +171,7 @@ const std::vector<KeySpec>& all_keys() {
     {"checks.angular_distortion_limit", "number", "", "0.002", "Angular distortion of a neighbour above which it is flagged (1/500)"},
     {"checks.mass_balance_tolerance", "number", "", "1e-6", "Relative water-balance error of a step above which a warning is given"},
     {"checks.suction_limit", "number", "kPa", "10", "Suction (negative pore pressure) in soil still in the model above which a warning is given, for materials without air_entry_suction: the model keeps soil saturated at any suction, where real soil drains beyond its air-entry value (a few kPa in sands; common practice)"},
+    {"checks.head_rise_limit", "number", "m", "0.1", "Rise of the head since its stage began, in soil more permeable than checks.low_permeability, in a stage that only lowers heads (it lowers a held head or pumps more, and raises none, digs nothing and changes no load), above which a warning is given: water comes from where the stage does not mean it to (common practice, no single source)"},
   };
   return keys;
 }

@@ -351,6 +351,7 @@ void parse_checks(const TableReader& top, Scenario& s) {
   l.angular_distortion = r.positive("angular_distortion_limit");
   l.mass_balance = r.positive("mass_balance_tolerance");
   l.suction = r.positive("suction_limit");
+  l.head_rise = r.positive("head_rise_limit");
 }
 
 } // namespace settlewell::scenario

@@ -77,6 +77,11 @@ struct RunSummary {
   /// soil beyond its air-entry suction (where: RunSummary::where["suction_largest"]).
   double suction_largest = 0.0;
   std::size_t suction_steps_over = 0;
+  /// The largest rise of a head in permeable soil in a stage that only lowers
+  /// heads, m, and the steps in which it was over checks.head_rise_limit (where:
+  /// RunSummary::where["head_rise"]).
+  double head_rise_largest = 0.0, head_rise_limit = 0.0;
+  std::size_t head_rise_steps_over = 0;
   /// Pumped lines that put water into the ground, stood stopped because they
   /// would have, or ran dry, and in how many steps; recharge wells are marked.
   struct LineNotes {
