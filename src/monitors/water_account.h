@@ -37,6 +37,10 @@ private:
   std::size_t steps_off_ = 0;  ///< steps whose balance error exceeds the tolerance
   /// Steps whose one-way lines' active set had not settled at the round limit.
   std::uint64_t unsettled_steps_ = 0;
+  /// Steps whose one-way points kept held to the step's end took in more than
+  /// held_inflow_limit of the water the lines let out, and the largest share.
+  std::uint64_t held_inflow_steps_ = 0;
+  double largest_held_inflow_ = 0.0;
   /// Steps in which a pumped line put water into the ground, stood stopped (it
   /// would have put water in), or ran dry (its target below it), by label.
   struct LineSteps {

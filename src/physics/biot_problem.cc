@@ -376,6 +376,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   if (new_geometry)
     m.find_exposed();
   m.gather_one_way(t_new);
+  m.held_inflow_share = 0.0;
   // Cells taken out or props fitted change what the old states mean: start again
   // with implicit Euler.
   // Partly saturated soil: implicit Euler throughout (the mixed form's water
@@ -418,6 +419,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
     }
     break;
   }
+  report.held_inflow_share = m.held_inflow_share;
   if (newton) {
     m.commit_clay_points();
     m.newton_previous = m.step_start;

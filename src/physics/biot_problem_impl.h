@@ -390,6 +390,10 @@ struct BiotProblem::Impl {
   /// One-way points that left the draining set in this step, and those that came
   /// back after leaving and stay held to the step's end (point_drains).
   std::set<types::global_dof_index> left_in_step, held_in_step;
+  /// StepReport::held_inflow_share of the last solve (measure_held_inflow).
+  double held_inflow_share = 0.0;
+  /// Sets held_inflow_share from the storage residual of a solve. Collective.
+  void measure_held_inflow(const LA::MPI::Vector& residual);
   /// Whether an owned one-way point that no pump rule decides drains after the
   /// last solve: a held point while water leaves it, a sealed one where the soil's
   /// pressure exceeds its limit; one that left and would come back stays held.

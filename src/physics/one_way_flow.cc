@@ -176,6 +176,21 @@ bool BiotProblem::Impl::point_drains(types::global_dof_index d,
   return drains;
 }
 
+void BiotProblem::Impl::measure_held_inflow(const LA::MPI::Vector& residual) {
+  double entering = 0.0, leaving = 0.0;
+  for (const auto d : draining)
+    if (owned.is_element(d)) {
+      const double out = -residual(d);
+      if (out > 0.0)
+        leaving += out;
+      else if (held_in_step.count(d))
+        entering -= out;
+    }
+  entering = Utilities::MPI::sum(entering, comm);
+  leaving = Utilities::MPI::sum(leaving, comm);
+  held_inflow_share = entering > 0.0 ? entering / std::max(leaving, 1e-300) : 0.0;
+}
+
 bool BiotProblem::Impl::update_draining(double t, double dt) {
   if (Utilities::MPI::sum(one_way.size(), comm) == 0)
     return false;
@@ -188,6 +203,7 @@ bool BiotProblem::Impl::update_draining(double t, double dt) {
     if (owned.is_element(d))
       largest = std::max(largest, std::abs(residual(d)));
   const double inflow_tolerance = 1e-9 * Utilities::MPI::max(largest, comm);
+  measure_held_inflow(residual);
   const std::vector<bool> stopped_before = pumped_stopped;
   switch_pumped_lines(t, residual, inflow_tolerance);
   LA::MPI::Vector decision(owned, comm);

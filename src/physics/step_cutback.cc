@@ -20,6 +20,7 @@ StepReport joined(const StepReport& first, const StepReport& second) {
   r.iterations += first.iterations;
   r.drain_rounds += first.drain_rounds;
   r.drains_settled = first.drains_settled && second.drains_settled;
+  r.held_inflow_share = std::max(first.held_inflow_share, second.held_inflow_share);
   r.assembly_seconds += first.assembly_seconds;
   r.factorisation_seconds += first.factorisation_seconds;
   r.solve_seconds += first.solve_seconds;

@@ -171,6 +171,10 @@ void read_summary(const toml::table& r, RunSummary& summary) {
       std::size_t(r["water_balance"]["steps_over_tolerance"].value_or(int64_t(0)));
   summary.one_way_unsettled_steps =
       std::size_t(r["water_balance"]["steps_one_way_unsettled"].value_or(int64_t(0)));
+  summary.held_feeding_steps =
+      std::size_t(r["water_balance"]["steps_held_points_feeding"].value_or(int64_t(0)));
+  summary.held_inflow_share =
+      r["water_balance"]["largest_held_inflow_share"].value_or(0.0);
   summary.largest_movement = r["plausibility"]["largest_movement_m"].value_or(0.0);
   summary.movement_limit = r["plausibility"]["movement_limit_m"].value_or(0.0);
   summary.movement_steps_over =
@@ -240,6 +244,11 @@ void print_summary(std::ostream& out, const RunSummary& r, const scenario::Scena
     out << "  lines that take water only: " << r.one_way_unsettled_steps << " of "
         << r.steps << " steps kept their last solve before it settled which points "
         << "drain; see steps.csv drain_rounds\n";
+  if (r.held_feeding_steps > 0)
+    out << "  lines that take water only: in " << r.held_feeding_steps << " of "
+        << r.steps << " steps points kept held took in more than 1 % of what the "
+        << "lines let out (largest " << significant(100 * r.held_inflow_share)
+        << " %): a seepage face's exit point unresolved; the discharge is too low\n";
   if (r.mass_balance_steps_off > 0)
     out << "  water balance: " << r.mass_balance_steps_off << " of " << r.steps
         << " steps off by more than " << std::defaultfloat << r.mass_balance_tolerance

@@ -23,6 +23,10 @@ struct StepReport {
   unsigned int drain_rounds =
       1;                      ///< solves until the drained surface's active set settled
   bool drains_settled = true; ///< false: the round limit was reached
+  /// The water entering the one-way points kept held to the step's end (points
+  /// that left the draining set and would have come back) over the water leaving
+  /// the draining points, at the step's last solve: what those points feed in.
+  double held_inflow_share = 0.0;
   double assembly_seconds = 0.0;      ///< matrix (if new) and right-hand side
   double factorisation_seconds = 0.0; ///< solver set-up for a new matrix
   double solve_seconds = 0.0;

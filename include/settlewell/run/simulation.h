@@ -69,6 +69,10 @@ struct RunSummary {
   std::size_t mass_balance_steps_off = 0; ///< steps over the tolerance
   /// Steps whose one-way lines had not settled which points drain.
   std::size_t one_way_unsettled_steps = 0;
+  /// Steps in which one-way points kept held took in more than a hundredth of what
+  /// the lines let out, and the largest share.
+  std::size_t held_feeding_steps = 0;
+  double held_inflow_share = 0.0;
   /// Largest displacement of any step and its plausible limit (m), and the steps
   /// beyond it.
   double largest_movement = 0.0, movement_limit = 0.0;
