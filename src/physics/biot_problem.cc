@@ -101,13 +101,13 @@ void BiotProblem::Impl::choose_solver() {
   const bool iterative = setup.solver == SolverChoice::iterative ||
                          (setup.solver == SolverChoice::automatic &&
                           dof_handler.n_dofs() > setup.direct_limit);
-  if (iterative && newton_steps())
+  if (iterative && setup.solved_by_newton())
     throw InputError(
         std::string(setup.clays.empty() ? "a retention curve" : "a Cam Clay material") +
         " needs the direct solver (numerics.solver = \"direct\"): its "
         "tangent is not symmetric");
   if (!iterative) {
-    solver = make_direct_solver(comm, !newton_steps());
+    solver = make_direct_solver(comm, !setup.solved_by_newton());
     set_row_signs();
     return;
   }
@@ -360,7 +360,7 @@ StepReport BiotProblem::advance_to(double t_new) {
   if (!m.settled)
     throw InternalError("a gravity-loading start must be settled before the first step");
   // The same on every process.
-  return m.newton_steps() ? m.take_clay_step(t_new, 0) : m.take_step(t_new);
+  return m.setup.solved_by_newton() ? m.take_clay_step(t_new, 0) : m.take_step(t_new);
 }
 
 StepReport BiotProblem::Impl::take_step(double t_new) {
@@ -392,7 +392,7 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   // several solves until the set of draining dofs settles; without one, the loop
   // runs once.
   constexpr unsigned int max_drain_rounds = 30;
-  const bool newton = m.newton_steps(); // the same on every process
+  const bool newton = m.setup.solved_by_newton(); // the same on every process
   if (newton) {
     m.step_start = m.solution;
     if (new_geometry)

@@ -323,8 +323,6 @@ struct BiotProblem::Impl {
   FieldNorms largest_drive; ///< the largest residual at a step's start so far
 
   // Soil that drains above the water table (unsaturated_flow.cc).
-  /// Whether steps are solved by Newton's method: a clay or a retention curve.
-  bool newton_steps() const { return !setup.clays.empty() || !setup.unsaturated.empty(); }
   /// retention_by_region from setup.unsaturated (constructor).
   void prepare_unsaturated();
   std::vector<const RetentionCurve*>

@@ -55,10 +55,6 @@ bool has_one_way_lines(const BiotSetup& setup) {
 }
 
 /// Whether steps are solved by Newton's method: a clay or a retention curve.
-bool solved_by_newton(const BiotSetup& setup) {
-  return !setup.clays.empty() || !setup.unsaturated.empty();
-}
-
 std::vector<std::string>
 step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
             bool one_way,
@@ -292,7 +288,7 @@ void Simulation::Impl::step(const monitors::RunView& view, CsvFile& steps) {
       m->at_output_time(view);
   std::vector<double> row =
       step_row(view.step, view.step_number, view.stage(), has_one_way_lines(model.setup),
-               solved_by_newton(model.setup), monitors_seconds, clock.wall_time());
+               model.setup.solved_by_newton(), monitors_seconds, clock.wall_time());
   row.insert(row.end(), columns.begin(), columns.end());
   steps.row(row);
 }
@@ -422,7 +418,7 @@ RunSummary Simulation::Impl::run(const RunOptions& options) {
   start(view);
   CsvFile steps(options.run_directory + "/steps.csv",
                 step_header(monitors, has_one_way_lines(model.setup),
-                            solved_by_newton(model.setup)),
+                            model.setup.solved_by_newton()),
                 comm);
   CheckpointHeader header = new_header();
   return run_steps(options, view, report, steps, header);

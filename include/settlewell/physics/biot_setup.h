@@ -147,6 +147,9 @@ struct BiotSetup {
   /// add_unsaturated_terms). Their steps are solved by Newton's method with
   /// implicit Euler: the mixed form keeps mass only with a one-step scheme.
   std::map<std::string, RetentionCurve> unsaturated;
+  /// Whether steps are solved by Newton's method: with a clay with a stress
+  /// history or a soil with a retention curve.
+  bool solved_by_newton() const { return !clays.empty() || !unsaturated.empty(); }
   NewtonSettings newton;
   /// Props and other point supports, fitted at their `from` times.
   std::vector<PointSpring> springs;
