@@ -132,7 +132,8 @@ std::vector<CheckRow> run_unsaturated_infiltration(const CaseSettings&, MPI_Comm
   rows.push_back(relative_row(name,
                               "observed order in the step (80 to 160 per decade), water "
                               "taken in at t = 100000 s",
-                              order, 1.0, 0.25, "implicit Euler is first order (common practice)"));
+                              order, 1.0, 0.25,
+                              "implicit Euler is first order (common practice)"));
   rows.push_back(scaled_row(name, "water balance, worst step (over the most water moved)",
                             run.balance, 0.0, 1.0, 1e-6,
                             "conservation of mass (the mixed form, Celia et al. 1990)"));

@@ -262,7 +262,7 @@ struct CheckLimits {
   double angular_distortion = 0.0;
   double mass_balance = 0.0; ///< relative
   double suction = 0.0;      ///< kPa: a saturated soil's suction beyond this is flagged
-  double head_rise = 0.0;    ///< m: a head rising this much in a lowering stage is flagged
+  double head_rise = 0.0; ///< m: a head rising this much in a lowering stage is flagged
 };
 
 /// How the equations are discretised and solved.
