@@ -143,7 +143,7 @@ HeadRise::HeadRise(const RunContext& run)
     cell->get_dof_indices(cell_dofs);
     for (unsigned int i = 0; i < cell_dofs.size(); ++i)
       if (fe.system_to_component_index(i).first == FieldLayout::pressure &&
-          owned.is_element(cell_dofs[i]))
+          owned.is_element(cell_dofs[i]) && !soil.count(cell_dofs[i]))
         soil.emplace(
             cell_dofs[i],
             std::pair(problem.mapping().transform_unit_to_real_cell(cell, unit_points[i]),

@@ -177,18 +177,17 @@ bool BiotProblem::Impl::point_drains(types::global_dof_index d,
 }
 
 void BiotProblem::Impl::measure_held_inflow(const LA::MPI::Vector& residual) {
-  double entering = 0.0, leaving = 0.0;
+  std::vector<double> in_out(2, 0.0); // entering held points, leaving all
   for (const auto d : draining)
     if (owned.is_element(d)) {
       const double out = -residual(d);
       if (out > 0.0)
-        leaving += out;
+        in_out[1] += out;
       else if (held_in_step.count(d))
-        entering -= out;
+        in_out[0] -= out;
     }
-  entering = Utilities::MPI::sum(entering, comm);
-  leaving = Utilities::MPI::sum(leaving, comm);
-  held_inflow_share = entering > 0.0 ? entering / std::max(leaving, 1e-300) : 0.0;
+  Utilities::MPI::sum(in_out, comm, in_out);
+  held_inflow_share = in_out[0] > 0.0 ? in_out[0] / std::max(in_out[1], 1e-300) : 0.0;
 }
 
 bool BiotProblem::Impl::update_draining(double t, double dt) {

@@ -54,7 +54,6 @@ bool has_one_way_lines(const BiotSetup& setup) {
          });
 }
 
-/// Whether steps are solved by Newton's method: a clay or a retention curve.
 std::vector<std::string>
 step_header(const std::vector<std::unique_ptr<monitors::Monitor>>& monitors,
             bool one_way,
