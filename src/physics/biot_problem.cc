@@ -373,8 +373,10 @@ StepReport BiotProblem::Impl::take_step(double t_new) {
   report.drain_rounds = 0;
   bool new_geometry = m.excavate(m.time);
   new_geometry = m.fit_springs(m.time) || new_geometry;
-  if (new_geometry)
+  if (new_geometry) {
     m.find_exposed();
+    m.fixed_dt = std::numeric_limits<double>::quiet_NaN(); // Newton's matrix is stale
+  }
   m.gather_one_way(t_new);
   m.held_inflow_share = 0.0;
   // Cells taken out or props fitted change what the old states mean: start again

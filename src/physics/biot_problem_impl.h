@@ -269,15 +269,18 @@ struct BiotProblem::Impl {
   /// The residual after the last correction, that correction halved while the
   /// residual does not fall below `previous` (a backtracking line search).
   double searched_residual(double t_new, double dt, double previous, StepReport& report);
-  /// A Newton step's system: the parts no clay changes (`fixed_matrix` per dt' and
-  /// set of held pressures, `fixed_rhs` per step), to which each iteration adds
-  /// the clays' terms.
+  /// A Newton step's system: the parts no clay changes (`fixed_matrix` per dt',
+  /// set of held pressures, set of draining dofs and geometry; `fixed_rhs` per
+  /// solve), to which each iteration adds the clays' terms.
   void assemble_newton_system(double t_new, double dt, bool first_iteration);
   void add_clay_terms(double dt);
   LA::MPI::SparseMatrix fixed_matrix;
   LA::MPI::Vector fixed_rhs;
   double fixed_dt = std::numeric_limits<double>::quiet_NaN();
   std::vector<bool> fixed_pressures;
+  /// The draining dofs `fixed_matrix` was condensed with: a dof that joins or
+  /// leaves the set changes its row.
+  std::set<types::global_dof_index> fixed_draining;
   bool newton_factor_ready = false; ///< the solver holds a factor of some tangent
   /// Whether the last correction left the residual `relative` at round-off.
   bool at_round_off(double relative) const;

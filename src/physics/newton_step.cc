@@ -5,6 +5,7 @@
 
 #include "settlewell/core/errors.h"
 
+#include <deal.II/base/mpi.h>
 #include <deal.II/base/timer.h>
 
 #include <algorithm>
@@ -52,7 +53,8 @@ void BiotProblem::Impl::assemble_newton_system(double t_new,
                                                bool first_iteration) {
   if (first_iteration) {
     const std::vector<bool> pressures_now = active_pressures(conditions, t_new);
-    if (!(std::abs(dt - fixed_dt) <= 1e-12 * dt) || pressures_now != fixed_pressures) {
+    if (!(std::abs(dt - fixed_dt) <= 1e-12 * dt) || pressures_now != fixed_pressures ||
+        Utilities::MPI::logical_or(draining != fixed_draining, comm)) {
       assemble_matrix(dt);
       if (fixed_matrix.m() == 0) {
         Table<2, DoFTools::Coupling> all(FieldLayout::n_components,
@@ -63,6 +65,7 @@ void BiotProblem::Impl::assemble_newton_system(double t_new,
       fixed_matrix.copy_from(matrix);
       fixed_dt = dt;
       fixed_pressures = pressures_now;
+      fixed_draining = draining;
     }
     assemble_rhs(t_new, dt);
     fixed_rhs = rhs;

@@ -123,8 +123,7 @@ void run_section(Document& d, const toml::table& r) {
              "of the water the lines let out (largest " +
              significant(100 * get(r["water_balance"]["largest_held_inflow_share"])) +
              " %): the exit point of a seepage face is not resolved there, the face "
-             "feeds the ground and the discharge is too low. Seepage faces in soil "
-             "with a retention curve are not robust yet.");
+             "feeds the ground and the discharge is too low.");
   run.table(
       {{"item", "value"},
        {{{"scenario"}, {text(r["input"])}},

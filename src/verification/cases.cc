@@ -79,6 +79,11 @@ const std::vector<VerificationCase>& all_cases() {
        "with the soil above the new water table drained along its retention curve, "
        "at its moist weight, under Bishop's stress",
        run_lowered_water_table},
+      {"seepage-face-bank",
+       "steady flow through a Gardner sand bank from a pond to a ditch, its downstream "
+       "face a seepage face: discharge against Dupuit's value (Charny) and the "
+       "Kirchhoff integral of the face, no water entering the face",
+       run_seepage_face_bank},
   };
   return cases;
 }

@@ -46,5 +46,6 @@ std::vector<CheckRow> run_cam_clay_column(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_davis_raymond(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_unsaturated_infiltration(const CaseSettings&, MPI_Comm);
 std::vector<CheckRow> run_lowered_water_table(const CaseSettings&, MPI_Comm);
+std::vector<CheckRow> run_seepage_face_bank(const CaseSettings&, MPI_Comm);
 
 } // namespace settlewell::verification
