@@ -115,9 +115,7 @@ std::vector<CheckRow> run_lowered_water_table(const CaseSettings&, MPI_Comm comm
                               hand_settlement(), 1e-7,
                               "mv integral with Bishop's stress and the moist weight "
                               "(Terzaghi 1943; Bishop 1959; van Genuchten 1980)"));
-  rows.push_back(scaled_row(name, "water balance, worst step (over the most water moved)",
-                            run.balance, 0.0, 1.0, 1e-6,
-                            "conservation of mass (the mixed form, Celia et al. 1990)"));
+  rows.push_back(water_balance_row(name, run.balance));
   return rows;
 }
 

@@ -74,6 +74,12 @@ void WaterBalance::add(const BiotProblem& problem, const StepReport& step) {
       std::max(worst_, std::abs(storage.net + out) / std::max(largest_moved_, 1e-30));
 }
 
+CheckRow water_balance_row(const std::string& case_name, double worst) {
+  return scaled_row(case_name, "water balance, worst step (over the most water moved)",
+                    worst, 0.0, 1.0, 1e-6,
+                    "conservation of mass (the mixed form, Celia et al. 1990)");
+}
+
 double NewtonOrders::median() const {
   if (orders_.empty())
     return std::numeric_limits<double>::quiet_NaN();

@@ -5,7 +5,10 @@ phreatic line (part of the storage's share, never more), writes the degree of
 saturation (between theta_r/theta_s and 1, below 1 somewhere) and takes a few
 Newton iterations a step. Against the saturated run, storage gives a larger share
 of the pumped water (the sand drains) and the ground settles less (above the
-water table the soil carries Bishop's stress at S_r < 1, and weighs less).
+water table the soil carries Bishop's stress at S_r < 1, and weighs less). With
+the well's screen raised 4 m above the water it holds, the part above the water is
+a seepage face in drained soil: it must settle with no point taking water in, and
+the water balance must close.
 
     unconfined_example.py SETTLEWELL SOURCE_DIR FOLDER
 """
@@ -77,6 +80,13 @@ def main():
     settle = [r["summary"]["settlement_outside_m"] for r in (wet, dry)]
     if not settle[0] < settle[1]:
         fail(f"settlement outside the wall {settle[0]} m drained against {settle[1]} m")
+    high = folder / "screen_high.toml"
+    high.write_text(re.sub(r"(?m)^screen_top = -8\.0 .*$", "screen_top = -3.0", text))
+    if high.read_text() == text:
+        fail("the example's screen_top line was not found")
+    seeping = run(settlewell, high, folder / "screen_high")["water_balance"]
+    if seeping["steps_held_points_feeding"] != 0 or not seeping["closes"]:
+        fail(f"the screen above its water fed the ground or broke the balance: {seeping}")
     print(f"PASS: storage {100 * share[0]:.1f} % of the pumped water (saturated "
           f"{100 * share[1]:.1f} %), {drained:.4g} m3 from the pores; settlement "
           f"{1000 * settle[0]:.1f} mm (saturated {1000 * settle[1]:.1f} mm); "

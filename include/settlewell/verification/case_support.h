@@ -69,6 +69,9 @@ private:
   double largest_moved_ = 0.0, worst_ = 0.0;
 };
 
+/// The row of a case with a retention curve: WaterBalance::worst() within 1e-6.
+CheckRow water_balance_row(const std::string& case_name, double worst);
+
 /// Settings that let Newton's own convergence show, not the stopping rules': a
 /// tight tolerance, exact corrections, and each step started from the last one's
 /// state (with the trend carried on most steps converge in two iterations, too few
