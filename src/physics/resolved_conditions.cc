@@ -82,7 +82,7 @@ void resolve_hydraulic(const BiotSetup& setup,
     else if (one_way)
       out.pressures.push_back(one_way_line(c, setup, line));
     else
-      out.pressures.push_back({line, excess_from(c, setup), c.window});
+      out.pressures.push_back({line, excess_from(c, setup), c.window, c.exchange, {}});
   }
 }
 

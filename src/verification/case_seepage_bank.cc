@@ -152,16 +152,17 @@ std::vector<CheckRow> run_seepage_face_bank(const CaseSettings&, MPI_Comm comm) 
       run.discharge, kirchhoff_q, 1e-5,
       "Darcy's law integrated over the bank's height (Kirchhoff transform, common "
       "practice)"));
-  rows.push_back(scaled_row(name,
-                            "water entering held points of the seepage face, over the "
-                            "water leaving, worst step",
-                            run.held_inflow, 0.0, 1.0, 1e-6,
-                            "a seepage face takes no water in (Neuman 1973)"));
+  rows.push_back(
+      scaled_row(name,
+                 "water entering held points of the seepage face, over the "
+                 "water leaving, worst step",
+                 run.held_inflow, 0.0, 1.0, 1e-6,
+                 "a seepage face takes no water in (Neuman 1973, from memory)"));
   rows.push_back(scaled_row(name,
                             "largest pore pressure on the face above the ditch, kPa",
                             run.face_pressure, 0.0, 1.0, 1e-6,
                             "a seepage face holds at most atmospheric pressure "
-                            "(Neuman 1973)"));
+                            "(Neuman 1973, from memory)"));
   rows.push_back(water_balance_row(name, run.balance));
   return rows;
 }
