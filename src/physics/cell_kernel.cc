@@ -221,22 +221,26 @@ void CellKernel::add_unsaturated_terms(const CellCoefficients& c,
   const RetentionCurve& curve = *u.curve;
   const double gw = u.gamma_w, theta_s = curve.saturated_content;
   for (unsigned int q = 0; q < fe_values_.n_quadrature_points; ++q) {
+    // The pressures first: most points of a region with a retention curve lie
+    // below the water table, and need no other shape data.
     double p = 0.0, p_old = 0.0, strain = 0.0, strain_old = 0.0;
-    Tensor<1, 2> grad_p;
-    evaluate_shapes(q);
     for (const unsigned int i : p_dofs_) {
-      p += local(i) * phi_p_[i];
-      p_old += old(i) * phi_p_[i];
-      grad_p += local(i) * grad_p_[i];
-    }
-    for (const unsigned int i : u_dofs_) {
-      strain += local(i) * divergence_[i];
-      strain_old += old(i) * divergence_[i];
+      const double phi = fe_values_[layout_.excess_pressure].value(i, q);
+      p += local(i) * phi;
+      p_old += old(i) * phi;
     }
     const double start = u.start_pressure(fe_values_.quadrature_point(q));
     const double now = start + p, before = start + p_old;
     if (now >= 0.0 && before >= 0.0 && start >= 0.0)
       continue; // saturated throughout: the saturated system holds
+    Tensor<1, 2> grad_p;
+    evaluate_shapes(q);
+    for (const unsigned int i : p_dofs_)
+      grad_p += local(i) * grad_p_[i];
+    for (const unsigned int i : u_dofs_) {
+      strain += local(i) * divergence_[i];
+      strain_old += old(i) * divergence_[i];
+    }
     const auto at = curve.at(now / gw), at_old = curve.at(before / gw),
                at_start = curve.at(start / gw);
     const double capacity = at.capacity / gw; // d theta / dP, 1/kPa
